@@ -1,0 +1,56 @@
+import { chromium, type Browser, type Page } from 'playwright-core';
+import { inject } from 'vitest';
+
+/** Debian's Chromium, headless, with the flags this machine needs (no background network, no GPU). */
+export async function launchBrowser(): Promise<Browser> {
+  return chromium.launch({
+    executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
+    headless: true,
+    args: [
+      '--headless',
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-quic',
+      '--no-first-run',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-sync',
+    ],
+  });
+}
+
+export function appUrl(path = '/'): string {
+  return new URL(path, inject('appUrl')).toString();
+}
+
+/** A fresh e-mail per test run, so tests never collide with the seeded demo accounts. */
+export function uniqueEmail(label: string): string {
+  return `${label}-${Date.now().toString(36)}-${Math.random().toString(36).slice(2, 7)}@example.test`;
+}
+
+/** Collects page errors and failed console messages, so a test can assert there were none. */
+export function watchPageErrors(page: Page): string[] {
+  const errors: string[] = [];
+  page.on('pageerror', (error) => errors.push(error.message));
+  page.on('console', (message) => {
+    // A 401 from /api/auth/me before sign-in is expected; the browser logs every non-2xx response.
+    if (message.type() === 'error' && !message.text().startsWith('Failed to load resource')) errors.push(message.text());
+  });
+  return errors;
+}
+
+export async function signUp(page: Page, user: { email: string; name: string; password: string }): Promise<void> {
+  await page.goto(appUrl('/sign-in'));
+  await page.getByRole('tab', { name: 'Sign up' }).or(page.getByRole('button', { name: 'Sign up' })).first().click();
+  await page.getByLabel('Email').fill(user.email);
+  await page.getByLabel('Display name').fill(user.name);
+  await page.getByLabel('Password', { exact: true }).fill(user.password);
+  await page.getByRole('button', { name: 'Sign up' }).last().click();
+}
+
+export async function signIn(page: Page, user: { email: string; password: string }): Promise<void> {
+  await page.goto(appUrl('/sign-in'));
+  await page.getByLabel('Email').fill(user.email);
+  await page.getByLabel('Password', { exact: true }).fill(user.password);
+  await page.getByRole('button', { name: 'Sign in' }).last().click();
+}
