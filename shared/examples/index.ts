@@ -1,0 +1,32 @@
+import { sheetDocumentSchema, type SheetDocument } from '../sheet/document';
+import harvestedFishStock from './harvested-fish-stock.json';
+import soilMoistureAnomaly from './soil-moisture-anomaly.json';
+import grazingTwoSpecies from './grazing-two-species.json';
+import commodityPriceIndex from './commodity-price-index.json';
+
+/**
+ * Demo sheets of our own invention, for the seeder (first sheets of a new site) and the UI's
+ * "start from an example" list. The JSON files are the source; they are parsed once here, so a
+ * broken example fails loudly at import rather than showing up half-valid on a page.
+ */
+export interface ExampleSheet {
+  /** Stable key, also the JSON file's base name. */
+  slug: string;
+  document: SheetDocument;
+}
+
+const sources: Record<string, unknown> = {
+  'harvested-fish-stock': harvestedFishStock,
+  'soil-moisture-anomaly': soilMoistureAnomaly,
+  'grazing-two-species': grazingTwoSpecies,
+  'commodity-price-index': commodityPriceIndex,
+};
+
+export const exampleSheets: readonly ExampleSheet[] = Object.entries(sources).map(([slug, json]) => ({
+  slug,
+  document: sheetDocumentSchema.parse(json),
+}));
+
+export function findExampleSheet(slug: string): ExampleSheet | undefined {
+  return exampleSheets.find((example) => example.slug === slug);
+}
