@@ -1,0 +1,5 @@
+/** Every table, for Drizzle's typed client. drizzle-kit finds them itself through the *.table.ts glob. */
+export * from '../users/users.table';
+export * from '../auth/sessions.table';
+export * from '../auth/password-resets.table';
+export * from '../sheets/sheets.table';

@@ -1,0 +1,47 @@
+import { type AnyPgColumn, index, integer, jsonb, pgTable, primaryKey, text, timestamp } from 'drizzle-orm/pg-core';
+import type { VersionDigests } from '@shared/api/sheets';
+import { users } from '../users/users.table';
+
+export const sheets = pgTable(
+  'sheets',
+  {
+    id: text('id').primaryKey(),
+    ownerId: text('owner_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    title: text('title').notNull(),
+    /** Number of the newest version; versions are numbered 1, 2, 3 … per sheet. */
+    currentVersion: integer('current_version').notNull().default(1),
+    forkedFrom: text('forked_from').references((): AnyPgColumn => sheets.id, { onDelete: 'set null' }),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+    updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+    /** Soft delete: versions stay for forks that point here; the sheet is gone for everyone. */
+    deletedAt: timestamp('deleted_at', { withTimezone: true }),
+  },
+  (table) => [index('sheets_owner_updated_idx').on(table.ownerId, table.updatedAt)],
+);
+
+/** Immutable: rows are only ever inserted. */
+export const sheetVersions = pgTable(
+  'sheet_versions',
+  {
+    sheetId: text('sheet_id')
+      .notNull()
+      .references(() => sheets.id, { onDelete: 'cascade' }),
+    number: integer('number').notNull(),
+    /** A SheetDocument, validated with sheetDocumentSchema before it is written. */
+    document: jsonb('document').notNull(),
+    authorId: text('author_id')
+      .notNull()
+      .references(() => users.id),
+    message: text('message').notNull(),
+    /** The version this one was based on; null for the first. */
+    parentNumber: integer('parent_number'),
+    digests: jsonb('digests').$type<VersionDigests>().notNull().default({}),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (table) => [primaryKey({ name: 'sheet_versions_sheet_number_pk', columns: [table.sheetId, table.number] })],
+);
+
+export type SheetRow = typeof sheets.$inferSelect;
+export type SheetVersionRow = typeof sheetVersions.$inferSelect;

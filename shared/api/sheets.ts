@@ -1,0 +1,93 @@
+import { z } from 'zod';
+import { cellIdSchema } from '../sheet/document';
+
+/**
+ * Payloads of /api/sheets/*. The document itself is checked with `sheetDocumentSchema` by the
+ * server (it answers 400 with the path of the first issue); here it is `unknown` so that a bad
+ * document reaches that check instead of failing as a generic bad request.
+ */
+
+export const sheetTitleSchema = z
+  .string()
+  .trim()
+  .min(1, 'a sheet needs a title')
+  .max(200, 'a sheet title is at most 200 characters');
+
+export const sheetIdSchema = z.string().regex(/^[a-z0-9]{1,64}$/, 'not a sheet id');
+
+export const createSheetRequestSchema = z.object({
+  title: sheetTitleSchema,
+  document: z.unknown().optional(),
+});
+export type CreateSheetRequest = z.infer<typeof createSheetRequestSchema>;
+
+export const renameSheetRequestSchema = z.object({ title: sheetTitleSchema });
+export type RenameSheetRequest = z.infer<typeof renameSheetRequestSchema>;
+
+/** A run's digest per simulation cell id. */
+export const versionDigestsSchema = z.record(cellIdSchema, z.string().min(1).max(200));
+export type VersionDigests = z.infer<typeof versionDigestsSchema>;
+
+export const saveVersionRequestSchema = z.object({
+  baseVersion: z.number().int().min(1),
+  message: z
+    .string()
+    .trim()
+    .min(1, 'describe the version in a few words')
+    .max(200, 'a version message is at most 200 characters'),
+  document: z.unknown(),
+  digests: versionDigestsSchema.optional(),
+});
+export type SaveVersionRequest = z.infer<typeof saveVersionRequestSchema>;
+
+export const createdSheetSchema = z.object({ id: z.string(), title: z.string(), version: z.number().int() });
+export type CreatedSheet = z.infer<typeof createdSheetSchema>;
+
+export const savedVersionSchema = z.object({ number: z.number().int() });
+export type SavedVersion = z.infer<typeof savedVersionSchema>;
+
+/** Dates are ISO 8601 strings on the wire; the client's api/ functions turn them into Dates. */
+export const sheetSummarySchema = z.object({
+  id: z.string(),
+  title: z.string(),
+  version: z.number().int(),
+  forkedFrom: z.string().nullable(),
+  createdAt: z.string(),
+  updatedAt: z.string(),
+});
+export type SheetSummary = z.infer<typeof sheetSummarySchema>;
+
+export const sheetListSchema = z.object({ sheets: z.array(sheetSummarySchema) });
+export type SheetList = z.infer<typeof sheetListSchema>;
+
+export const sheetDetailSchema = z.object({
+  id: z.string(),
+  title: z.string(),
+  owner: z.object({ id: z.string(), name: z.string() }),
+  version: z.number().int(),
+  forkedFrom: z.string().nullable(),
+  /** The current version's document (a SheetDocument). */
+  document: z.unknown(),
+  digests: versionDigestsSchema,
+  createdAt: z.string(),
+  updatedAt: z.string(),
+});
+export type SheetDetail = z.infer<typeof sheetDetailSchema>;
+
+export const versionSummarySchema = z.object({
+  number: z.number().int(),
+  message: z.string(),
+  author: z.object({ id: z.string(), name: z.string() }),
+  parent: z.number().int().nullable(),
+  createdAt: z.string(),
+});
+export type VersionSummary = z.infer<typeof versionSummarySchema>;
+
+export const versionListSchema = z.object({ versions: z.array(versionSummarySchema) });
+export type VersionList = z.infer<typeof versionListSchema>;
+
+export const versionDetailSchema = versionSummarySchema.extend({
+  document: z.unknown(),
+  digests: versionDigestsSchema,
+});
+export type VersionDetail = z.infer<typeof versionDetailSchema>;
