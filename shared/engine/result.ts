@@ -1,0 +1,197 @@
+import type { Method } from '../sheet/document';
+import type { WatchSpec } from './plan';
+
+/**
+ * Output types of the engine. A `ChunkResult` is what one worker returns for a contiguous range
+ * of paths: typed arrays plus a few numbers, so every buffer can be transferred.
+ *
+ * Layouts (all "column-major by path", so one column is one contiguous run of paths):
+ *   saved          index (k · d + i) · pathCount + p   k = saved-time index, i = state, p = path
+ *   probeValues    index (j · d + i) · pathCount + p   j = probe-time index
+ *   runningMax/Min index i · pathCount + p
+ *   firstPassage   index w · pathCount + p            w = watch index; NaN = not reached
+ *   absorptionTime index i · pathCount + p            NaN = state i never absorbed
+ *   blowupTime     index p                            NaN = no blow-up
+ * A path that blew up holds NaN at every saved and probe time after the blow-up; its running
+ * max/min cover the steps before it.
+ */
+export interface ChunkResult {
+  firstPath: number;
+  /** Paths this chunk was asked for. */
+  pathCount: number;
+  /** Paths actually simulated (fewer than pathCount only when cancelled); always a prefix. */
+  pathsDone: number;
+  cancelled: boolean;
+  stateCount: number;
+  saveCount: number;
+  probeCount: number;
+  watchCount: number;
+  saved: Float64Array;
+  probeValues: Float64Array;
+  runningMax: Float64Array;
+  runningMin: Float64Array;
+  firstPassage: Float64Array;
+  absorptionTime: Float64Array;
+  blowupTime: Float64Array;
+}
+
+export interface SimulationHooks {
+  /** Called with the number of paths of this chunk done so far, at most every ~20 ms of work. */
+  onProgress?(pathsDone: number): void;
+  /** Polled between small batches of paths (every ~20 ms of work); true stops the chunk. */
+  shouldStop?(): boolean;
+}
+
+/** Statistics over live paths at every saved time, for one state variable (arrays of saveCount). */
+export interface SavedStats {
+  mean: Float64Array;
+  /** Unbiased sample variance (divisor n − 1); NaN with fewer than two live paths. */
+  variance: Float64Array;
+  /** Quantiles by Hyndman & Fan (1996) type 7 (linear interpolation between order statistics). */
+  q05: Float64Array;
+  q25: Float64Array;
+  q50: Float64Array;
+  q75: Float64Array;
+  q95: Float64Array;
+  min: Float64Array;
+  max: Float64Array;
+  /** Paths with a finite value (not blown up) at that time. */
+  live: Int32Array;
+}
+
+export interface BlowupSummary {
+  count: number;
+  /** Earliest blow-up time over all paths, or null. */
+  firstTime: number | null;
+  /** Advice shown next to the result, or null when nothing blew up. */
+  suggestion: string | null;
+}
+
+export interface ExtinctionSummary {
+  state: number;
+  /** Paths absorbed at this state's boundary by t1. */
+  count: number;
+  firstTime: number | null;
+  /** Mean absorption time among absorbed paths, or null. */
+  meanTime: number | null;
+}
+
+export interface StabilityReport {
+  scheme: Method;
+  /** Drift = lambda · x. */
+  lambda: number;
+  /** Diffusion = mu · x. */
+  mu: number;
+  h: number;
+  stable: boolean;
+  /** The scheme's mean-square amplification factor E[R²]; stable iff < 1. */
+  amplification: number;
+  message: string;
+}
+
+export interface ProbeSeries {
+  /** The step time the requested probe time was snapped to. */
+  time: number;
+  requested: number;
+  /** One Float64Array of length `paths` per state (NaN for blown-up paths). */
+  values: Float64Array[];
+}
+
+export interface SimulationResult {
+  stateNames: string[];
+  method: Method;
+  /** Paths merged (simulated and not cancelled), including blown-up ones. */
+  paths: number;
+  cancelled: boolean;
+  steps: number;
+  h: number;
+  t0: number;
+  t1: number;
+  seed: number;
+  /** Actual saved times (step times nearest the even grid). */
+  savedTimes: Float64Array;
+  /** Step index of each saved time. */
+  savedSteps: Int32Array;
+  /** Per state. */
+  stats: SavedStats[];
+  /**
+   * All path values at all saved times, per state: index k · paths + p. Kept so charts and
+   * probes can read the distribution at any saved time.
+   */
+  savedValues: Float64Array[];
+  /** Per state, per sample path: that path's values at the saved times. */
+  samplePaths: Float64Array[][];
+  /** Per state: every path's value at t1 (NaN for blown-up paths). */
+  finalValues: Float64Array[];
+  probes: ProbeSeries[];
+  /** Per state, per path. */
+  runningMax: Float64Array[];
+  runningMin: Float64Array[];
+  watches: WatchSpec[];
+  /** Per watch, per path: first time the level was reached (NaN = not reached). */
+  firstPassage: Float64Array[];
+  /** Per state, per path: absorption time (NaN = not absorbed). */
+  absorptionTime: Float64Array[];
+  /** Per path: blow-up time (NaN = none). */
+  blowupTime: Float64Array;
+  blowups: BlowupSummary;
+  extinctions: ExtinctionSummary[];
+  stability: StabilityReport | null;
+  /** FNV-1a 64 over the saved statistics and final values (hex, 16 digits). */
+  digest: string;
+}
+
+export interface ProbeRequest {
+  quantity: 'mean' | 'variance' | 'quantile' | 'exceedance' | 'subceedance' | 'hit-before' | 'first-passage' | 'extinction';
+  state: number;
+  /** Default t1. */
+  time?: number;
+  level?: number;
+  probability?: number;
+  /** Default 'above'. */
+  direction?: 'above' | 'below';
+}
+
+export interface ProbeEstimate {
+  estimate: number;
+  standardError: number;
+  /** 95 % interval. */
+  ci: [number, number];
+  /** Paths the estimate rests on (for first-passage: how many reached the level). */
+  paths: number;
+  note?: string;
+}
+
+export interface StudyOptions {
+  levels: number;
+  coarsestSteps: number;
+  paths: number;
+  /** State index to measure. */
+  state: number;
+  reference: 'auto' | 'exact' | 'finest';
+}
+
+export interface StudyLevel {
+  steps: number;
+  h: number;
+  strongError: number;
+  strongSE: number;
+  weakError: number;
+  weakSE: number;
+}
+
+export interface StudyResult {
+  levels: StudyLevel[];
+  /** Fitted slope of log error against log h; NaN when it cannot be fitted. */
+  strongOrder: number;
+  strongOrderSE: number;
+  strongOrderCI: [number, number];
+  weakOrder: number;
+  weakOrderSE: number;
+  weakOrderCI: [number, number];
+  reference: 'exact' | 'finest';
+  /** Samples used (paths that blew up at some level are left out). */
+  paths: number;
+  excluded: number;
+  note?: string;
+}
