@@ -1,0 +1,53 @@
+import { findConstant } from './functions';
+import { helperName } from './prelude';
+import type { CheckedExpr, ExprNode } from './tree';
+
+/** Replacements that need no extra brackets: an identifier, an unsigned number, or `(…)` without inner brackets. */
+const SELF_CONTAINED = /^(?:[A-Za-z_$][A-Za-z0-9_$]*|[0-9.]+(?:e[+-]?[0-9]+)?|\([^()]*\))$/;
+
+/**
+ * JavaScript source of a checked expression, built only from the tree (never from the user's
+ * text). Each scope name becomes `names[name]` (an identifier such as `s0`, or a numeric literal);
+ * functions become the prelude's helpers. Everything is parenthesised, so precedence never
+ * depends on the replacements. Comparisons and logic yield 1 or 0, as in `evaluate`.
+ */
+export function generateSource(tree: CheckedExpr, names: Readonly<Record<string, string>>): string {
+  return emit(tree.root, names);
+}
+
+function emit(node: ExprNode, names: Readonly<Record<string, string>>): string {
+  switch (node.kind) {
+    case 'number':
+      return numberSource(node.value);
+    case 'constant':
+      return numberSource(findConstant(node.name)?.value ?? Number.NaN);
+    case 'name': {
+      if (!Object.hasOwn(names, node.name)) throw new Error(`no replacement given for the name '${node.name}'`);
+      const replacement = names[node.name] ?? '';
+      return SELF_CONTAINED.test(replacement) ? replacement : `(${replacement})`;
+    }
+    case 'unary': {
+      const operand = emit(node.operand, names);
+      return node.op === '!' ? `(${operand} ? 0 : 1)` : `(${node.op}${operand})`;
+    }
+    case 'arithmetic':
+      return `(${emit(node.left, names)} ${node.op} ${emit(node.right, names)})`;
+    case 'comparison': {
+      const op = node.op === '==' ? '===' : node.op === '!=' ? '!==' : node.op;
+      return `((${emit(node.left, names)} ${op} ${emit(node.right, names)}) ? 1 : 0)`;
+    }
+    case 'logical':
+      return `((${emit(node.left, names)} ${node.op} ${emit(node.right, names)}) ? 1 : 0)`;
+    case 'conditional':
+      return `(${emit(node.test, names)} ? ${emit(node.then, names)} : ${emit(node.otherwise, names)})`;
+    case 'call':
+      return `${helperName(node.fn)}(${node.args.map((arg) => emit(arg, names)).join(', ')})`;
+  }
+}
+
+/** Full precision (String of a double round-trips); negatives in brackets so `- -1` never forms. */
+export function numberSource(value: number): string {
+  if (!Number.isFinite(value)) throw new Error(`cannot write the non-finite number ${value} into an expression`);
+  const text = String(value);
+  return value < 0 || Object.is(value, -0) ? `(${Object.is(value, -0) ? '-0' : text})` : text;
+}
