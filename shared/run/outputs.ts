@@ -1,0 +1,169 @@
+import type { Method, ProbeCell, StudyCell } from '../sheet/document';
+import type { ProbeEstimate, ProbeRequest, SimulationResult, StudyLevel, StudyOptions, StudyResult } from '../engine/result';
+
+/**
+ * Per-cell outputs of a sheet run: small, plain JSON (no typed arrays), what the command-line
+ * runner prints and what a stored run record can keep. Non-finite numbers become null, because
+ * JSON has no NaN.
+ */
+
+export const QUANTILE_KEYS = ['5', '25', '50', '75', '95'] as const;
+export type QuantileKey = (typeof QUANTILE_KEYS)[number];
+
+export interface StateSummary {
+  mean: number | null;
+  variance: number | null;
+  quantiles: Record<QuantileKey, number | null>;
+}
+
+export interface SimulationOutput {
+  id: string;
+  kind: 'simulation';
+  method: Method;
+  paths: number;
+  steps: number;
+  /** Distribution of each state variable at t1, over paths that did not blow up. */
+  final: Record<string, StateSummary>;
+  blowups: number;
+  digest: string;
+}
+
+export interface ProbeOutput {
+  id: string;
+  kind: 'probe';
+  estimate: number | null;
+  standardError: number | null;
+  ci: [number | null, number | null];
+  paths: number;
+  note?: string;
+}
+
+export interface StudyLevelOutput {
+  steps: number;
+  h: number;
+  strongError: number | null;
+  strongSE: number | null;
+  weakError: number | null;
+  weakSE: number | null;
+}
+
+export interface StudyOutput {
+  id: string;
+  kind: 'study';
+  strongOrder: number | null;
+  weakOrder: number | null;
+  reference: 'exact' | 'finest';
+  levels: StudyLevelOutput[];
+  note?: string;
+}
+
+/** A numerical cell that could not be computed (the rest of the sheet still runs). */
+export interface FailedCellOutput {
+  id: string;
+  kind: 'simulation' | 'probe' | 'study';
+  error: string;
+}
+
+export type CellOutput = SimulationOutput | ProbeOutput | StudyOutput | FailedCellOutput;
+
+export interface SheetRunOutput {
+  title: string;
+  cells: CellOutput[];
+}
+
+export function finiteOrNull(value: number): number | null {
+  return Number.isFinite(value) ? value : null;
+}
+
+export function simulationOutput(id: string, result: SimulationResult): SimulationOutput {
+  const last = result.savedTimes.length - 1;
+  const final: Record<string, StateSummary> = {};
+  result.stateNames.forEach((name, i) => {
+    const stats = result.stats[i]!;
+    final[name] = {
+      mean: finiteOrNull(stats.mean[last]!),
+      variance: finiteOrNull(stats.variance[last]!),
+      quantiles: {
+        '5': finiteOrNull(stats.q05[last]!),
+        '25': finiteOrNull(stats.q25[last]!),
+        '50': finiteOrNull(stats.q50[last]!),
+        '75': finiteOrNull(stats.q75[last]!),
+        '95': finiteOrNull(stats.q95[last]!),
+      },
+    };
+  });
+  return {
+    id,
+    kind: 'simulation',
+    method: result.method,
+    paths: result.paths,
+    steps: result.steps,
+    final,
+    blowups: result.blowups.count,
+    digest: result.digest,
+  };
+}
+
+export function probeOutput(id: string, estimate: ProbeEstimate): ProbeOutput {
+  const output: ProbeOutput = {
+    id,
+    kind: 'probe',
+    estimate: finiteOrNull(estimate.estimate),
+    standardError: finiteOrNull(estimate.standardError),
+    ci: [finiteOrNull(estimate.ci[0]), finiteOrNull(estimate.ci[1])],
+    paths: estimate.paths,
+  };
+  if (estimate.note) output.note = estimate.note;
+  return output;
+}
+
+function studyLevelOutput(level: StudyLevel): StudyLevelOutput {
+  return {
+    steps: level.steps,
+    h: level.h,
+    strongError: finiteOrNull(level.strongError),
+    strongSE: finiteOrNull(level.strongSE),
+    weakError: finiteOrNull(level.weakError),
+    weakSE: finiteOrNull(level.weakSE),
+  };
+}
+
+export function studyOutput(id: string, result: StudyResult): StudyOutput {
+  const output: StudyOutput = {
+    id,
+    kind: 'study',
+    strongOrder: finiteOrNull(result.strongOrder),
+    weakOrder: finiteOrNull(result.weakOrder),
+    reference: result.reference,
+    levels: result.levels.map(studyLevelOutput),
+  };
+  if (result.note) output.note = result.note;
+  return output;
+}
+
+function stateIndex(stateNames: readonly string[], name: string, cellId: string): number {
+  const index = stateNames.indexOf(name);
+  if (index < 0) throw new Error(`cell ${cellId}: the model has no state variable "${name}"`);
+  return index;
+}
+
+/** The engine's view of a probe cell: states by index rather than by name. */
+export function probeRequest(cell: ProbeCell, stateNames: readonly string[]): ProbeRequest {
+  const request: ProbeRequest = { quantity: cell.quantity, state: stateIndex(stateNames, cell.state, cell.id) };
+  if (cell.time !== undefined) request.time = cell.time;
+  if (cell.level !== undefined) request.level = cell.level;
+  if (cell.probability !== undefined) request.probability = cell.probability;
+  if (cell.direction !== undefined) request.direction = cell.direction;
+  return request;
+}
+
+/** The engine's view of a study cell; without a state named, the first state is measured. */
+export function studyOptions(cell: StudyCell, stateNames: readonly string[]): StudyOptions {
+  return {
+    levels: cell.levels,
+    coarsestSteps: cell.coarsestSteps,
+    paths: cell.paths,
+    state: cell.state === undefined ? 0 : stateIndex(stateNames, cell.state, cell.id),
+    reference: cell.reference,
+  };
+}
