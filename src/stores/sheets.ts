@@ -1,0 +1,52 @@
+import { defineStore } from 'pinia';
+import { ref } from 'vue';
+import * as sheetsApi from '@/api/sheets';
+import type { CreatedSheet, SheetSummary } from '@/api/sheets';
+import { errorMessage } from '@/api/http';
+
+/** The signed-in user's sheet list: load, create, rename, delete. */
+export const useSheetsStore = defineStore('sheets', () => {
+  const items = ref<SheetSummary[]>([]);
+  const loaded = ref(false);
+  const loading = ref(false);
+  const error = ref<string | null>(null);
+
+  async function fetchAll(): Promise<void> {
+    loading.value = true;
+    try {
+      items.value = await sheetsApi.listSheets();
+      error.value = null;
+      loaded.value = true;
+    } catch (cause) {
+      error.value = errorMessage(cause);
+    } finally {
+      loading.value = false;
+    }
+  }
+
+  async function create(title: string): Promise<CreatedSheet> {
+    const created = await sheetsApi.createSheet({ title: title.trim() });
+    const now = new Date();
+    items.value = [{ id: created.id, title: created.title, version: created.version, forkedFrom: null, createdAt: now, updatedAt: now }, ...items.value];
+    return created;
+  }
+
+  async function rename(id: string, title: string): Promise<void> {
+    const trimmed = title.trim();
+    await sheetsApi.renameSheet(id, trimmed);
+    items.value = items.value.map((sheet) => (sheet.id === id ? { ...sheet, title: trimmed, updatedAt: new Date() } : sheet));
+  }
+
+  async function remove(id: string): Promise<void> {
+    await sheetsApi.deleteSheet(id);
+    items.value = items.value.filter((sheet) => sheet.id !== id);
+  }
+
+  function reset(): void {
+    items.value = [];
+    loaded.value = false;
+    error.value = null;
+  }
+
+  return { items, loaded, loading, error, fetchAll, create, rename, remove, reset };
+});
