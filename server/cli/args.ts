@@ -1,0 +1,72 @@
+/**
+ * Command-line arguments of the headless runner:
+ *   sheet run <file.json> [--workers N] [--paths-scale F]
+ * A mistake here is a usage error (exit code 2), never a crash.
+ */
+export interface RunArguments {
+  command: 'run';
+  file: string;
+  /** Worker threads; null = one per core. */
+  workers: number | null;
+  /** Multiplies every simulation's and study's path count (quick looks and tests). */
+  pathsScale: number | null;
+}
+
+export interface HelpArguments {
+  command: 'help';
+}
+
+export type CliArguments = RunArguments | HelpArguments;
+
+export class UsageError extends Error {
+  constructor(message: string) {
+    super(message);
+    this.name = 'UsageError';
+  }
+}
+
+export const USAGE = `Usage: npm run --silent sheet -- run <file.json> [--workers N] [--paths-scale F]
+
+Validates the sheet, runs every simulation, probe and study cell, and prints one JSON
+object { "title", "cells": [...] } on stdout.
+
+  --workers N       worker threads to simulate on (default: one per core)
+  --paths-scale F   multiply every path count by F (e.g. 0.1 for a quick look)
+
+Exit codes: 0 done, 1 invalid sheet (details on stderr) or a cell failed, 2 usage error.`;
+
+function positiveNumber(flag: string, text: string | undefined, integer: boolean): number {
+  if (text === undefined || text.startsWith('--')) throw new UsageError(`${flag} needs a value`);
+  const value = Number(text);
+  if (!Number.isFinite(value) || value <= 0 || (integer && !Number.isInteger(value))) {
+    throw new UsageError(`${flag} must be a positive ${integer ? 'whole number' : 'number'}, got "${text}"`);
+  }
+  return value;
+}
+
+export function parseArguments(argv: readonly string[]): CliArguments {
+  const [command, ...rest] = argv;
+  if (command === undefined || command === 'help' || command === '--help' || command === '-h') return { command: 'help' };
+  if (command !== 'run') throw new UsageError(`unknown command "${command}"; the only command is "run"`);
+  let file: string | undefined;
+  let workers: number | null = null;
+  let pathsScale: number | null = null;
+  for (let i = 0; i < rest.length; i++) {
+    const arg = rest[i]!;
+    const [flag, inline] = arg.startsWith('--') && arg.includes('=') ? [arg.slice(0, arg.indexOf('=')), arg.slice(arg.indexOf('=') + 1)] : [arg, undefined];
+    if (flag === '--workers') {
+      workers = positiveNumber('--workers', inline ?? rest[++i], true);
+      if (workers > 256) throw new UsageError('--workers is at most 256');
+    } else if (flag === '--paths-scale') {
+      pathsScale = positiveNumber('--paths-scale', inline ?? rest[++i], false);
+    } else if (flag.startsWith('-')) {
+      throw new UsageError(`unknown option "${flag}"`);
+    } else if (file === undefined) {
+      file = arg;
+    } else {
+      throw new UsageError(`only one sheet file, got "${file}" and "${arg}"`);
+    }
+  }
+  if (file === undefined) throw new UsageError('run needs a sheet file: run <file.json>');
+  return { command: 'run', file, workers, pathsScale };
+}

@@ -1,0 +1,46 @@
+import { readFile } from 'node:fs/promises';
+import { runSheet } from '../../shared/run/run-sheet';
+import { scaleSheetPaths } from '../../shared/run/scale';
+import type { SheetRunOutput } from '../../shared/run/outputs';
+import type { RunArguments } from './args';
+import { createThreadPool, defaultThreadCount } from './thread-pool';
+import { validateSheetText } from './validate';
+
+/** What the command prints and returns; cli.ts does the actual writing and exiting. */
+export interface CommandOutcome {
+  exitCode: number;
+  stdout: string;
+  stderr: string[];
+}
+
+export const EXIT_OK = 0;
+export const EXIT_INVALID = 1;
+export const EXIT_USAGE = 2;
+
+export async function runCommand(args: RunArguments): Promise<CommandOutcome> {
+  let text: string;
+  try {
+    text = await readFile(args.file, 'utf8');
+  } catch (error) {
+    const reason = (error as NodeJS.ErrnoException).code === 'ENOENT' ? 'no such file' : error instanceof Error ? error.message : String(error);
+    return { exitCode: EXIT_USAGE, stdout: '', stderr: [`cannot read ${args.file}: ${reason}`] };
+  }
+  const validation = validateSheetText(text);
+  if (!validation.ok) {
+    return { exitCode: EXIT_INVALID, stdout: '', stderr: [`${args.file} is not a valid sheet:`, ...validation.problems.map((p) => `  ${p}`)] };
+  }
+  const doc = args.pathsScale === null ? validation.doc : scaleSheetPaths(validation.doc, args.pathsScale);
+  const threads = createThreadPool(args.workers ?? defaultThreadCount());
+  let output: SheetRunOutput;
+  try {
+    output = await runSheet(doc, threads.environment);
+  } finally {
+    await threads.close();
+  }
+  const failed = output.cells.flatMap((cell) => ('error' in cell ? [`cell ${cell.id}: ${cell.error}`] : []));
+  return {
+    exitCode: failed.length > 0 ? EXIT_INVALID : EXIT_OK,
+    stdout: JSON.stringify(output),
+    stderr: failed.length > 0 ? ['some cells could not be computed:', ...failed.map((p) => `  ${p}`)] : [],
+  };
+}

@@ -1,0 +1,27 @@
+import { parentPort } from 'node:worker_threads';
+import { runStudy } from '../../shared/engine/study';
+import { chunkTransferables, runChunkTask } from '../../shared/run/chunk-task';
+import type { FromWorker, ToWorker } from './messages';
+
+/** A worker thread of the headless runner: the same chunk task as the browser's worker. */
+if (!parentPort) throw new Error('server/cli/worker.ts runs only as a worker thread');
+const port = parentPort;
+
+function send(message: FromWorker, transfer: ArrayBuffer[] = []): void {
+  port.postMessage(message, transfer);
+}
+
+port.on('message', (message: ToWorker) => {
+  try {
+    if (message.type === 'chunk') {
+      const chunk = runChunkTask(message.plan, message.firstPath, message.pathCount, message.cancel, (pathsDone) =>
+        send({ type: 'progress', id: message.id, pathsDone }),
+      );
+      send({ type: 'chunk-done', id: message.id, chunk }, chunkTransferables(chunk));
+    } else {
+      send({ type: 'study-done', id: message.id, result: runStudy(message.plan, message.options) });
+    }
+  } catch (error) {
+    send({ type: 'failed', id: message.id, message: error instanceof Error ? error.message : String(error) });
+  }
+});
