@@ -17,6 +17,7 @@ export interface EnsurePostgresOptions {
 export interface LocalPostgres {
   /** Connection URL over TCP on 127.0.0.1 with trust auth for the `meander` role. */
   url: string;
+  /** Stops the server if this call started it (a server that was already running is left alone). */
   stop(): Promise<void>;
 }
 
@@ -53,7 +54,9 @@ export async function ensurePostgres(options: EnsurePostgresOptions): Promise<Lo
 
   const serverOptions = `-k ${socketDir} -p ${options.port} -c listen_addresses=127.0.0.1`;
   const logFile = path.join(socketDir, 'postgres.log');
-  if (!(await isRunning(dataDir, exec))) {
+  // A server someone else started (an `npm start` in another terminal) is reused and left running.
+  const startedHere = !(await isRunning(dataDir, exec));
+  if (startedHere) {
     log(`starting PostgreSQL on 127.0.0.1:${options.port}`);
     await exec('pg_ctl', ['start', '-w', '-t', '60', '-D', dataDir, '-l', logFile, '-o', serverOptions]).catch(
       async (error: unknown) => {
@@ -67,7 +70,7 @@ export async function ensurePostgres(options: EnsurePostgresOptions): Promise<Lo
   return {
     url: `postgres://${SUPERUSER}@127.0.0.1:${options.port}/${options.database}`,
     async stop() {
-      if (await isRunning(dataDir, exec)) await exec('pg_ctl', ['stop', '-m', 'fast', '-w', '-D', dataDir]);
+      if (startedHere && (await isRunning(dataDir, exec))) await exec('pg_ctl', ['stop', '-m', 'fast', '-w', '-D', dataDir]);
     },
   };
 }

@@ -35,6 +35,7 @@ export const API_ERROR_CODES = {
   lastAdmin: 'admin.last_admin',
   userNotFound: 'admin.user_not_found',
   sheetNotFound: 'sheets.not_found',
+  invalidDocument: 'sheets.invalid_document',
   versionNotFound: 'sheets.version_not_found',
   versionConflict: 'sheets.version_conflict',
 } as const;

@@ -1,0 +1,100 @@
+import { existsSync } from 'node:fs';
+import path from 'node:path';
+import express, { type Express } from 'express';
+import { adminRoutes } from './admin/admin.routes';
+import { createAdminUsecases } from './admin/admin.usecases';
+import { accountRoutes, authRoutes } from './auth/auth.routes';
+import { createAuthUsecases } from './auth/auth.usecases';
+import { createLucia } from './auth/lucia';
+import { createPasswordResetsRepository } from './auth/password-resets.repository';
+import { createPasswordHasher } from './auth/passwords';
+import { createRateLimiter, type RateLimiter, SIGN_IN_LIMIT } from './auth/rate-limiter';
+import { loadSession } from './auth/session-middleware';
+import type { AppConfig } from './config';
+import type { Db } from './db/client';
+import { devRoutes } from './dev/dev.routes';
+import { requireSameOrigin } from './http/csrf';
+import { errorMiddleware, type ErrorReporter } from './http/error-middleware';
+import { healthRoutes } from './http/health.routes';
+import { routeNotFound } from './http/http.errors';
+import { securityHeaders } from './http/security-headers';
+import type { MailboxReader } from './mail/mail-fake';
+import type { Mailer } from './mail/mailer';
+import { createSheetsRepository } from './sheets/sheets.repository';
+import { sheetsRoutes } from './sheets/sheets.routes';
+import { createSheetsUsecases } from './sheets/sheets.usecases';
+import { createUsersRepository } from './users/users.repository';
+
+export interface AppDeps {
+  db: Db;
+  mailer: Mailer;
+  /** The in-process mail fake, for the development mailbox route. */
+  mailbox?: MailboxReader;
+  config: AppConfig;
+  /** Sign-in attempts per client address and e-mail; 10 per 15 minutes by default. */
+  signInLimiter?: RateLimiter;
+  /** Where unexpected errors go; stderr by default. */
+  report?: ErrorReporter;
+}
+
+const defaultReport: ErrorReporter = (error) => {
+  process.stderr.write(`[meander] ${error instanceof Error ? (error.stack ?? error.message) : String(error)}\n`);
+};
+
+/** Builds the Express app from its dependencies; listening is the caller's business. */
+export function createApp(deps: AppDeps): Express {
+  const { db, mailer, config } = deps;
+  const report = deps.report ?? defaultReport;
+  const lucia = createLucia({ db, secureCookies: config.secureCookies });
+  const users = createUsersRepository({ db });
+  const auth = createAuthUsecases({
+    users,
+    resets: createPasswordResetsRepository({ db }),
+    lucia,
+    hasher: createPasswordHasher(),
+    mailer,
+    signInLimiter: deps.signInLimiter ?? createRateLimiter(SIGN_IN_LIMIT),
+    report,
+  });
+  const sheets = createSheetsUsecases({ db, sheets: createSheetsRepository({ db }) });
+  const admin = createAdminUsecases({ db, users });
+
+  const app = express();
+  app.disable('x-powered-by');
+  app.use(securityHeaders());
+
+  const api = express.Router();
+  api.use(express.json({ limit: '2mb' }));
+  api.use(requireSameOrigin(config.appOrigin));
+  api.use(loadSession(lucia));
+  api.use('/health', healthRoutes({ db }));
+  api.use('/auth', authRoutes({ auth, appOrigin: config.appOrigin }));
+  api.use('/account', accountRoutes({ auth }));
+  api.use('/admin', adminRoutes({ admin }));
+  api.use('/sheets', sheetsRoutes({ sheets }));
+  if (deps.mailbox && config.nodeEnv !== 'production') api.use('/dev', devRoutes({ mailbox: deps.mailbox }));
+  api.use((_req, _res, next) => next(routeNotFound()));
+  app.use('/api', api);
+
+  if (config.clientDir) serveClient(app, config.clientDir);
+  app.use(errorMiddleware(report));
+  return app;
+}
+
+/** The built client, with every other GET answered by index.html so the client's router takes over. */
+function serveClient(app: Express, clientDir: string) {
+  const indexHtml = path.join(clientDir, 'index.html');
+  app.use(
+    '/assets',
+    express.static(path.join(clientDir, 'assets'), { immutable: true, maxAge: '1y', fallthrough: false }),
+  );
+  app.use(express.static(clientDir, { index: false }));
+  app.use((req, res, next) => {
+    if ((req.method !== 'GET' && req.method !== 'HEAD') || !existsSync(indexHtml)) {
+      next();
+      return;
+    }
+    res.setHeader('Cache-Control', 'no-cache');
+    res.sendFile(indexHtml);
+  });
+}

@@ -1,0 +1,84 @@
+import { Router, type Request } from 'express';
+import {
+  changePasswordRequestSchema,
+  passwordResetConfirmSchema,
+  passwordResetRequestSchema,
+  signInRequestSchema,
+  signUpRequestSchema,
+  updateAccountRequestSchema,
+} from '@shared/api/auth';
+import { parseOr400 } from '../http/validate';
+import type { AuthUsecases } from './auth.usecases';
+import { toCurrentUser } from './auth.usecases';
+import { currentSession, currentUser, requireSignedIn } from './session-middleware';
+
+export interface AuthRoutesDeps {
+  auth: AuthUsecases;
+  /** Where reset links point; without it, the origin the request came to. */
+  appOrigin?: string;
+}
+
+function requestOrigin(req: Request, appOrigin?: string): string {
+  return appOrigin ?? `${req.protocol}://${req.get('host') ?? 'localhost'}`;
+}
+
+/** /api/auth/*: sign-up, sign-in, sign-out, the current user, password reset. */
+export function authRoutes({ auth, appOrigin }: AuthRoutesDeps): Router {
+  const router = Router();
+
+  router.post('/sign-up', async (req, res) => {
+    const input = parseOr400(signUpRequestSchema, req.body);
+    const { user, cookie } = await auth.signUp(input);
+    res.appendHeader('Set-Cookie', cookie).status(201).json(user);
+  });
+
+  router.post('/sign-in', async (req, res) => {
+    const input = parseOr400(signInRequestSchema, req.body);
+    const { user, cookie } = await auth.signIn(input, req.ip ?? 'unknown');
+    res.appendHeader('Set-Cookie', cookie).json(user);
+  });
+
+  router.post('/sign-out', async (_req, res) => {
+    const session = res.locals.session;
+    if (session) res.appendHeader('Set-Cookie', await auth.signOut(session.id));
+    res.status(204).end();
+  });
+
+  router.get('/me', (_req, res) => {
+    res.json(toCurrentUser(currentUser(res)));
+  });
+
+  router.post('/password-reset', (req, res) => {
+    const { email } = parseOr400(passwordResetRequestSchema, req.body);
+    auth.requestPasswordReset(email, requestOrigin(req, appOrigin));
+    res.status(202).json({ message: 'If an account uses this address, a reset link is on its way.' });
+  });
+
+  router.post('/password-reset/confirm', async (req, res) => {
+    const input = parseOr400(passwordResetConfirmSchema, req.body);
+    await auth.confirmPasswordReset(input);
+    res.status(204).end();
+  });
+
+  return router;
+}
+
+/** /api/account/*: the signed-in user's own settings. */
+export function accountRoutes({ auth }: { auth: AuthUsecases }): Router {
+  const router = Router();
+  router.use(requireSignedIn());
+
+  router.patch('/', async (req, res) => {
+    const input = parseOr400(updateAccountRequestSchema, req.body);
+    res.json(await auth.updateAccount(currentUser(res).id, input));
+  });
+
+  router.post('/password', async (req, res) => {
+    const input = parseOr400(changePasswordRequestSchema, req.body);
+    currentSession(res);
+    const { cookie } = await auth.changePassword(currentUser(res).id, input);
+    res.appendHeader('Set-Cookie', cookie).status(204).end();
+  });
+
+  return router;
+}

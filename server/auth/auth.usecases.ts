@@ -1,0 +1,136 @@
+import { createHash, randomBytes } from 'node:crypto';
+import { generateIdFromEntropySize, type User } from 'lucia';
+import type {
+  ChangePasswordRequest,
+  CurrentUser,
+  PasswordResetConfirm,
+  SignInRequest,
+  SignUpRequest,
+  UpdateAccountRequest,
+} from '@shared/api/auth';
+import { isUniqueViolation } from '../db/client';
+import type { Mailer } from '../mail/mailer';
+import { passwordResetMail } from '../mail/reset-mail';
+import type { UsersRepository } from '../users/users.repository';
+import type { UserRow } from '../users/users.table';
+import { badCredentials, badResetToken, emailTaken, rateLimited, wrongPassword } from './auth.errors';
+import type { AuthLucia } from './lucia';
+import type { PasswordResetsRepository } from './password-resets.repository';
+import type { PasswordHasher } from './passwords';
+import type { RateLimiter } from './rate-limiter';
+
+export const RESET_TOKEN_LIFETIME_MS = 60 * 60 * 1000;
+
+export interface AuthUsecaseDeps {
+  users: UsersRepository;
+  resets: PasswordResetsRepository;
+  lucia: AuthLucia;
+  hasher: PasswordHasher;
+  mailer: Mailer;
+  signInLimiter: RateLimiter;
+  /** Called with errors of work done after the response (sending the reset mail). */
+  report: (error: unknown) => void;
+  now?: () => Date;
+}
+
+/** A signed-in result: the user as the API shows it and the cookie to set. */
+export interface SignedIn {
+  user: CurrentUser;
+  cookie: string;
+}
+
+export function toCurrentUser(user: Pick<UserRow, 'id' | 'email' | 'name' | 'role'> | User): CurrentUser {
+  return { id: user.id, email: user.email, name: user.name, role: user.role };
+}
+
+export function hashResetToken(token: string): string {
+  return createHash('sha256').update(token).digest('hex');
+}
+
+export function createAuthUsecases(deps: AuthUsecaseDeps) {
+  const { users, resets, lucia, hasher, mailer, signInLimiter, report } = deps;
+  const now = deps.now ?? (() => new Date());
+
+  async function startSession(user: UserRow): Promise<SignedIn> {
+    const session = await lucia.createSession(user.id, {});
+    return { user: toCurrentUser(user), cookie: lucia.createSessionCookie(session.id).serialize() };
+  }
+
+  return {
+    async signUp(input: SignUpRequest, role: UserRow['role'] = 'member'): Promise<SignedIn> {
+      if (await users.findByEmail(input.email)) throw emailTaken();
+      const passwordHash = await hasher.hash(input.password);
+      const user = await users
+        .insert({ id: generateIdFromEntropySize(10), email: input.email, name: input.name, passwordHash, role })
+        .catch((error: unknown) => {
+          throw isUniqueViolation(error) ? emailTaken() : error;
+        });
+      return startSession(user);
+    },
+
+    async signIn(input: SignInRequest, clientAddress: string): Promise<SignedIn> {
+      const limiterKey = `${clientAddress}|${input.email}`;
+      const decision = signInLimiter.consume(limiterKey);
+      if (!decision.allowed) throw rateLimited(decision.retryAfterSeconds);
+      const user = await users.findByEmail(input.email);
+      const valid = user ? await hasher.verify(user.passwordHash, input.password) : await hasher.verifyDummy(input.password);
+      if (!user || !valid) throw badCredentials();
+      signInLimiter.reset(limiterKey);
+      return startSession(user);
+    },
+
+    async signOut(sessionId: string): Promise<string> {
+      await lucia.invalidateSession(sessionId);
+      return lucia.createBlankSessionCookie().serialize();
+    },
+
+    /**
+     * Always answers the same way; the mail goes out after the response, so neither the answer
+     * nor its timing tells whether the account exists.
+     */
+    requestPasswordReset(email: string, appOrigin: string): void {
+      const work = async () => {
+        const user = await users.findByEmail(email);
+        if (!user) return;
+        const token = randomBytes(32).toString('base64url');
+        await resets.insert({
+          tokenHash: hashResetToken(token),
+          userId: user.id,
+          expiresAt: new Date(now().getTime() + RESET_TOKEN_LIFETIME_MS),
+        });
+        const link = new URL('/reset-password', appOrigin);
+        link.searchParams.set('token', token);
+        await mailer.send(passwordResetMail({ to: user.email, name: user.name, link: link.toString() }));
+      };
+      work().catch(report);
+    },
+
+    /** Sets the new password and signs the account out everywhere. */
+    async confirmPasswordReset(input: PasswordResetConfirm): Promise<void> {
+      const at = now();
+      const userId = await resets.consume(hashResetToken(input.token), at);
+      if (!userId) throw badResetToken();
+      await users.updatePasswordHash(userId, await hasher.hash(input.password));
+      await resets.retireAllForUser(userId, at);
+      await lucia.invalidateUserSessions(userId);
+    },
+
+    async updateAccount(userId: string, input: UpdateAccountRequest): Promise<CurrentUser> {
+      const user = input.name === undefined ? await users.findById(userId) : await users.updateName(userId, input.name);
+      if (!user) throw badCredentials();
+      return toCurrentUser(user);
+    },
+
+    /** Other sessions end (a changed password should lock out whoever knew the old one); this one is renewed. */
+    async changePassword(userId: string, input: ChangePasswordRequest): Promise<SignedIn> {
+      const user = await users.findById(userId);
+      if (!user) throw badCredentials();
+      if (!(await hasher.verify(user.passwordHash, input.currentPassword))) throw wrongPassword();
+      await users.updatePasswordHash(userId, await hasher.hash(input.newPassword));
+      await lucia.invalidateUserSessions(userId);
+      return startSession(user);
+    },
+  };
+}
+
+export type AuthUsecases = ReturnType<typeof createAuthUsecases>;

@@ -1,0 +1,55 @@
+import path from 'node:path';
+import { z } from 'zod';
+
+const port = z.coerce.number().int().min(1).max(65_535);
+const flag = z.enum(['true', 'false', '1', '0']).transform((value) => value === 'true' || value === '1');
+
+/** The environment the server reads, checked once at boot. */
+export const envSchema = z.object({
+  NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
+  PORT: port.default(3000),
+  /** Address to listen on; loopback unless told otherwise. */
+  HOST: z.string().min(1).default('127.0.0.1'),
+  API_PORT: port.default(3001),
+  /** When unset, `npm start` runs its own PostgreSQL under .data/pg. */
+  DATABASE_URL: z.url({ protocol: /^postgres(ql)?$/, error: 'DATABASE_URL must be a postgres:// URL' }).optional(),
+  PGPORT_MEANDER: port.default(54329),
+  /** The public origin (scheme://host:port); reset links and the Origin check use it. */
+  APP_ORIGIN: z
+    .url({ protocol: /^https?$/, error: 'APP_ORIGIN must be an http(s) origin such as http://localhost:3000' })
+    .transform((value) => new URL(value).origin)
+    .optional(),
+  SMTP_HOST: z.string().min(1).default('127.0.0.1'),
+  SMTP_PORT: port.default(2525),
+  MAIL_FROM: z.string().min(3).default('Meander <no-reply@meander.example.test>'),
+  /** Secure cookies; defaults to on in production. */
+  SESSION_SECURE: flag.optional(),
+});
+
+export type Env = z.infer<typeof envSchema>;
+
+/** What createApp needs, independent of where it came from. */
+export interface AppConfig {
+  nodeEnv: Env['NODE_ENV'];
+  appOrigin?: string;
+  secureCookies: boolean;
+  /** Built client to serve (dist/); omitted in tests and in `npm run dev`. */
+  clientDir?: string;
+}
+
+/** Parses the environment or throws one message listing every problem. */
+export function loadEnv(source: NodeJS.ProcessEnv = process.env): Env {
+  const result = envSchema.safeParse(source);
+  if (result.success) return result.data;
+  const problems = result.error.issues.map((issue) => `  ${issue.path.join('.')}: ${issue.message}`).join('\n');
+  throw new Error(`The environment is not valid:\n${problems}`);
+}
+
+export function appConfigFromEnv(env: Env, clientDir?: string): AppConfig {
+  return {
+    nodeEnv: env.NODE_ENV,
+    appOrigin: env.APP_ORIGIN,
+    secureCookies: env.SESSION_SECURE ?? env.NODE_ENV === 'production',
+    clientDir: clientDir ? path.resolve(clientDir) : undefined,
+  };
+}

@@ -1,0 +1,47 @@
+import { spawn } from 'node:child_process';
+import { appConfigFromEnv, loadEnv } from './config';
+import { listen } from './index';
+import { onShutdown, startServices } from './services';
+
+/** `npm run dev`: local services and the API on API_PORT, then Vite's dev server, which proxies /api here. */
+const log = (line: string) => process.stdout.write(`[meander] ${line}\n`);
+
+async function main() {
+  const env = loadEnv({ NODE_ENV: 'development', ...process.env });
+  const services = await startServices(env, log);
+  if (services.seed.seeded) {
+    log('first run: demo accounts created (demo-only credentials, also in the README):');
+    for (const account of services.seed.accounts) log(`  ${account.role.padEnd(6)} ${account.email}  password: ${account.password}`);
+  }
+  const api = await listen(
+    { db: services.database.db, mailer: services.mailer, mailbox: services.mailFake, config: appConfigFromEnv(env) },
+    { port: env.API_PORT, host: '127.0.0.1' },
+  ).catch(async (error: unknown) => {
+    await services.stop();
+    throw error;
+  });
+  log(`API at ${api.url}; starting Vite`);
+
+  const vite = spawn(process.execPath, ['node_modules/vite/bin/vite.js'], {
+    stdio: 'inherit',
+    env: { ...process.env, API_PORT: String(env.API_PORT) },
+  });
+  const stop = async () => {
+    if (vite.exitCode === null) {
+      const exited = new Promise<void>((resolve) => vite.once('exit', () => resolve()));
+      vite.kill('SIGTERM');
+      await exited;
+    }
+    await api.close();
+    await services.stop();
+  };
+  vite.once('exit', (code) => {
+    if (code !== null && code !== 0) log(`Vite exited with code ${code}`);
+  });
+  onShutdown(stop, log);
+}
+
+main().catch((error: unknown) => {
+  process.stderr.write(`[meander] could not start: ${error instanceof Error ? error.message : String(error)}\n`);
+  process.exit(1);
+});

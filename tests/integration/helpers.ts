@@ -1,0 +1,133 @@
+import { randomBytes } from 'node:crypto';
+import pg from 'pg';
+import request from 'supertest';
+import type TestAgent from 'supertest/lib/agent';
+import { inject } from 'vitest';
+import { createApp } from '../../server/app';
+import { createRateLimiter, type RateLimiter, SIGN_IN_LIMIT } from '../../server/auth/rate-limiter';
+import type { AppConfig } from '../../server/config';
+import { connectDatabase, type Database } from '../../server/db/client';
+import { type MailFake, startMailFake } from '../../server/mail/mail-fake';
+import { createMailer } from '../../server/mail/mailer';
+
+/** The origin the test app believes it has; state-changing requests must name it. */
+export const TEST_ORIGIN = 'http://meander.test';
+
+export interface TestContext {
+  app: ReturnType<typeof createApp>;
+  database: Database;
+  mailFake: MailFake;
+  signInLimiter: RateLimiter;
+  /** Errors the app reported as unexpected (a test can assert there were none). */
+  reported: unknown[];
+  /** A cookie-keeping client that sends our Origin. */
+  agent(): TestAgent;
+  close(): Promise<void>;
+}
+
+/**
+ * A fresh database per test file, copied from the migrated template the global setup made, so
+ * files never see each other's users (the last-admin rule counts every admin on the site).
+ */
+export async function createTestDatabase(): Promise<{ url: string; drop(): Promise<void> }> {
+  const templateUrl = new URL(inject('databaseUrl'));
+  const template = templateUrl.pathname.slice(1);
+  const name = `meander_t_${randomBytes(6).toString('hex')}`;
+  const adminUrl = new URL(templateUrl);
+  adminUrl.pathname = '/postgres';
+  const admin = new pg.Client({ connectionString: adminUrl.toString() });
+  await admin.connect();
+  try {
+    await admin.query(`CREATE DATABASE ${name} TEMPLATE ${template}`);
+  } finally {
+    await admin.end();
+  }
+  const url = new URL(templateUrl);
+  url.pathname = `/${name}`;
+  return {
+    url: url.toString(),
+    async drop() {
+      const client = new pg.Client({ connectionString: adminUrl.toString() });
+      await client.connect();
+      await client.query(`DROP DATABASE IF EXISTS ${name} WITH (FORCE)`).finally(() => client.end());
+    },
+  };
+}
+
+export async function createTestContext(options: { config?: Partial<AppConfig>; signInLimiter?: RateLimiter } = {}): Promise<TestContext> {
+  const testDb = await createTestDatabase();
+  const database = connectDatabase(testDb.url, { max: 5 });
+  // A mail fake in this worker, so the test can read what the app sent.
+  const mailFake = await startMailFake({ port: 0 });
+  const mailer = createMailer({ host: '127.0.0.1', port: mailFake.port, from: 'Meander <no-reply@meander.example.test>' });
+  const signInLimiter = options.signInLimiter ?? createRateLimiter(SIGN_IN_LIMIT);
+  const reported: unknown[] = [];
+  const app = createApp({
+    db: database.db,
+    mailer,
+    mailbox: mailFake,
+    config: { nodeEnv: 'test', appOrigin: TEST_ORIGIN, secureCookies: false, ...options.config },
+    signInLimiter,
+    report: (error) => reported.push(error),
+  });
+  return {
+    app,
+    database,
+    mailFake,
+    signInLimiter,
+    reported,
+    agent: () => request.agent(app).set('Origin', TEST_ORIGIN),
+    async close() {
+      mailer.close();
+      await mailFake.stop();
+      await database.close();
+      await testDb.drop();
+    },
+  };
+}
+
+let counter = 0;
+
+/** example.test addresses only; unique within a run. */
+export function uniqueEmail(label = 'modeller'): string {
+  counter += 1;
+  return `${label}-${counter}-${randomBytes(3).toString('hex')}@example.test`;
+}
+
+export const DEFAULT_PASSWORD = 'estuary-salinity-42';
+
+export interface SignedUpUser {
+  agent: TestAgent;
+  id: string;
+  email: string;
+  name: string;
+  password: string;
+}
+
+/** Signs up a new member through the API and returns a client holding its session. */
+export async function signUp(
+  context: TestContext,
+  fields: { email?: string; name?: string; password?: string } = {},
+): Promise<SignedUpUser> {
+  const agent = context.agent();
+  const email = fields.email ?? uniqueEmail();
+  const name = fields.name ?? 'Hydrology Tester';
+  const password = fields.password ?? DEFAULT_PASSWORD;
+  const response = await agent.post('/api/auth/sign-up').send({ email, name, password });
+  if (response.status !== 201) throw new Error(`sign-up failed: ${response.status} ${JSON.stringify(response.body)}`);
+  return { agent, id: response.body.id as string, email: email.toLowerCase(), name, password };
+}
+
+/** Waits for the mail fake to hold a message to `to` (the app sends reset mail after answering). */
+export async function waitForMail(mailFake: MailFake, to: string, timeoutMs = 5000) {
+  const started = Date.now();
+  for (;;) {
+    const found = mailFake
+      .messages()
+      .filter((message) => message.to.includes(to))
+      .at(-1);
+    if (found) return found;
+    if (Date.now() - started > timeoutMs) throw new Error(`no mail to ${to} within ${timeoutMs} ms`);
+    await new Promise((resolve) => setTimeout(resolve, 25));
+  }
+}
