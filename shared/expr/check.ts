@@ -97,6 +97,8 @@ class Checker {
       return null;
     }
     switch (node.type) {
+      case 'ParenthesizedExpression':
+        return this.convert(node.expression, depth);
       case 'Literal':
         return this.literal(node);
       case 'Identifier':
@@ -174,8 +176,10 @@ class Checker {
     return false;
   }
 
-  private call(callee: Expression | Super, args: readonly (Expression | SpreadElement)[], node: Node, depth: number): ExprNode | null {
+  private call(wrappedCallee: Expression | Super, args: readonly (Expression | SpreadElement)[], node: Node, depth: number): ExprNode | null {
     const converted = args.map((arg) => this.convert(arg, depth + 1));
+    let callee = wrappedCallee;
+    while (callee.type === 'ParenthesizedExpression') callee = callee.expression;
     if (callee.type !== 'Identifier') {
       if (callee.type === 'MemberExpression' || callee.type === 'Super') this.convert(callee, depth + 1);
       return this.fail(callee, `only the math functions can be called: ${FUNCTION_LIST}`);

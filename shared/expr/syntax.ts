@@ -19,6 +19,8 @@ export function parseExpressionText(text: string): ParseResult {
     node = parseExpressionAt(text, 0, {
       ecmaVersion: 2022,
       sourceType: 'script',
+      // Keeps brackets as nodes, so the root's end is the true end of the expression text.
+      preserveParens: true,
       onComment: (_block, _content, start, end) => {
         errors.push({ from: start, to: end, message: 'comments are not allowed in expressions' });
       },
