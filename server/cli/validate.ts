@@ -1,5 +1,5 @@
 import type { z } from 'zod';
-import { checkSheet, describeIssue, sheetDocumentSchema, type SheetDocument, type SheetIssue } from '../../shared/sheet/index';
+import { cellIdSchema, checkSheet, describeIssue, sheetDocumentSchema, type SheetDocument, type SheetIssue } from '../../shared/sheet/index';
 
 /**
  * Reads a sheet file's text into a checked document, or lists every problem found: first the
@@ -18,8 +18,8 @@ function describeSchemaIssue(issue: z.core.$ZodIssue, raw: unknown): string {
   if (first === 'cells' && typeof index === 'number') {
     const cells = (raw as { cells?: unknown[] }).cells;
     const cell = Array.isArray(cells) ? cells[index] : undefined;
-    const id = cell && typeof cell === 'object' && typeof (cell as { id?: unknown }).id === 'string' ? (cell as { id: string }).id : null;
-    const where = id !== null ? `cell ${id}` : `cell #${index + 1} (no valid id)`;
+    const id = cellIdSchema.safeParse(cell && typeof cell === 'object' ? (cell as { id?: unknown }).id : undefined);
+    const where = id.success ? `cell ${id.data}` : `cell #${index + 1} (no valid id)`;
     const path = pathText(rest);
     return `${where}${path ? `, ${path}` : ''}: ${issue.message}`;
   }
