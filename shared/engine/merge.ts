@@ -1,8 +1,178 @@
 import type { SimulationPlan } from './plan';
-import type { ChunkResult, SimulationResult } from './result';
+import type { ChunkResult, ExtinctionSummary, ProbeSeries, SavedStats, SimulationResult, BlowupSummary } from './result';
+import { planLayout } from './layout';
+import { moments, quantileSorted, sortFinite } from './statistics';
+import { Fnv1a64 } from './digest';
+import { meanSquareStability } from './stability';
 
-/** Merges chunks given in path order into the run's result (deterministic). */
+function checkChunks(plan: SimulationPlan, chunks: ChunkResult[], stateCount: number): void {
+  if (chunks.length === 0) throw new RangeError('nothing to merge: no chunks were given');
+  let expectedFirst = chunks[0]!.firstPath;
+  for (const chunk of chunks) {
+    if (chunk.stateCount !== stateCount || chunk.saveCount !== plan.saveCount || chunk.watchCount !== plan.watches.length || chunk.probeCount !== plan.probeTimes.length) {
+      throw new RangeError('a chunk does not belong to this plan (its sizes differ)');
+    }
+    if (chunk.firstPath !== expectedFirst) throw new RangeError(`chunks must be given in path order without gaps; expected a chunk starting at path ${expectedFirst}, got ${chunk.firstPath}`);
+    expectedFirst = chunk.firstPath + chunk.pathCount;
+  }
+}
+
+/** Copies column `column` (of `rows` rows of chunk.pathCount) of each chunk's done paths into one array. */
+function gather(chunks: ChunkResult[], pick: (chunk: ChunkResult) => Float64Array, column: number, paths: number, into?: Float64Array, at = 0): Float64Array {
+  const out = into ?? new Float64Array(paths);
+  let offset = at;
+  for (const chunk of chunks) {
+    const start = column * chunk.pathCount;
+    out.set(pick(chunk).subarray(start, start + chunk.pathsDone), offset);
+    offset += chunk.pathsDone;
+  }
+  return out;
+}
+
+function savedStats(values: Float64Array, paths: number, saveCount: number, scratch: Float64Array): SavedStats {
+  const stats: SavedStats = {
+    mean: new Float64Array(saveCount),
+    variance: new Float64Array(saveCount),
+    q05: new Float64Array(saveCount),
+    q25: new Float64Array(saveCount),
+    q50: new Float64Array(saveCount),
+    q75: new Float64Array(saveCount),
+    q95: new Float64Array(saveCount),
+    min: new Float64Array(saveCount),
+    max: new Float64Array(saveCount),
+    live: new Int32Array(saveCount),
+  };
+  for (let k = 0; k < saveCount; k++) {
+    const column = values.subarray(k * paths, (k + 1) * paths);
+    const m = moments(column);
+    const count = sortFinite(column, scratch);
+    stats.mean[k] = m.mean;
+    stats.variance[k] = m.variance;
+    stats.q05[k] = quantileSorted(scratch, count, 0.05);
+    stats.q25[k] = quantileSorted(scratch, count, 0.25);
+    stats.q50[k] = quantileSorted(scratch, count, 0.5);
+    stats.q75[k] = quantileSorted(scratch, count, 0.75);
+    stats.q95[k] = quantileSorted(scratch, count, 0.95);
+    stats.min[k] = count > 0 ? scratch[0]! : NaN;
+    stats.max[k] = count > 0 ? scratch[count - 1]! : NaN;
+    stats.live[k] = count;
+  }
+  return stats;
+}
+
+function blowupSummary(plan: SimulationPlan, blowupTime: Float64Array, h: number): BlowupSummary {
+  let count = 0;
+  let firstTime = Infinity;
+  for (let p = 0; p < blowupTime.length; p++) {
+    const time = blowupTime[p]!;
+    if (time === time) {
+      count++;
+      if (time < firstTime) firstTime = time;
+    }
+  }
+  if (count === 0) return { count, firstTime: null, suggestion: null };
+  const bound = plan.blowupBound === null ? 'became infinite or not a number' : `left [−${plan.blowupBound}, ${plan.blowupBound}] or became infinite`;
+  const suggestion =
+    `${count} of ${blowupTime.length} paths ${bound} (first at t = ${firstTime.toPrecision(4)}); they are left out of the statistics. ` +
+    `Try a smaller step: h = ${(h / 4).toPrecision(3)} (${plan.steps * 4} steps) instead of ${h.toPrecision(3)}. ` +
+    'If the paths still blow up, the model itself may explode in finite time.';
+  return { count, firstTime, suggestion };
+}
+
+function extinctionSummaries(plan: SimulationPlan, absorptionTime: Float64Array[]): ExtinctionSummary[] {
+  const summaries: ExtinctionSummary[] = [];
+  plan.boundaries.forEach((rule, state) => {
+    if (rule.rule !== 'absorb') return;
+    const times = absorptionTime[state]!;
+    let count = 0;
+    let sum = 0;
+    let firstTime = Infinity;
+    for (let p = 0; p < times.length; p++) {
+      const time = times[p]!;
+      if (time === time) {
+        count++;
+        sum += time;
+        if (time < firstTime) firstTime = time;
+      }
+    }
+    summaries.push({ state, count, firstTime: count > 0 ? firstTime : null, meanTime: count > 0 ? sum / count : null });
+  });
+  return summaries;
+}
+
+/**
+ * Merges chunks given in path order into the run's result. Statistics are computed over the
+ * concatenated columns, so the result (and its digest) does not depend on how paths were
+ * chunked. Blown-up paths (NaN) are left out of every statistic; `live` says how many remain.
+ */
 export function mergeChunks(plan: SimulationPlan, chunks: ChunkResult[]): SimulationResult {
-  void plan; void chunks;
-  throw new Error('mergeChunks: not implemented yet');
+  const layout = planLayout(plan);
+  const d = layout.stateCount;
+  checkChunks(plan, chunks, d);
+  const paths = chunks.reduce((sum, chunk) => sum + chunk.pathsDone, 0);
+  const saveCount = plan.saveCount;
+
+  const savedValues = Array.from({ length: d }, (_, i) => {
+    const values = new Float64Array(saveCount * paths);
+    for (let k = 0; k < saveCount; k++) gather(chunks, (c) => c.saved, k * d + i, paths, values, k * paths);
+    return values;
+  });
+  const scratch = new Float64Array(paths);
+  const stats = savedValues.map((values) => savedStats(values, paths, saveCount, scratch));
+  const finalValues = savedValues.map((values) => values.slice((saveCount - 1) * paths, saveCount * paths));
+  const sampleCount = Math.min(plan.samplePaths, paths);
+  const samplePaths = savedValues.map((values) =>
+    Array.from({ length: sampleCount }, (_, p) => {
+      const path = new Float64Array(saveCount);
+      for (let k = 0; k < saveCount; k++) path[k] = values[k * paths + p]!;
+      return path;
+    }),
+  );
+  const probes: ProbeSeries[] = plan.probeTimes.map((requested, j) => ({
+    requested,
+    time: layout.probeTimes[j]!,
+    values: Array.from({ length: d }, (_, i) => gather(chunks, (c) => c.probeValues, j * d + i, paths)),
+  }));
+  const runningMax = Array.from({ length: d }, (_, i) => gather(chunks, (c) => c.runningMax, i, paths));
+  const runningMin = Array.from({ length: d }, (_, i) => gather(chunks, (c) => c.runningMin, i, paths));
+  const firstPassage = plan.watches.map((_, w) => gather(chunks, (c) => c.firstPassage, w, paths));
+  const absorptionTime = Array.from({ length: d }, (_, i) => gather(chunks, (c) => c.absorptionTime, i, paths));
+  const blowupTime = gather(chunks, (c) => c.blowupTime, 0, paths);
+  const blowups = blowupSummary(plan, blowupTime, layout.h);
+
+  const digest = new Fnv1a64().addNumber(paths).addNumber(blowups.count).addNumbers(layout.savedTimes);
+  for (let i = 0; i < d; i++) {
+    const s = stats[i]!;
+    for (const column of [s.mean, s.variance, s.q05, s.q25, s.q50, s.q75, s.q95, s.min, s.max, s.live]) digest.addNumbers(column);
+    digest.addNumbers(finalValues[i]!);
+  }
+
+  return {
+    stateNames: [...plan.model.stateNames],
+    method: plan.method,
+    paths,
+    cancelled: chunks.some((chunk) => chunk.cancelled),
+    steps: plan.steps,
+    h: layout.h,
+    t0: plan.t0,
+    t1: plan.t1,
+    seed: plan.seed,
+    savedTimes: layout.savedTimes,
+    savedSteps: layout.saveSteps.slice(0, saveCount),
+    stats,
+    savedValues,
+    samplePaths,
+    finalValues,
+    probes,
+    runningMax,
+    runningMin,
+    watches: plan.watches.map((watch) => ({ ...watch })),
+    firstPassage,
+    absorptionTime,
+    blowupTime,
+    blowups,
+    extinctions: extinctionSummaries(plan, absorptionTime),
+    stability: meanSquareStability(plan),
+    digest: digest.hex(),
+  };
 }

@@ -1,14 +1,103 @@
 import type { SimulationPlan } from './plan';
 import type { ChunkResult, SimulationHooks, SimulationResult } from './result';
+import { planLayout, type PlanLayout } from './layout';
+import { compileKernel, KERNEL_TABLES, normalSlowPath, streamSeed, type KernelContext } from './kernel';
+import { mergeChunks } from './merge';
 
-/** Simulates paths firstPath .. firstPath + pathCount − 1 of the plan. */
-export function simulateChunk(plan: SimulationPlan, firstPath: number, pathCount: number, hooks?: SimulationHooks): ChunkResult {
-  void plan; void firstPath; void pathCount; void hooks;
-  throw new Error('simulateChunk: not implemented yet');
+/** Aim for batches of about this much wall time between hook checks (cancel lands within 200 ms). */
+const BATCH_TARGET_MS = 15;
+/** First batch: about this many path-steps, before the timing is known. */
+const FIRST_BATCH_PATH_STEPS = 100_000;
+
+function now(): number {
+  return typeof performance !== 'undefined' ? performance.now() : Date.now();
 }
 
-/** The whole run in one chunk. */
+/** Allocates the chunk's arrays (memory: pathCount · (saveCount + probeCount) · d doubles, plus per-path records). */
+export function allocateChunk(plan: SimulationPlan, layout: PlanLayout, firstPath: number, pathCount: number): ChunkResult {
+  const d = layout.stateCount;
+  const probeCount = layout.probeSteps.length;
+  const watchCount = plan.watches.length;
+  return {
+    firstPath,
+    pathCount,
+    pathsDone: 0,
+    cancelled: false,
+    stateCount: d,
+    saveCount: plan.saveCount,
+    probeCount,
+    watchCount,
+    saved: new Float64Array(plan.saveCount * d * pathCount),
+    probeValues: new Float64Array(probeCount * d * pathCount),
+    runningMax: new Float64Array(d * pathCount),
+    runningMin: new Float64Array(d * pathCount),
+    firstPassage: new Float64Array(watchCount * pathCount),
+    absorptionTime: new Float64Array(d * pathCount),
+    blowupTime: new Float64Array(pathCount),
+  };
+}
+
+/**
+ * Simulates paths firstPath … firstPath + pathCount − 1 of the plan. Each path draws from its own
+ * stream (seed, path index), so any split into chunks gives the same numbers. Hooks are checked
+ * between batches of paths sized to about 15 ms of work; a stop leaves `pathsDone` < pathCount
+ * and `cancelled` true.
+ */
+export function simulateChunk(plan: SimulationPlan, firstPath: number, pathCount: number, hooks?: SimulationHooks): ChunkResult {
+  if (!Number.isInteger(firstPath) || firstPath < 0) throw new RangeError(`firstPath must be a non-negative integer, got ${firstPath}`);
+  if (!Number.isInteger(pathCount) || pathCount < 0) throw new RangeError(`pathCount must be a non-negative integer, got ${pathCount}`);
+  const layout = planLayout(plan);
+  const kernel = compileKernel(plan, layout);
+  const chunk = allocateChunk(plan, layout, firstPath, pathCount);
+  const probeStepsSorted = new Int32Array(layout.probeOrder.length);
+  layout.probeOrder.forEach((j, q) => (probeStepsSorted[q] = j < 0 ? -1 : layout.probeSteps[j]!));
+  const ctx: KernelContext = {
+    kn: KERNEL_TABLES.kn,
+    wn: KERNEL_TABLES.wn,
+    gen: new Int32Array(4),
+    normalSlowPath,
+    seedState: new Uint32Array(4),
+    streamSeed,
+    saved: chunk.saved,
+    probeValues: chunk.probeValues,
+    runningMax: chunk.runningMax,
+    runningMin: chunk.runningMin,
+    firstPassage: chunk.firstPassage,
+    absorptionTime: chunk.absorptionTime,
+    blowupTime: chunk.blowupTime,
+    saveSteps: layout.saveSteps,
+    probeStepsSorted,
+    probeOrder: layout.probeOrder,
+    seed: plan.seed,
+    firstPath,
+    pathCount,
+    pStart: 0,
+    pEnd: 0,
+  };
+  const checksHooks = hooks?.shouldStop !== undefined || hooks?.onProgress !== undefined;
+  let batch = checksHooks ? Math.max(1, Math.floor(FIRST_BATCH_PATH_STEPS / plan.steps)) : pathCount;
+  while (ctx.pEnd < pathCount) {
+    if (hooks?.shouldStop?.() === true) {
+      chunk.cancelled = true;
+      break;
+    }
+    ctx.pStart = ctx.pEnd;
+    ctx.pEnd = Math.min(pathCount, ctx.pStart + batch);
+    const started = now();
+    kernel(ctx);
+    const elapsed = now() - started;
+    chunk.pathsDone = ctx.pEnd;
+    hooks?.onProgress?.(chunk.pathsDone);
+    if (checksHooks) {
+      // Resize the next batch toward the target time, changing by at most 4× at a time.
+      const perPath = Math.max(elapsed, 0.01) / (ctx.pEnd - ctx.pStart);
+      batch = Math.max(1, Math.min(batch * 4, Math.floor(BATCH_TARGET_MS / perPath)));
+    }
+  }
+  return chunk;
+}
+
+/** The whole run in one chunk: mergeChunks(plan, [simulateChunk(plan, 0, plan.paths, hooks)]). */
 export function simulate(plan: SimulationPlan, hooks?: SimulationHooks): SimulationResult {
-  void plan; void hooks;
-  throw new Error('simulate: not implemented yet');
+  return mergeChunks(plan, [simulateChunk(plan, 0, plan.paths, hooks)]);
 }

@@ -72,30 +72,66 @@ export function normalFrom(generator: Xoshiro128, tables: ZigguratTables = ZIGGU
   }
 }
 
-const UNIT = '2.3283064365386963e-10';
+/** Advances xoshiro128** held in gen[0..3] and returns the output as a signed int32. */
+function nextInt32(gen: Int32Array): number {
+  const s0 = gen[0]!;
+  const s1 = gen[1]!;
+  let s2 = gen[2]!;
+  let s3 = gen[3]!;
+  let r = Math.imul(s1, 5);
+  r = Math.imul((r << 7) | (r >>> 25), 9);
+  const t = s1 << 9;
+  s2 ^= s0;
+  s3 ^= s1;
+  gen[1] = s1 ^ s2;
+  gen[0] = s0 ^ s3;
+  gen[2] = s2 ^ t;
+  gen[3] = (s3 << 11) | (s3 >>> 21);
+  return r;
+}
+
+function openUnit(gen: Int32Array): number {
+  return ((nextInt32(gen) >>> 0) + 0.5) * 2.3283064365386963e-10;
+}
+
+/**
+ * The ziggurat's rare branch (≈ 1.2 % of draws) for a first draw hz that failed the fast test, on
+ * generator state gen[0..3] (updated in place). Kept out of the generated kernel so the hot loop
+ * stays small; the kernel spills its generator state into `gen` only on this branch.
+ */
+export function normalSlowPath(firstHz: number, firstIz: number, gen: Int32Array): number {
+  const { kn, wn, fn } = ZIGGURAT_TABLES;
+  let hz = firstHz;
+  let iz = firstIz;
+  for (;;) {
+    const x = hz * wn[iz]!;
+    if (iz === 0) {
+      let tail: number;
+      let y: number;
+      do {
+        tail = -Math.log(openUnit(gen)) / ZIGGURAT_R;
+        y = -Math.log(openUnit(gen));
+      } while (y + y < tail * tail);
+      return hz > 0 ? ZIGGURAT_R + tail : -ZIGGURAT_R - tail;
+    }
+    if (fn[iz]! + openUnit(gen) * (fn[iz - 1]! - fn[iz]!) < Math.exp(-0.5 * x * x)) return x;
+    hz = nextInt32(gen);
+    iz = hz & 127;
+    if (Math.abs(hz) < kn[iz]!) return hz * wn[iz]!;
+  }
+}
 
 /**
  * Source text that leaves one standard normal draw in `target`, on the generator state x0..x3.
- * Expects locals r, xt, iz, zx, zy, zs and the tables kn, wn, fn in scope. Same algorithm as
- * `normalFrom`, inlined so the fast path (≈ 99 % of draws) costs one generator step, one table
- * lookup and one multiply.
+ * Expects locals r, xt, iz, the tables kn, wn, the scratch Int32Array `gen` and the function
+ * `normalSlowPath` in scope. Same algorithm as `normalFrom`: the fast path (≈ 99 % of draws)
+ * costs one generator step, one table lookup and one multiply.
  */
 export function normalDrawSource(target: string): string {
-  const next = XOSHIRO_NEXT_SOURCE;
-  const uniform = `((r >>> 0) + 0.5) * ${UNIT}`;
-  return `${next} iz = r & 127;
+  return `${XOSHIRO_NEXT_SOURCE} iz = r & 127;
 if ((r < 0 ? -r : r) < kn[iz]) { ${target} = r * wn[iz]; } else {
-  for (;;) {
-    zx = r * wn[iz];
-    if (iz === 0) {
-      zs = r > 0;
-      do { ${next} zx = -Math.log(${uniform}) / ${ZIGGURAT_R}; ${next} zy = -Math.log(${uniform}); } while (zy + zy < zx * zx);
-      ${target} = zs ? ${ZIGGURAT_R} + zx : -${ZIGGURAT_R} - zx; break;
-    }
-    zy = zx; ${next}
-    if (fn[iz] + ${uniform} * (fn[iz - 1] - fn[iz]) < Math.exp(-0.5 * zy * zy)) { ${target} = zy; break; }
-    ${next} iz = r & 127;
-    if ((r < 0 ? -r : r) < kn[iz]) { ${target} = r * wn[iz]; break; }
-  }
+  gen[0] = x0; gen[1] = x1; gen[2] = x2; gen[3] = x3;
+  ${target} = normalSlowPath(r, iz, gen);
+  x0 = gen[0]; x1 = gen[1]; x2 = gen[2]; x3 = gen[3];
 }`;
 }

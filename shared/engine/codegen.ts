@@ -1,0 +1,203 @@
+import { EXPRESSION_PRELUDE } from '../expr';
+import type { SimulationPlan } from './plan';
+import type { PlanLayout } from './layout';
+import { stepSourceFor } from './methods';
+import { normalDrawSource } from './random/ziggurat';
+
+/**
+ * Builds the source of the per-run kernel: ONE function holding the whole path loop, with drift
+ * and diffusion inlined, states and generator state in local variables, the ziggurat's fast path
+ * inlined for every noise draw. Paths are simulated one at a time over all steps (path-major), so
+ * the state stays in registers. The sources it splices in come from the expression compiler's
+ * checked trees (see plan.ts), never from user text; numbers are written as literals here.
+ */
+
+/** A JavaScript literal for a number (finite or ±Infinity), safe to splice into an expression. */
+export function numberLiteral(value: number): string {
+  if (Number.isNaN(value)) return 'NaN';
+  if (value === Infinity) return 'Infinity';
+  if (value === -Infinity) return '(-Infinity)';
+  return Object.is(value, -0) || value < 0 ? `(${String(value)})` : String(value);
+}
+
+/** Time at the end of step n, for records; computed only when something is recorded. */
+const END_OF_STEP = '(t0 + n * h)';
+
+function range(count: number): number[] {
+  return Array.from({ length: count }, (_, i) => i);
+}
+
+interface Parts {
+  declarations: string;
+  noiseDraws: string;
+  stepAndBoundaries: string;
+  blowupTest: string;
+  initialBoundaries: string;
+  /** Updates of t (start of step) and tn (end of step), only where the step reads them. */
+  timeUpdate: string;
+}
+
+function parts(plan: SimulationPlan, layout: PlanLayout): Parts {
+  const { model } = plan;
+  const d = layout.stateCount;
+  const m = layout.noiseCount;
+  const step = stepSourceFor(model, plan.method);
+  const names = [
+    ...range(d).flatMap((i) => [`s${i}`, `n${i}`, `mx${i}`, `mn${i}`, `ab${i}`, `abT${i}`]),
+    ...range(m).flatMap((j) => [`z${j}`, `dw${j}`]),
+    ...range(plan.watches.length).flatMap((w) => [`hw${w}`, `fp${w}`]),
+    ...step.temporaries,
+  ];
+  const declarations = `let ${names.map((name) => `${name} = 0.0`).join(', ')};`;
+
+  const draws = range(m).map((j) => normalDrawSource(`z${j}`));
+  const increments = range(m).map((j) => {
+    if (layout.cholesky === null) return `dw${j} = sqh * z${j};`;
+    const terms = range(j + 1)
+      .filter((k) => layout.cholesky![j * m + k] !== 0)
+      .map((k) => `${numberLiteral(layout.cholesky![j * m + k]!)} * z${k}`);
+    return `dw${j} = sqh * (${terms.length > 0 ? terms.join(' + ') : '0'});`;
+  });
+
+  const boundaryAt = (when: string): string =>
+    plan.boundaries
+      .map((rule, i) => {
+        if (rule.rule === 'none') return '';
+        const level = numberLiteral(rule.level);
+        const beyond = rule.side === 'above' ? `s${i} >= ${level}` : `s${i} <= ${level}`;
+        if (rule.rule === 'absorb') {
+          return `if (ab${i} === 1) s${i} = ${level}; else if (${beyond}) { s${i} = ${level}; ab${i} = 1; abT${i} = ${when}; }`;
+        }
+        const strictlyBeyond = rule.side === 'above' ? `s${i} > ${level}` : `s${i} < ${level}`;
+        return `if (${strictlyBeyond}) s${i} = ${level} + ${level} - s${i};`;
+      })
+      .filter((line) => line !== '')
+      .join('\n');
+
+  const assign = range(d)
+    .map((i) => `s${i} = n${i};`)
+    .join(' ');
+  const bound = plan.blowupBound === null ? null : numberLiteral(plan.blowupBound);
+  const blowupTest = range(d)
+    .map((i) => (bound === null ? `!(Math.abs(s${i}) < Infinity)` : `!(Math.abs(s${i}) <= ${bound})`))
+    .join(' || ');
+
+  return {
+    declarations,
+    noiseDraws: [...draws, ...increments].join('\n'),
+    stepAndBoundaries: `${step.body}\n${assign}\n${boundaryAt(END_OF_STEP)}`,
+    blowupTest,
+    initialBoundaries: boundaryAt('t0'),
+    timeUpdate: [
+      /(?<![\w$.])t(?![\w$])/.test(step.body) ? 't = t0 + (n - 1) * h;' : '',
+      /(?<![\w$.])tn(?![\w$])/.test(step.body) ? 'tn = t0 + n * h;' : '',
+    ].join(' '),
+  };
+}
+
+function initialValues(plan: SimulationPlan): string {
+  return plan.model.initial.map((value, i) => `s${i} = ${numberLiteral(value)};`).join(' ');
+}
+
+function watchUpdates(plan: SimulationPlan, time: string): string {
+  return plan.watches
+    .map((watch, w) => {
+      const level = numberLiteral(watch.level);
+      const reached = watch.direction === 'below' ? `s${watch.state} <= ${level}` : `s${watch.state} >= ${level}`;
+      return `if (hw${w} === 0 && ${reached}) { hw${w} = 1; fp${w} = ${time}; }`;
+    })
+    .join('\n');
+}
+
+/**
+ * Source of `kernel(ctx)`: simulates paths ctx.pStart … ctx.pEnd − 1 of a chunk (see
+ * KernelContext in kernel.ts for what ctx holds) and writes the chunk's arrays.
+ */
+export function buildKernelSource(plan: SimulationPlan, layout: PlanLayout): string {
+  const d = layout.stateCount;
+  const p = parts(plan, layout);
+  const states = range(d);
+  const save = states.map((i) => `saved[(k * ${d} + ${i}) * pathCount + p] = s${i};`).join(' ');
+  const saveNaN = states.map((i) => `saved[(k * ${d} + ${i}) * pathCount + p] = NaN;`).join(' ');
+  const probe = states.map((i) => `probeValues[(j * ${d} + ${i}) * pathCount + p] = s${i};`).join(' ');
+  const probeNaN = states.map((i) => `probeValues[(j * ${d} + ${i}) * pathCount + p] = NaN;`).join(' ');
+  const running = states.map((i) => `if (s${i} > mx${i}) mx${i} = s${i}; if (s${i} < mn${i}) mn${i} = s${i};`).join('\n');
+  const absorbing = plan.boundaries.map((rule, i) => (rule.rule === 'absorb' ? i : -1)).filter((i) => i >= 0);
+
+  return `"use strict";
+${EXPRESSION_PRELUDE}
+const kn = ctx.kn, wn = ctx.wn, gen = ctx.gen, normalSlowPath = ctx.normalSlowPath, seedState = ctx.seedState, streamSeed = ctx.streamSeed;
+const saved = ctx.saved, probeValues = ctx.probeValues, runningMax = ctx.runningMax, runningMin = ctx.runningMin;
+const firstPassage = ctx.firstPassage, absorptionTime = ctx.absorptionTime, blowupTime = ctx.blowupTime;
+const saveSteps = ctx.saveSteps, probeSteps = ctx.probeStepsSorted, probeOrder = ctx.probeOrder;
+const seed = ctx.seed, firstPath = ctx.firstPath, pathCount = ctx.pathCount, pEnd = ctx.pEnd;
+const t0 = ${numberLiteral(plan.t0)}, h = ${numberLiteral(layout.h)}, steps = ${plan.steps};
+const sqh = Math.sqrt(h), halfInvSqh = 0.5 / sqh;
+let x0 = 0, x1 = 0, x2 = 0, x3 = 0, r = 0, xt = 0, iz = 0;
+let t = 0.0, tn = 0.0, n = 0, k = 0, q = 0, j = 0, nextSave = 0, nextProbe = 0, blown = false;
+${p.declarations}
+for (let p = ctx.pStart; p < pEnd; p++) {
+  streamSeed(seed, firstPath + p, seedState, 0);
+  x0 = seedState[0] | 0; x1 = seedState[1] | 0; x2 = seedState[2] | 0; x3 = seedState[3] | 0;
+  ${initialValues(plan)}
+  t = t0; tn = t0; blown = false;
+  ${states.map((i) => `ab${i} = 0; abT${i} = NaN;`).join(' ')}
+  ${plan.watches.map((_, w) => `hw${w} = 0; fp${w} = NaN;`).join(' ')}
+  ${p.initialBoundaries}
+  ${states.map((i) => `mx${i} = s${i}; mn${i} = s${i};`).join(' ')}
+  ${watchUpdates(plan, 't0')}
+  k = 0; while (saveSteps[k] === 0) { ${save} k++; } nextSave = saveSteps[k];
+  q = 0; while (probeSteps[q] === 0) { j = probeOrder[q]; ${probe} q++; } nextProbe = probeSteps[q];
+  for (n = 1; n <= steps; n++) {
+    ${p.timeUpdate}
+    ${p.noiseDraws}
+    ${p.stepAndBoundaries}
+    if (${p.blowupTest}) { blown = true; break; }
+    ${running}
+    ${watchUpdates(plan, END_OF_STEP)}
+    if (n === nextSave) { do { ${save} k++; } while (saveSteps[k] === n); nextSave = saveSteps[k]; }
+    if (n === nextProbe) { do { j = probeOrder[q]; ${probe} q++; } while (probeSteps[q] === n); nextProbe = probeSteps[q]; }
+  }
+  if (blown) {
+    blowupTime[p] = t0 + n * h;
+    for (; saveSteps[k] >= 0; k++) { ${saveNaN} }
+    for (; probeSteps[q] >= 0; q++) { j = probeOrder[q]; ${probeNaN} }
+  } else {
+    blowupTime[p] = NaN;
+  }
+  ${states.map((i) => `runningMax[${i} * pathCount + p] = mx${i}; runningMin[${i} * pathCount + p] = mn${i};`).join('\n  ')}
+  ${plan.watches.map((_, w) => `firstPassage[${w} * pathCount + p] = fp${w};`).join(' ')}
+  ${states.map((i) => `absorptionTime[${i} * pathCount + p] = ${absorbing.includes(i) ? `abT${i}` : 'NaN'};`).join(' ')}
+}
+`;
+}
+
+/**
+ * Source of `incrementKernel(ctx)` for step-size studies: runs ONE path from the initial values
+ * with the increments ctx.increments[(n − 1)·m + j] (already correlated and scaled), ctx.steps
+ * steps of size ctx.h, writes the final state into ctx.out and returns 1 if the path blew up
+ * (then ctx.out holds NaN), else 0.
+ */
+export function buildIncrementKernelSource(plan: SimulationPlan, layout: PlanLayout): string {
+  const d = layout.stateCount;
+  const m = layout.noiseCount;
+  const p = parts(plan, layout);
+  const states = range(d);
+  return `"use strict";
+${EXPRESSION_PRELUDE}
+const increments = ctx.increments, out = ctx.out, steps = ctx.steps, h = ctx.h;
+const t0 = ${numberLiteral(plan.t0)}, sqh = Math.sqrt(h), halfInvSqh = 0.5 / sqh;
+let t = t0, tn = t0, n = 0;
+${p.declarations}
+${initialValues(plan)}
+${p.initialBoundaries}
+for (n = 1; n <= steps; n++) {
+  ${p.timeUpdate}
+  ${range(m).map((j) => `dw${j} = increments[(n - 1) * ${m} + ${j}];`).join(' ')}
+  ${p.stepAndBoundaries}
+  if (${p.blowupTest}) { ${states.map((i) => `out[${i}] = NaN;`).join(' ')} return 1; }
+}
+${states.map((i) => `out[${i}] = s${i};`).join(' ')}
+return 0;
+`;
+}

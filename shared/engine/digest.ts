@@ -1,0 +1,56 @@
+/**
+ * FNV-1a 64-bit hash (Fowler, Noll & Vo; offset basis 0xcbf29ce484222325, prime 0x100000001b3)
+ * over the little-endian IEEE-754 bytes of numbers. Identical numbers give identical digests on
+ * every platform. Computed with four 16-bit limbs so it needs no BigInt.
+ */
+export class Fnv1a64 {
+  // Limbs, least significant first.
+  private l0 = 0x2325;
+  private l1 = 0x8422;
+  private l2 = 0x9ce4;
+  private l3 = 0xcbf2;
+  private readonly view = new DataView(new ArrayBuffer(8));
+
+  private byte(value: number): void {
+    const x0 = this.l0 ^ value;
+    // Multiply by 2^40 + 0x1b3: 0x1b3 touches every limb, 2^40 adds limb0·2^8 into limb 2 and up.
+    const p0 = x0 * 0x1b3;
+    const p1 = this.l1 * 0x1b3 + (p0 >>> 16);
+    const p2 = this.l2 * 0x1b3 + (p1 >>> 16) + ((x0 << 8) & 0xffff);
+    const p3 = this.l3 * 0x1b3 + (p2 >>> 16) + (this.l1 << 8) + (x0 >>> 8);
+    this.l0 = p0 & 0xffff;
+    this.l1 = p1 & 0xffff;
+    this.l2 = p2 & 0xffff;
+    this.l3 = p3 & 0xffff;
+  }
+
+  addNumber(value: number): this {
+    if (value === value) {
+      this.view.setFloat64(0, value, true);
+    } else {
+      // One canonical NaN: engines may keep different NaN bit patterns for the same result.
+      this.view.setUint32(0, 0, true);
+      this.view.setUint32(4, 0x7ff80000, true);
+    }
+    for (let i = 0; i < 8; i++) this.byte(this.view.getUint8(i));
+    return this;
+  }
+
+  addNumbers(values: ArrayLike<number>): this {
+    for (let i = 0; i < values.length; i++) this.addNumber(values[i]!);
+    return this;
+  }
+
+  addText(text: string): this {
+    for (let i = 0; i < text.length; i++) {
+      const code = text.charCodeAt(i);
+      this.byte(code & 0xff);
+      this.byte(code >>> 8);
+    }
+    return this;
+  }
+
+  hex(): string {
+    return [this.l3, this.l2, this.l1, this.l0].map((limb) => limb.toString(16).padStart(4, '0')).join('');
+  }
+}

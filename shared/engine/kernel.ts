@@ -1,0 +1,75 @@
+import type { SimulationPlan } from './plan';
+import type { PlanLayout } from './layout';
+import { buildIncrementKernelSource, buildKernelSource } from './codegen';
+import { streamSeed } from './random/stream-seed';
+import { normalSlowPath, ZIGGURAT_TABLES } from './random/ziggurat';
+
+/** What a compiled kernel reads: the chunk's output arrays, the tables and the path range. */
+export interface KernelContext {
+  kn: Int32Array;
+  wn: Float64Array;
+  /** Scratch generator state for the ziggurat's rare branch. */
+  gen: Int32Array;
+  normalSlowPath: typeof normalSlowPath;
+  seedState: Uint32Array;
+  streamSeed: typeof streamSeed;
+  saved: Float64Array;
+  probeValues: Float64Array;
+  runningMax: Float64Array;
+  runningMin: Float64Array;
+  firstPassage: Float64Array;
+  absorptionTime: Float64Array;
+  blowupTime: Float64Array;
+  saveSteps: Int32Array;
+  probeStepsSorted: Int32Array;
+  probeOrder: Int32Array;
+  seed: number;
+  firstPath: number;
+  pathCount: number;
+  pStart: number;
+  pEnd: number;
+}
+
+export type Kernel = (ctx: KernelContext) => void;
+
+export interface IncrementContext {
+  increments: Float64Array;
+  out: Float64Array;
+  steps: number;
+  h: number;
+}
+
+export type IncrementKernel = (ctx: IncrementContext) => number;
+
+/**
+ * Compiled kernels by source: a run is split into many chunks, and compiling (and letting the
+ * JIT warm up) once per run rather than once per chunk matters. Small, most recent last.
+ */
+const cache = new Map<string, Kernel | IncrementKernel>();
+const CACHE_SIZE = 8;
+
+function compile<T>(source: string): T {
+  const hit = cache.get(source);
+  if (hit !== undefined) {
+    cache.delete(source);
+    cache.set(source, hit);
+    return hit as T;
+  }
+  // The one place the engine turns source into code; the source is built by codegen.ts from the
+  // expression compiler's checked output and numeric literals.
+  const compiled = new Function('ctx', source) as Kernel | IncrementKernel;
+  cache.set(source, compiled);
+  if (cache.size > CACHE_SIZE) cache.delete(cache.keys().next().value!);
+  return compiled as T;
+}
+
+export function compileKernel(plan: SimulationPlan, layout: PlanLayout): Kernel {
+  return compile<Kernel>(buildKernelSource(plan, layout));
+}
+
+export function compileIncrementKernel(plan: SimulationPlan, layout: PlanLayout): IncrementKernel {
+  return compile<IncrementKernel>(buildIncrementKernelSource(plan, layout));
+}
+
+export const KERNEL_TABLES = ZIGGURAT_TABLES;
+export { streamSeed, normalSlowPath };
