@@ -1,4 +1,4 @@
-import { checkExpression } from '@shared/expr/check';
+import { checkExpression } from '@shared/expr';
 import { EXPRESSION_CONSTANTS, EXPRESSION_FUNCTIONS } from '@shared/expr/functions';
 
 /** A name an expression may use, with what it is, for completion and checking. */

@@ -35,8 +35,8 @@ export interface ExpressionEditor {
 const LINT_DELAY_MS = 300;
 
 const meanderTheme = EditorView.theme({
-  '&': { fontSize: '0.92em', border: '1px solid var(--meander-line, #d8cfbf)', borderRadius: '4px', backgroundColor: 'var(--meander-paper, #fffdf8)' },
-  '&.cm-focused': { outline: '2px solid var(--meander-accent, #1f6f78)', outlineOffset: '1px' },
+  '&': { fontSize: '0.92em', border: '1px solid var(--meander-rule, #dcd2c0)', borderRadius: '4px', backgroundColor: 'var(--meander-paper, #fffcf6)' },
+  '&.cm-focused': { outline: '2px solid var(--meander-accent, #1d6a64)', outlineOffset: '1px' },
   '.cm-content': { fontFamily: 'var(--meander-font-mono, "JetBrains Mono", monospace)', padding: '3px 0' },
   '.cm-line': { padding: '0 6px' },
 });

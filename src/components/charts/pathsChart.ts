@@ -1,0 +1,41 @@
+import { axisTitle, chartLayout, PATH_COLOURS } from './chartTheme';
+import { toCsv, fileNameFor } from './chartCsv';
+import { plural, stateIndex, unitOf, type ChartBuild, type ChartInput } from './chartSpec';
+
+export const DEFAULT_PATH_COUNT = 20;
+
+/** A few whole paths of one state against time. */
+export function buildPathsChart({ chart, result, plan }: ChartInput): ChartBuild {
+  const i = stateIndex(result, chart.state);
+  if (i === null) return { ok: false, message: `The run has no state variable "${chart.state}".` };
+  const available = result.samplePaths[i] ?? [];
+  if (available.length === 0) return { ok: false, message: 'The run kept no sample paths: raise "Sample paths kept" in the simulation.' };
+  const count = Math.min(chart.pathCount ?? DEFAULT_PATH_COUNT, available.length);
+  const times = Array.from(result.savedTimes);
+  const paths = available.slice(0, count);
+  const traces = paths.map((path, p) => ({
+    type: 'scattergl',
+    mode: 'lines',
+    x: times,
+    y: Array.from(path),
+    name: `path ${p + 1}`,
+    showlegend: false,
+    line: { width: 1.1, color: PATH_COLOURS[p % PATH_COLOURS.length] },
+    opacity: 0.85,
+    hovertemplate: `path ${p + 1}<br>t = %{x:.4g}<br>${chart.state} = %{y:.4g}<extra></extra>`,
+  }));
+  const title = chart.title ?? `Sample paths of ${chart.state}`;
+  const rows = times.map((t, k) => [t, ...paths.map((path) => path[k]!)]);
+  return {
+    ok: true,
+    spec: {
+      traces,
+      layout: chartLayout({ title: 'time t' }, { title: axisTitle(chart.state, unitOf(plan, i)) }),
+      ariaLabel: `Sample paths of ${chart.state}: ${plural(count, 'path')}`,
+      caption: `${plural(count, 'sample path')} shown`,
+      csv: toCsv(['t', ...paths.map((_, p) => `${chart.state}_path${p + 1}`)], rows),
+      fileName: fileNameFor(title),
+      note: count < (chart.pathCount ?? DEFAULT_PATH_COUNT) ? `The run kept only ${plural(available.length, 'sample path')}.` : undefined,
+    },
+  };
+}
