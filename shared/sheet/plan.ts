@@ -52,7 +52,10 @@ export function stepCount(sim: SimulationCell): number {
 
 function buildModelSpec(model: ModelCell, params: Record<string, number>, scopes: ReturnType<typeof modelScopes>): ModelSpec {
   const parameterSources: Record<string, string> = {};
-  for (const [name, value] of Object.entries(params)) parameterSources[name] = `(${numberSource(value)})`;
+  for (const [name, value] of Object.entries(params)) {
+    const literal = numberSource(value); // negatives come bracketed already
+    parameterSources[name] = literal.startsWith('(') ? literal : `(${literal})`;
+  }
   const stateSources: Record<string, string> = {};
   model.states.forEach((s, i) => (stateSources[s.name] = `s${i}`));
   const noiseSources: Record<string, string> = {};
