@@ -34,14 +34,22 @@ export function watchPageErrors(page: Page): string[] {
   page.on('pageerror', (error) => errors.push(error.message));
   page.on('console', (message) => {
     // A 401 from /api/auth/me before sign-in is expected; the browser logs every non-2xx response.
-    if (message.type() === 'error' && !message.text().startsWith('Failed to load resource')) errors.push(message.text());
+    if (message.type() === 'error' && !message.text().startsWith('Failed to load resource'))
+      errors.push(message.text());
   });
   return errors;
 }
 
-export async function signUp(page: Page, user: { email: string; name: string; password: string }): Promise<void> {
+export async function signUp(
+  page: Page,
+  user: { email: string; name: string; password: string },
+): Promise<void> {
   await page.goto(appUrl('/sign-in'));
-  await page.getByRole('tab', { name: 'Sign up' }).or(page.getByRole('button', { name: 'Sign up' })).first().click();
+  await page
+    .getByRole('tab', { name: 'Sign up' })
+    .or(page.getByRole('button', { name: 'Sign up' }))
+    .first()
+    .click();
   await page.getByLabel('Email').fill(user.email);
   await page.getByLabel('Display name').fill(user.name);
   await page.getByLabel('Password', { exact: true }).fill(user.password);
@@ -53,4 +61,15 @@ export async function signIn(page: Page, user: { email: string; password: string
   await page.getByLabel('Email').fill(user.email);
   await page.getByLabel('Password', { exact: true }).fill(user.password);
   await page.getByRole('button', { name: 'Sign in' }).last().click();
+}
+
+/** Runs a browser scenario; on failure keeps a screenshot in $E2E_SHOTS (default /tmp/meander-e2e) to look at. */
+export async function withFailureShot<T>(page: Page, name: string, scenario: () => Promise<T>): Promise<T> {
+  try {
+    return await scenario();
+  } catch (error) {
+    const dir = process.env.E2E_SHOTS ?? '/tmp/meander-e2e';
+    await page.screenshot({ path: `${dir}/${name}.png`, fullPage: true }).catch(() => undefined);
+    throw error;
+  }
 }
