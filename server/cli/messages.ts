@@ -12,3 +12,6 @@ export type FromWorker =
   | { type: 'chunk-done'; id: number; chunk: ChunkResult }
   | { type: 'study-done'; id: number; result: StudyResult }
   | { type: 'failed'; id: number; message: string };
+
+/** A request before the thread wrapper numbers it (Omit distributed over the union). */
+export type WorkerRequest = ToWorker extends infer M ? (M extends ToWorker ? Omit<M, 'id'> : never) : never;

@@ -5,7 +5,7 @@ import type { ChunkResult, StudyOptions, StudyResult } from '../../shared/engine
 import { ChunkPool, type ChunkWorker } from '../../shared/run/chunk-pool';
 import { poolEnvironment } from '../../shared/run/environments';
 import type { SheetRunEnvironment } from '../../shared/run/run-sheet';
-import type { FromWorker, ToWorker } from './messages';
+import type { FromWorker, ToWorker, WorkerRequest } from './messages';
 import { startTypeScriptWorker } from './ts-worker';
 
 /**
@@ -53,7 +53,7 @@ export class SimulationThread {
     this.pending.clear();
   }
 
-  private request(message: Omit<ToWorker, 'id'>, onProgress?: (pathsDone: number) => void): Promise<FromWorker> {
+  private request(message: WorkerRequest, onProgress?: (pathsDone: number) => void): Promise<FromWorker> {
     const id = this.nextId++;
     return new Promise<FromWorker>((resolve, reject) => {
       this.pending.set(id, { resolve, reject, onProgress });

@@ -1,6 +1,6 @@
 import type { ErrorRequestHandler } from 'express';
 import { isAppError } from './app-error';
-import { badJson, internalError, payloadTooLarge } from './http.errors';
+import { badJson, badRequest, internalError, payloadTooLarge, routeNotFound } from './http.errors';
 
 export type ErrorReporter = (error: unknown) => void;
 
@@ -25,9 +25,15 @@ export function errorMiddleware(report: ErrorReporter): ErrorRequestHandler {
   };
 }
 
+/** Errors Express's own middleware raises (body-parser, serve-static) carry a client status. */
 function fromBodyParser(error: unknown) {
-  if (!error || typeof error !== 'object' || !('type' in error)) return null;
-  if (error.type === 'entity.parse.failed') return badJson();
-  if (error.type === 'entity.too.large') return payloadTooLarge();
+  if (!error || typeof error !== 'object') return null;
+  if ('type' in error && error.type === 'entity.parse.failed') return badJson();
+  if ('type' in error && error.type === 'entity.too.large') return payloadTooLarge();
+  const status = 'status' in error && typeof error.status === 'number' ? error.status : 0;
+  if (status === 404) return routeNotFound();
+  if (status >= 400 && status < 500 && 'expose' in error && error.expose === true) {
+    return badRequest(error instanceof Error ? error.message : 'The request is not valid.');
+  }
   return null;
 }

@@ -54,7 +54,9 @@ export async function createTestDatabase(): Promise<{ url: string; drop(): Promi
   };
 }
 
-export async function createTestContext(options: { config?: Partial<AppConfig>; signInLimiter?: RateLimiter } = {}): Promise<TestContext> {
+export async function createTestContext(
+  options: { config?: Partial<AppConfig>; signInLimiter?: RateLimiter; mountMailbox?: boolean } = {},
+): Promise<TestContext> {
   const testDb = await createTestDatabase();
   const database = connectDatabase(testDb.url, { max: 5 });
   // A mail fake in this worker, so the test can read what the app sent.
@@ -65,7 +67,7 @@ export async function createTestContext(options: { config?: Partial<AppConfig>; 
   const app = createApp({
     db: database.db,
     mailer,
-    mailbox: mailFake,
+    mailbox: options.mountMailbox === false ? undefined : mailFake,
     config: { nodeEnv: 'test', appOrigin: TEST_ORIGIN, secureCookies: false, ...options.config },
     signInLimiter,
     report: (error) => reported.push(error),
