@@ -1,0 +1,148 @@
+import { availableParallelism } from 'node:os';
+import { buildSimulationPlan } from '../shared/sheet/index';
+import { mergeChunks, simulate } from '../shared/engine/index';
+import type { SimulationPlan } from '../shared/engine/plan';
+import { createThreadPool, type ThreadPool } from '../server/cli/thread-pool';
+import { benchSheets, type BenchSheet } from './cases';
+import { median } from './median';
+import { prepareReferences, type Reference } from './references';
+
+/**
+ * `npm run bench [-- --case NAME] [--rounds N] [--threads N]`: one JSON line per case and
+ * reference (medians over rounds), then a ratio line. Engine cases and the reference programs
+ * run alternately in every round, so a machine that slows down mid-run slows both.
+ */
+const CASE_NAMES = ['ou-scalar', 'ou-scalar-pool', 'grazing-2d', 'gbm-milstein'] as const;
+type CaseName = (typeof CASE_NAMES)[number];
+
+interface Options {
+  cases: CaseName[];
+  rounds: number;
+  threads: number;
+}
+
+function parseOptions(argv: string[]): Options {
+  const cases: CaseName[] = [];
+  let rounds = 3;
+  let threads = availableParallelism();
+  for (let i = 0; i < argv.length; i++) {
+    const [flag, inline] = argv[i]!.includes('=') ? argv[i]!.split('=', 2) : [argv[i]!, undefined];
+    const value = inline ?? argv[++i];
+    if (flag === '--case') {
+      if (!CASE_NAMES.includes(value as CaseName)) throw new Error(`unknown case "${value}"; cases: ${CASE_NAMES.join(', ')}`);
+      cases.push(value as CaseName);
+    } else if (flag === '--rounds' || flag === '--threads') {
+      const n = Number(value);
+      if (!Number.isInteger(n) || n < 1) throw new Error(`${flag} needs a positive whole number, got "${value}"`);
+      if (flag === '--rounds') rounds = n;
+      else threads = n;
+    } else {
+      throw new Error(`unknown option "${flag}"; use --case NAME, --rounds N, --threads N`);
+    }
+  }
+  return { cases: cases.length > 0 ? cases : [...CASE_NAMES], rounds, threads };
+}
+
+interface Measurement {
+  seconds: number;
+  stepsPerSec: number;
+}
+
+interface CaseRunner {
+  name: string;
+  paths: number;
+  steps: number;
+  measure(): Promise<Measurement>;
+}
+
+function planOf(sheet: BenchSheet): SimulationPlan {
+  return buildSimulationPlan(sheet.doc, sheet.simulationId);
+}
+
+async function timed(plan: SimulationPlan, work: () => Promise<unknown> | unknown): Promise<Measurement> {
+  const started = performance.now();
+  await work();
+  const seconds = (performance.now() - started) / 1000;
+  return { seconds, stepsPerSec: (plan.paths * plan.steps) / seconds };
+}
+
+function inProcessCase(name: string, plan: SimulationPlan): CaseRunner {
+  return { name, paths: plan.paths, steps: plan.steps, measure: () => timed(plan, () => simulate(plan)) };
+}
+
+async function poolCase(name: string, plan: SimulationPlan, threads: ThreadPool): Promise<CaseRunner> {
+  // Start the threads (each loads tsx and the engine) before anything is timed.
+  await threads.pool.run({ ...plan, paths: Math.min(plan.paths, 64 * threads.pool.size) });
+  return {
+    name,
+    paths: plan.paths,
+    steps: plan.steps,
+    measure: () => timed(plan, async () => mergeChunks(plan, await threads.pool.run(plan))),
+  };
+}
+
+function print(line: Record<string, unknown>): void {
+  console.log(JSON.stringify(line));
+}
+
+function ratio(a: number | undefined, b: number | undefined): number | null {
+  return a !== undefined && b !== undefined ? Number((a / b).toPrecision(4)) : null;
+}
+
+async function main(): Promise<void> {
+  const options = parseOptions(process.argv.slice(2));
+  const wantsOu = options.cases.includes('ou-scalar');
+  const threadPool = options.cases.includes('ou-scalar-pool') ? createThreadPool(options.threads) : null;
+  const setup = wantsOu ? await prepareReferences() : null;
+  for (const skip of setup?.skipped ?? []) console.error(`skipping reference ${skip.name}: ${skip.reason}`);
+  try {
+    const runners: CaseRunner[] = [];
+    for (const name of options.cases) {
+      if (name === 'ou-scalar') runners.push(inProcessCase(name, planOf(benchSheets.ou())));
+      if (name === 'ou-scalar-pool') runners.push(await poolCase(name, planOf(benchSheets.ou()), threadPool!));
+      if (name === 'grazing-2d') runners.push(inProcessCase(name, planOf(benchSheets.grazing())));
+      if (name === 'gbm-milstein') runners.push(inProcessCase(name, planOf(benchSheets.gbm())));
+    }
+    const references: Reference[] = setup?.references ?? [];
+    const samples = new Map<string, Measurement[]>();
+    const record = (name: string, m: Measurement) => samples.set(name, [...(samples.get(name) ?? []), m]);
+    for (let round = 0; round < options.rounds; round++) {
+      for (const runner of runners) record(runner.name, await runner.measure());
+      for (const reference of references) record(reference.name, await reference.measure());
+    }
+
+    const medians = new Map<string, Measurement>();
+    for (const [name, list] of samples) {
+      medians.set(name, { seconds: median(list.map((m) => m.seconds)), stepsPerSec: median(list.map((m) => m.stepsPerSec)) });
+    }
+    const line = (name: string, paths: number, steps: number, extra: Record<string, unknown> = {}) => {
+      const m = medians.get(name)!;
+      print({ case: name, paths, steps, seconds: Number(m.seconds.toFixed(4)), stepsPerSec: Number(m.stepsPerSec.toPrecision(4)), ...extra });
+    };
+    for (const runner of runners) line(runner.name, runner.paths, runner.steps, runner.name === 'ou-scalar-pool' ? { threads: options.threads } : {});
+    for (const reference of references) line(reference.name, benchOuSize().paths, benchOuSize().steps);
+    if (wantsOu) {
+      const engine = medians.get('ou-scalar')?.stepsPerSec;
+      print({
+        case: 'ratio',
+        ouScalarVsC: ratio(engine, medians.get('ref-c')?.stepsPerSec),
+        ouScalarVsNumpy: ratio(engine, medians.get('ref-numpy')?.stepsPerSec),
+        ouScalarVsZiggurat: ratio(engine, medians.get('ref-c-ziggurat')?.stepsPerSec),
+        poolScaling: ratio(medians.get('ou-scalar-pool')?.stepsPerSec, engine),
+      });
+    }
+  } finally {
+    setup?.cleanup();
+    await threadPool?.close();
+  }
+}
+
+function benchOuSize(): { paths: number; steps: number } {
+  const plan = planOf(benchSheets.ou());
+  return { paths: plan.paths, steps: plan.steps };
+}
+
+main().catch((error: unknown) => {
+  console.error(error instanceof Error ? error.message : String(error));
+  process.exitCode = 1;
+});
