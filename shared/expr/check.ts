@@ -1,8 +1,21 @@
 import type { Expression, Node, SpreadElement, Super, PrivateIdentifier } from 'acorn';
-import { EXPRESSION_FUNCTIONS, arityAccepts, describeArity, findConstant, findFunction, type ExpressionFunctionName } from './functions';
+import {
+  EXPRESSION_FUNCTIONS,
+  arityAccepts,
+  describeArity,
+  findConstant,
+  findFunction,
+  type ExpressionFunctionName,
+} from './functions';
 import { MAX_EXPRESSION_DEPTH } from './limits';
 import { parseExpressionText } from './syntax';
-import { collectNames, type CheckedExpr, type ExprError, type ExprNode, type ComparisonOperator } from './tree';
+import {
+  collectNames,
+  type CheckedExpr,
+  type ExprError,
+  type ExprNode,
+  type ComparisonOperator,
+} from './tree';
 
 export type CheckResult = { ok: true; tree: CheckedExpr } | { ok: false; errors: ExprError[] };
 
@@ -107,7 +120,9 @@ class Checker {
         const operand = this.convert(node.argument, depth + 1);
         if (node.operator !== '-' && node.operator !== '+' && node.operator !== '!') {
           const message =
-            node.operator === '~' ? 'bitwise operators are not allowed' : `'${node.operator}' is not allowed in expressions`;
+            node.operator === '~'
+              ? 'bitwise operators are not allowed'
+              : `'${node.operator}' is not allowed in expressions`;
           return this.fail(node, message);
         }
         return operand && { kind: 'unary', op: node.operator, operand };
@@ -121,12 +136,18 @@ class Checker {
         }
         const comparison = COMPARISONS[op];
         if (comparison) return left && right && { kind: 'comparison', op: comparison, left, right };
-        return this.failOperator(node.left, node.right, op, BINARY_MESSAGES[op] ?? `the operator ${op} is not allowed`);
+        return this.failOperator(
+          node.left,
+          node.right,
+          op,
+          BINARY_MESSAGES[op] ?? `the operator ${op} is not allowed`,
+        );
       }
       case 'LogicalExpression': {
         const left = this.convert(node.left, depth + 1);
         const right = this.convert(node.right, depth + 1);
-        if (node.operator === '??') return this.failOperator(node.left, node.right, '??', 'the operator ?? is not allowed');
+        if (node.operator === '??')
+          return this.failOperator(node.left, node.right, '??', 'the operator ?? is not allowed');
         return left && right && { kind: 'logical', op: node.operator, left, right };
       }
       case 'ConditionalExpression': {
@@ -140,7 +161,9 @@ class Checker {
       case 'AssignmentExpression':
         return this.fail(
           node,
-          node.operator === '=' ? 'assignment (=) is not allowed; to compare, use ==' : `assignment (${node.operator}) is not allowed`,
+          node.operator === '='
+            ? 'assignment (=) is not allowed; to compare, use =='
+            : `assignment (${node.operator}) is not allowed`,
         );
       default:
         return this.fail(node, NODE_MESSAGES[node.type] ?? `${node.type} is not allowed in expressions`);
@@ -149,10 +172,14 @@ class Checker {
 
   private literal(node: Extract<Expression, { type: 'Literal' }>): ExprNode | null {
     const raw = this.text.slice(node.start, node.end);
-    if ('regex' in node && node.regex) return this.fail(node, 'regular expressions are not allowed in expressions');
-    if ('bigint' in node && node.bigint !== undefined) return this.fail(node, 'BigInt literals (like 1n) are not allowed; write 1');
-    if (typeof node.value === 'string') return this.fail(node, 'strings are not allowed; expressions work with numbers');
-    if (typeof node.value !== 'number') return this.fail(node, `'${raw}' is not allowed; use 1 and 0 for true and false`);
+    if ('regex' in node && node.regex)
+      return this.fail(node, 'regular expressions are not allowed in expressions');
+    if ('bigint' in node && node.bigint !== undefined)
+      return this.fail(node, 'BigInt literals (like 1n) are not allowed; write 1');
+    if (typeof node.value === 'string')
+      return this.fail(node, 'strings are not allowed; expressions work with numbers');
+    if (typeof node.value !== 'number')
+      return this.fail(node, `'${raw}' is not allowed; use 1 and 0 for true and false`);
     if (!DECIMAL_LITERAL.test(raw)) {
       return this.fail(node, `write numbers in decimal, like 12, 0.5 or 3e-4 (not '${raw}')`);
     }
@@ -176,7 +203,12 @@ class Checker {
     return false;
   }
 
-  private call(wrappedCallee: Expression | Super, args: readonly (Expression | SpreadElement)[], node: Node, depth: number): ExprNode | null {
+  private call(
+    wrappedCallee: Expression | Super,
+    args: readonly (Expression | SpreadElement)[],
+    node: Node,
+    depth: number,
+  ): ExprNode | null {
     const converted = args.map((arg) => this.convert(arg, depth + 1));
     let callee = wrappedCallee;
     while (callee.type === 'ParenthesizedExpression') callee = callee.expression;
@@ -186,7 +218,8 @@ class Checker {
     }
     if (!this.plainName(callee, callee.name)) return null;
     const fn = findFunction(callee.name);
-    if (!fn) return this.fail(callee, `'${callee.name}' is not a function; the functions are: ${FUNCTION_LIST}`);
+    if (!fn)
+      return this.fail(callee, `'${callee.name}' is not a function; the functions are: ${FUNCTION_LIST}`);
     if (!arityAccepts(fn.arity, args.length)) {
       return this.fail(node, `${fn.name} takes ${describeArity(fn.arity)}, not ${args.length}`);
     }

@@ -69,7 +69,9 @@ function evaluateNode(node: ExprNode, values: Readonly<Record<string, number>>):
       return left || evaluateNode(node.right, values) ? 1 : 0;
     }
     case 'conditional':
-      return evaluateNode(node.test, values) ? evaluateNode(node.then, values) : evaluateNode(node.otherwise, values);
+      return evaluateNode(node.test, values)
+        ? evaluateNode(node.then, values)
+        : evaluateNode(node.otherwise, values);
     case 'call':
       return FUNCTION_IMPLEMENTATIONS[node.fn](...node.args.map((arg) => evaluateNode(arg, values)));
   }

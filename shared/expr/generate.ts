@@ -22,7 +22,8 @@ function emit(node: ExprNode, names: Readonly<Record<string, string>>): string {
     case 'constant':
       return numberSource(findConstant(node.name)?.value ?? Number.NaN);
     case 'name': {
-      if (!Object.hasOwn(names, node.name)) throw new Error(`no replacement given for the name '${node.name}'`);
+      if (!Object.hasOwn(names, node.name))
+        throw new Error(`no replacement given for the name '${node.name}'`);
       const replacement = names[node.name] ?? '';
       return SELF_CONTAINED.test(replacement) ? replacement : `(${replacement})`;
     }
@@ -47,7 +48,8 @@ function emit(node: ExprNode, names: Readonly<Record<string, string>>): string {
 
 /** Full precision (String of a double round-trips); negatives in brackets so `- -1` never forms. */
 export function numberSource(value: number): string {
-  if (!Number.isFinite(value)) throw new Error(`cannot write the non-finite number ${value} into an expression`);
+  if (!Number.isFinite(value))
+    throw new Error(`cannot write the non-finite number ${value} into an expression`);
   const text = String(value);
   return value < 0 || Object.is(value, -0) ? `(${Object.is(value, -0) ? '-0' : text})` : text;
 }

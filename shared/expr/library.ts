@@ -5,7 +5,9 @@ import type { ExpressionFunctionName } from './functions';
  * (prelude.ts) defines the same functions as source text for generated code; a unit test checks
  * that both agree.
  */
-export const FUNCTION_IMPLEMENTATIONS: Readonly<Record<ExpressionFunctionName, (...args: number[]) => number>> = {
+export const FUNCTION_IMPLEMENTATIONS: Readonly<
+  Record<ExpressionFunctionName, (...args: number[]) => number>
+> = {
   exp: Math.exp,
   log: Math.log,
   sqrt: Math.sqrt,

@@ -31,7 +31,11 @@ export function parseExpressionText(text: string): ParseResult {
 
   const rest = firstNonSpace(text, node.end);
   if (rest < text.length && !errors.some((e) => e.from <= rest && rest < e.to)) {
-    errors.push({ from: rest, to: text.length, message: `unexpected text after the expression: ${quoteSlice(text, rest)}` });
+    errors.push({
+      from: rest,
+      to: text.length,
+      message: `unexpected text after the expression: ${quoteSlice(text, rest)}`,
+    });
   }
   return errors.length > 0 ? { ok: false, errors } : { ok: true, node };
 }
@@ -52,7 +56,11 @@ function checkBeforeParsing(text: string): ExprError | null {
     if (c === '(' || c === '[' || c === '{') {
       depth++;
       if (depth > MAX_EXPRESSION_DEPTH) {
-        return { from: i, to: i + 1, message: `brackets are nested more than ${MAX_EXPRESSION_DEPTH} levels deep` };
+        return {
+          from: i,
+          to: i + 1,
+          message: `brackets are nested more than ${MAX_EXPRESSION_DEPTH} levels deep`,
+        };
       }
     } else if (c === ')' || c === ']' || c === '}') {
       depth = Math.max(0, depth - 1);
@@ -88,12 +96,22 @@ function fromParserError(text: string, error: unknown): ExprError {
     };
   }
   if (/rvalue|left-hand side/i.test(error.message)) {
-    return { from, to, message: '=, ++ and -- cannot change a value here; to compare, use ==, and to negate twice, write -(-x)' };
+    return {
+      from,
+      to,
+      message:
+        '=, ++ and -- cannot change a value here; to compare, use ==, and to negate twice, write -(-x)',
+    };
   }
-  if (text.startsWith('...', from)) return { from, to: from + 3, message: 'spread (...) is not allowed in expressions' };
+  if (text.startsWith('...', from))
+    return { from, to: from + 3, message: 'spread (...) is not allowed in expressions' };
   // Acorn appends "(line:column)"; the position is reported separately.
   const detail = error.message.replace(/\s*\(\d+:\d+\)$/, '');
-  return { from, to, message: `cannot read the expression here: ${detail.charAt(0).toLowerCase()}${detail.slice(1)}` };
+  return {
+    from,
+    to,
+    message: `cannot read the expression here: ${detail.charAt(0).toLowerCase()}${detail.slice(1)}`,
+  };
 }
 
 function firstNonSpace(text: string, from: number): number {

@@ -14,10 +14,30 @@ export type ExprNode =
   | { readonly kind: 'constant'; readonly name: ExpressionConstantName }
   | { readonly kind: 'name'; readonly name: string }
   | { readonly kind: 'unary'; readonly op: UnaryOperator; readonly operand: ExprNode }
-  | { readonly kind: 'arithmetic'; readonly op: ArithmeticOperator; readonly left: ExprNode; readonly right: ExprNode }
-  | { readonly kind: 'comparison'; readonly op: ComparisonOperator; readonly left: ExprNode; readonly right: ExprNode }
-  | { readonly kind: 'logical'; readonly op: LogicalOperator; readonly left: ExprNode; readonly right: ExprNode }
-  | { readonly kind: 'conditional'; readonly test: ExprNode; readonly then: ExprNode; readonly otherwise: ExprNode }
+  | {
+      readonly kind: 'arithmetic';
+      readonly op: ArithmeticOperator;
+      readonly left: ExprNode;
+      readonly right: ExprNode;
+    }
+  | {
+      readonly kind: 'comparison';
+      readonly op: ComparisonOperator;
+      readonly left: ExprNode;
+      readonly right: ExprNode;
+    }
+  | {
+      readonly kind: 'logical';
+      readonly op: LogicalOperator;
+      readonly left: ExprNode;
+      readonly right: ExprNode;
+    }
+  | {
+      readonly kind: 'conditional';
+      readonly test: ExprNode;
+      readonly then: ExprNode;
+      readonly otherwise: ExprNode;
+    }
   | { readonly kind: 'call'; readonly fn: ExpressionFunctionName; readonly args: readonly ExprNode[] };
 
 /** A checked expression: its tree and the scope names it reads (sorted, no duplicates). */

@@ -7,7 +7,12 @@ export function checkCellIds(index: SheetIndex): SheetIssue[] {
   const seen = new Set<string>();
   const issues: SheetIssue[] = [];
   for (const cell of index.doc.cells) {
-    if (seen.has(cell.id)) issues.push({ cellId: cell.id, path: ['id'], message: `cell id '${cell.id}' is used by more than one cell` });
+    if (seen.has(cell.id))
+      issues.push({
+        cellId: cell.id,
+        path: ['id'],
+        message: `cell id '${cell.id}' is used by more than one cell`,
+      });
     seen.add(cell.id);
   }
   return issues;
@@ -31,7 +36,11 @@ export function checkNames(index: SheetIndex): SheetIssue[] {
       const first = index.parameters.get(parameter.name);
       if (first && (first.cellId !== cell.id || first.index !== i)) {
         const where = first.cellId === cell.id ? 'earlier in this cell' : `in cell '${first.cellId}'`;
-        issues.push({ cellId: cell.id, path, message: `parameter '${parameter.name}' is already defined ${where}` });
+        issues.push({
+          cellId: cell.id,
+          path,
+          message: `parameter '${parameter.name}' is already defined ${where}`,
+        });
       }
     });
   }
@@ -43,7 +52,11 @@ export function checkNames(index: SheetIndex): SheetIssue[] {
       reserved(cell.id, path, name);
       const earlier = own.get(name);
       if (earlier) {
-        issues.push({ cellId: cell.id, path, message: `${what} '${name}' has the same name as ${earlier} '${name}' in this model` });
+        issues.push({
+          cellId: cell.id,
+          path,
+          message: `${what} '${name}' has the same name as ${earlier} '${name}' in this model`,
+        });
       }
       own.set(name, earlier ?? what);
       const parameter = index.parameters.get(name);

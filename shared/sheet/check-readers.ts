@@ -15,12 +15,14 @@ const LEVEL_QUANTITIES: Partial<Record<ProbeCell['quantity'], string>> = {
 /** Charts, probes and studies: the simulation they read, the state names and their own arguments. */
 export function checkReader(index: SheetIndex, cell: Reader): SheetIssue[] {
   const issues: SheetIssue[] = [];
-  const issue = (path: (string | number)[], message: string) => issues.push({ cellId: cell.id, path, message });
+  const issue = (path: (string | number)[], message: string) =>
+    issues.push({ cellId: cell.id, path, message });
 
   if (cell.kind === 'probe') {
     const what = LEVEL_QUANTITIES[cell.quantity];
     if (what && cell.level === undefined) issue(['level'], `${what} needs a level`);
-    if (cell.quantity === 'quantile' && cell.probability === undefined) issue(['probability'], 'a quantile needs a probability between 0 and 1');
+    if (cell.quantity === 'quantile' && cell.probability === undefined)
+      issue(['probability'], 'a quantile needs a probability between 0 and 1');
   }
   if (cell.kind === 'chart' && cell.view === 'phase' && cell.stateY === undefined) {
     issue(['stateY'], 'a phase chart needs a second state variable');
@@ -36,7 +38,10 @@ export function checkReader(index: SheetIndex, cell: Reader): SheetIssue[] {
   const stateNames = model.states.map((s) => s.name);
   const checkState = (path: string, name: string | undefined) => {
     if (name !== undefined && !stateNames.includes(name)) {
-      issue([path], `'${name}' is not a state variable of model '${model.id}'; its states are: ${stateNames.join(', ')}`);
+      issue(
+        [path],
+        `'${name}' is not a state variable of model '${model.id}'; its states are: ${stateNames.join(', ')}`,
+      );
     }
   };
   checkState('state', cell.state);
@@ -50,18 +55,32 @@ export function checkReader(index: SheetIndex, cell: Reader): SheetIssue[] {
   return issues;
 }
 
-function checkExtinction(cell: ProbeCell, sim: SimulationCell, issue: (path: (string | number)[], message: string) => void): void {
+function checkExtinction(
+  cell: ProbeCell,
+  sim: SimulationCell,
+  issue: (path: (string | number)[], message: string) => void,
+): void {
   const boundary = sim.boundaries[cell.state];
   const absorbsBelow = boundary?.rule === 'absorb' && boundary.side === 'below';
   if (cell.level === undefined && !absorbsBelow) {
-    issue(['level'], `extinction needs a level, or an absorbing lower boundary on '${cell.state}' in simulation '${sim.id}'`);
+    issue(
+      ['level'],
+      `extinction needs a level, or an absorbing lower boundary on '${cell.state}' in simulation '${sim.id}'`,
+    );
   }
 }
 
-function checkExactReference(cell: StudyCell, model: ModelCell, issue: (path: (string | number)[], message: string) => void): void {
+function checkExactReference(
+  cell: StudyCell,
+  model: ModelCell,
+  issue: (path: (string | number)[], message: string) => void,
+): void {
   const states = cell.state === undefined ? model.states : model.states.filter((s) => s.name === cell.state);
   const missing = states.filter((s) => s.exact === undefined || s.exact.trim() === '').map((s) => s.name);
   if (missing.length > 0) {
-    issue(['reference'], `an exact reference needs an exact solution for ${missing.map((n) => `'${n}'`).join(', ')}; use 'finest' or 'auto'`);
+    issue(
+      ['reference'],
+      `an exact reference needs an exact solution for ${missing.map((n) => `'${n}'`).join(', ')}; use 'finest' or 'auto'`,
+    );
   }
 }

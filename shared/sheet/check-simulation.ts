@@ -4,19 +4,27 @@ import type { SheetIssue } from './issues';
 import { hasDiagonalOrScalarNoise } from './noise-structure';
 import { findModel, wrongReference, type SheetIndex } from './sheet-index';
 
-const METHOD_NAMES = { 'euler-maruyama': 'Euler–Maruyama', milstein: 'Milstein', heun: 'stochastic Heun' } as const;
+const METHOD_NAMES = {
+  'euler-maruyama': 'Euler–Maruyama',
+  milstein: 'Milstein',
+  heun: 'stochastic Heun',
+} as const;
 
 /** The model reference, the time grid, overrides, boundaries and the method against the model. */
 export function checkSimulation(index: SheetIndex, sim: SimulationCell): SheetIssue[] {
   const issues: SheetIssue[] = [];
-  const issue = (path: (string | number)[], message: string) => issues.push({ cellId: sim.id, path, message });
+  const issue = (path: (string | number)[], message: string) =>
+    issues.push({ cellId: sim.id, path, message });
 
-  if (sim.steps !== undefined && sim.stepSize !== undefined) issue(['steps'], 'give either a number of steps or a step size, not both');
-  if (sim.steps === undefined && sim.stepSize === undefined) issue(['steps'], 'give a number of steps or a step size');
+  if (sim.steps !== undefined && sim.stepSize !== undefined)
+    issue(['steps'], 'give either a number of steps or a step size, not both');
+  if (sim.steps === undefined && sim.stepSize === undefined)
+    issue(['steps'], 'give a number of steps or a step size');
   if (!(sim.t1 > sim.t0)) issue(['t1'], `the end time (${sim.t1}) must be after the start time (${sim.t0})`);
 
   for (const name of Object.keys(sim.overrides)) {
-    if (!index.parameters.has(name)) issue(['overrides', name], `there is no parameter '${name}' to override`);
+    if (!index.parameters.has(name))
+      issue(['overrides', name], `there is no parameter '${name}' to override`);
   }
 
   const model = findModel(index, sim.model);
@@ -27,7 +35,10 @@ export function checkSimulation(index: SheetIndex, sim: SimulationCell): SheetIs
   const stateNames = model.states.map((s) => s.name);
   for (const name of Object.keys(sim.boundaries)) {
     if (!stateNames.includes(name)) {
-      issue(['boundaries', name], `'${name}' is not a state variable of model '${model.id}'; its states are: ${stateNames.join(', ')}`);
+      issue(
+        ['boundaries', name],
+        `'${name}' is not a state variable of model '${model.id}'; its states are: ${stateNames.join(', ')}`,
+      );
     }
   }
 
@@ -52,7 +63,10 @@ export function checkSimulation(index: SheetIndex, sim: SimulationCell): SheetIs
       );
     } else if (model.noises.length > 1 && model.correlation !== undefined && !isIdentity(model.correlation)) {
       // Correlating the sources mixes them into every state, so the noise is no longer diagonal.
-      issue(['method'], `Milstein needs independent noise sources, and model '${model.id}' correlates them: use Euler–Maruyama`);
+      issue(
+        ['method'],
+        `Milstein needs independent noise sources, and model '${model.id}' correlates them: use Euler–Maruyama`,
+      );
     }
   }
   return issues;

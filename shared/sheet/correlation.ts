@@ -10,7 +10,11 @@ const PIVOT_TOLERANCE = 1e-12;
  * entries in [−1, 1] and positive definite (a Cholesky factorisation exists; Golub & Van Loan,
  * Matrix Computations, §4.2).
  */
-export function checkCorrelation(cellId: string, matrix: readonly (readonly number[])[], m: number): SheetIssue[] {
+export function checkCorrelation(
+  cellId: string,
+  matrix: readonly (readonly number[])[],
+  m: number,
+): SheetIssue[] {
   const at = (...path: (string | number)[]) => ['correlation', ...path];
   if (matrix.length !== m || matrix.some((row) => row.length !== m)) {
     return [
@@ -31,7 +35,11 @@ export function checkCorrelation(cellId: string, matrix: readonly (readonly numb
           issues.push({ cellId, path: at(i, j), message: `diagonal entry (${i + 1}, ${i + 1}) must be 1` });
         }
       } else if (!(value >= -1 && value <= 1)) {
-        issues.push({ cellId, path: at(i, j), message: `entry (${i + 1}, ${j + 1}) must lie between −1 and 1` });
+        issues.push({
+          cellId,
+          path: at(i, j),
+          message: `entry (${i + 1}, ${j + 1}) must lie between −1 and 1`,
+        });
       } else if (j > i && Math.abs(value - (matrix[j]?.[i] ?? Number.NaN)) > ENTRY_TOLERANCE) {
         issues.push({
           cellId,

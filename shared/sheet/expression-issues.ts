@@ -11,6 +11,7 @@ export function checkField(
 ): CheckedExpr | null {
   const result = checkExpression(text, scope);
   if (result.ok) return result.tree;
-  for (const error of result.errors) issues.push({ cellId, path, message: error.message, from: error.from, to: error.to });
+  for (const error of result.errors)
+    issues.push({ cellId, path, message: error.message, from: error.from, to: error.to });
   return null;
 }

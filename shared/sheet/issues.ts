@@ -12,7 +12,9 @@ export class SheetIssuesError extends Error {
   readonly issues: readonly SheetIssue[];
 
   constructor(issues: readonly SheetIssue[], what = 'the sheet') {
-    super(`${what}: ${issues.length === 1 ? '1 problem' : `${issues.length} problems`}: ${issues.map(describeIssue).join('; ')}`);
+    super(
+      `${what}: ${issues.length === 1 ? '1 problem' : `${issues.length} problems`}: ${issues.map(describeIssue).join('; ')}`,
+    );
     this.name = 'SheetIssuesError';
     this.issues = issues;
   }

@@ -21,7 +21,12 @@ export function buildSimulationPlan(doc: SheetDocument, simulationCellId: string
   if (!sim) throw new Error(`there is no simulation cell '${simulationCellId}'`);
 
   const probes = doc.cells.filter((c) => c.kind === 'probe' && c.simulation === sim.id);
-  const involved = new Set([sim.id, sim.model, ...index.paramsCells.map((c) => c.id), ...probes.map((c) => c.id)]);
+  const involved = new Set([
+    sim.id,
+    sim.model,
+    ...index.paramsCells.map((c) => c.id),
+    ...probes.map((c) => c.id),
+  ]);
   const issues = checkSheet(doc).filter((issue) => involved.has(issue.cellId));
   if (issues.length > 0) throw new SheetIssuesError(issues, `simulation '${sim.id}'`);
   const model = findModel(index, sim.model);
@@ -50,7 +55,11 @@ export function stepCount(sim: SimulationCell): number {
   return Math.max(1, Math.round((sim.t1 - sim.t0) / (sim.stepSize ?? sim.t1 - sim.t0)));
 }
 
-function buildModelSpec(model: ModelCell, params: Record<string, number>, scopes: ReturnType<typeof modelScopes>): ModelSpec {
+function buildModelSpec(
+  model: ModelCell,
+  params: Record<string, number>,
+  scopes: ReturnType<typeof modelScopes>,
+): ModelSpec {
   const parameterSources: Record<string, string> = {};
   for (const [name, value] of Object.entries(params)) {
     const literal = numberSource(value); // negatives come bracketed already
@@ -65,7 +74,8 @@ function buildModelSpec(model: ModelCell, params: Record<string, number>, scopes
 
   const compile = (text: string, scope: readonly string[]): CheckedExpr => {
     const checked = checkExpression(text, scope);
-    if (!checked.ok) throw new Error(`unchecked expression reached the plan builder: ${checked.errors[0]?.message ?? ''}`);
+    if (!checked.ok)
+      throw new Error(`unchecked expression reached the plan builder: ${checked.errors[0]?.message ?? ''}`);
     return checked.tree;
   };
 
@@ -88,7 +98,9 @@ function buildModelSpec(model: ModelCell, params: Record<string, number>, scopes
         ? model.correlation.map((row) => [...row])
         : null,
     exact: model.states.map((s) =>
-      s.exact === undefined || s.exact.trim() === '' ? null : generateSource(compile(s.exact, scopes.exact), exactNames),
+      s.exact === undefined || s.exact.trim() === ''
+        ? null
+        : generateSource(compile(s.exact, scopes.exact), exactNames),
     ),
   };
 }
@@ -98,7 +110,12 @@ function probeTimes(doc: SheetDocument, sim: SimulationCell): number[] {
   for (const cell of doc.cells) {
     if (cell.kind === 'probe' && cell.simulation === sim.id && cell.time !== undefined) times.add(cell.time);
     // A histogram needs every path's value at its time too, like a probe.
-    if (cell.kind === 'chart' && cell.simulation === sim.id && cell.view === 'histogram' && cell.time !== undefined) {
+    if (
+      cell.kind === 'chart' &&
+      cell.simulation === sim.id &&
+      cell.view === 'histogram' &&
+      cell.time !== undefined
+    ) {
       if (cell.time >= sim.t0 && cell.time <= sim.t1) times.add(cell.time);
     }
   }
@@ -112,7 +129,8 @@ function watches(doc: SheetDocument, sim: SimulationCell, model: ModelCell): Wat
     if (cell.kind !== 'probe' || cell.simulation !== sim.id || cell.level === undefined) continue;
     const state = model.states.findIndex((s) => s.name === cell.state);
     let direction: WatchSpec['direction'];
-    if (cell.quantity === 'hit-before' || cell.quantity === 'first-passage') direction = cell.direction ?? 'above';
+    if (cell.quantity === 'hit-before' || cell.quantity === 'first-passage')
+      direction = cell.direction ?? 'above';
     else if (cell.quantity === 'extinction') direction = 'below';
     else continue;
     found.set(`${state}|${cell.level}|${direction}`, { state, level: cell.level, direction });

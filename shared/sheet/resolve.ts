@@ -9,7 +9,10 @@ import { indexSheet, type SheetIndex } from './sheet-index';
  * values. Throws a SheetIssuesError when the parameters have problems (names, expressions,
  * cycles, ranges), an override names no parameter, or a value comes out non-finite.
  */
-export function resolveParameters(doc: SheetDocument, overrides: Readonly<Record<string, number>> = {}): Record<string, number> {
+export function resolveParameters(
+  doc: SheetDocument,
+  overrides: Readonly<Record<string, number>> = {},
+): Record<string, number> {
   const index = indexSheet(doc);
   const paramsCellIds = new Set(index.paramsCells.map((c) => c.id));
   const issues = checkSheet(doc).filter((issue) => paramsCellIds.has(issue.cellId));
@@ -25,8 +28,18 @@ export function resolveCheckedParameters(
 ): Record<string, number> {
   const issues: SheetIssue[] = [];
   for (const [name, value] of Object.entries(overrides)) {
-    if (!index.parameters.has(name)) issues.push({ cellId, path: ['overrides', name], message: `there is no parameter '${name}' to override` });
-    else if (!Number.isFinite(value)) issues.push({ cellId, path: ['overrides', name], message: `the override of '${name}' is not a finite number` });
+    if (!index.parameters.has(name))
+      issues.push({
+        cellId,
+        path: ['overrides', name],
+        message: `there is no parameter '${name}' to override`,
+      });
+    else if (!Number.isFinite(value))
+      issues.push({
+        cellId,
+        path: ['overrides', name],
+        message: `the override of '${name}' is not a finite number`,
+      });
   }
   if (issues.length > 0) throw new SheetIssuesError(issues, 'the overrides');
   const { values, failures } = evaluateParameters(index, analyseParameters(index), overrides);
@@ -34,7 +47,11 @@ export function resolveCheckedParameters(
     throw new SheetIssuesError(
       failures.map((failure) => {
         const entry = index.parameters.get(failure.name);
-        return { cellId: entry?.cellId ?? cellId, path: ['params', entry?.index ?? 0, 'value'], message: failure.message };
+        return {
+          cellId: entry?.cellId ?? cellId,
+          path: ['params', entry?.index ?? 0, 'value'],
+          message: failure.message,
+        };
       }),
       'the parameters',
     );

@@ -25,7 +25,8 @@ export function indexSheet(doc: SheetDocument): SheetIndex {
     if (cell.kind !== 'params') continue;
     paramsCells.push(cell);
     cell.params.forEach((parameter, index) => {
-      if (!parameters.has(parameter.name)) parameters.set(parameter.name, { cellId: cell.id, index, parameter });
+      if (!parameters.has(parameter.name))
+        parameters.set(parameter.name, { cellId: cell.id, index, parameter });
     });
   }
   return { doc, cellsById, paramsCells, parameters, parameterNames: [...parameters.keys()] };

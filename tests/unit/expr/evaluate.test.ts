@@ -81,6 +81,7 @@ describe('evaluate against hand-computed values', () => {
   it('throws a clear error for a name without a value, ignoring inherited properties', () => {
     const result = checkExpression('constructor + 1', ['constructor']);
     expect(result.ok).toBe(true);
-    if (result.ok) expect(() => evaluate(result.tree, {})).toThrow("no value given for the name 'constructor'");
+    if (result.ok)
+      expect(() => evaluate(result.tree, {})).toThrow("no value given for the name 'constructor'");
   });
 });

@@ -1,10 +1,21 @@
 import { describe, expect, it } from 'vitest';
-import { checkExpression, evaluate, EXPRESSION_FUNCTIONS, EXPRESSION_PRELUDE, generateSource, numberSource } from '@shared/expr';
+import {
+  checkExpression,
+  evaluate,
+  EXPRESSION_FUNCTIONS,
+  EXPRESSION_PRELUDE,
+  generateSource,
+  numberSource,
+} from '@shared/expr';
 import { FUNCTION_IMPLEMENTATIONS } from '@shared/expr/library';
 
 // new Function appears here, in a test only, to run generated source the way the engine will.
 function compile(source: string): (t: number, s0: number, s1: number) => number {
-  return new Function('t', 's0', 's1', `${EXPRESSION_PRELUDE}\nreturn ${source};`) as (t: number, s0: number, s1: number) => number;
+  return new Function('t', 's0', 's1', `${EXPRESSION_PRELUDE}\nreturn ${source};`) as (
+    t: number,
+    s0: number,
+    s1: number,
+  ) => number;
 }
 
 const SCOPE = ['t', 'x', 'y', 'k', 'm'];
@@ -74,15 +85,17 @@ describe('generateSource', () => {
   it('refuses a name without a replacement', () => {
     const checked = checkExpression('x + y', SCOPE);
     expect(checked.ok).toBe(true);
-    if (checked.ok) expect(() => generateSource(checked.tree, { x: 's0' })).toThrow("no replacement given for the name 'y'");
+    if (checked.ok)
+      expect(() => generateSource(checked.tree, { x: 's0' })).toThrow(
+        "no replacement given for the name 'y'",
+      );
   });
 });
 
 describe('EXPRESSION_PRELUDE', () => {
-  const helpers = new Function(`${EXPRESSION_PRELUDE}\nreturn { ${EXPRESSION_FUNCTIONS.map((f) => `${f.name}: f_${f.name}`).join(', ')} };`)() as Record<
-    string,
-    (...args: number[]) => number
-  >;
+  const helpers = new Function(
+    `${EXPRESSION_PRELUDE}\nreturn { ${EXPRESSION_FUNCTIONS.map((f) => `${f.name}: f_${f.name}`).join(', ')} };`,
+  )() as Record<string, (...args: number[]) => number>;
 
   it('defines every function with the f_ prefix', () => {
     for (const fn of EXPRESSION_FUNCTIONS) {

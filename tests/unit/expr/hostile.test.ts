@@ -151,24 +151,23 @@ describe('checkExpression as a security boundary', () => {
     expect(HOSTILE.length).toBeGreaterThanOrEqual(50);
   });
 
-  it.each(HOSTILE.map((text) => [text.length > 60 ? `${text.slice(0, 40)}… (${text.length} chars)` : text, text]))(
-    'rejects %s with a positioned message and runs nothing',
-    (_label, text) => {
-      const result = checkExpression(text, SCOPE);
-      expect(result.ok).toBe(false);
-      if (result.ok) return;
-      expect(result.errors.length).toBeGreaterThan(0);
-      for (const error of result.errors) {
-        expect(error.message.length).toBeGreaterThan(5);
-        expect(error.from).toBeGreaterThanOrEqual(0);
-        expect(error.to).toBeGreaterThanOrEqual(error.from);
-        expect(error.to).toBeLessThanOrEqual(Math.max(text.length, 1));
-      }
-      expect(functionSpy).not.toHaveBeenCalled();
-      expect(evalSpy).not.toHaveBeenCalled();
-      expect((globalThis as Record<string, unknown>).__meanderPwned).toBeUndefined();
-    },
-  );
+  it.each(
+    HOSTILE.map((text) => [text.length > 60 ? `${text.slice(0, 40)}… (${text.length} chars)` : text, text]),
+  )('rejects %s with a positioned message and runs nothing', (_label, text) => {
+    const result = checkExpression(text, SCOPE);
+    expect(result.ok).toBe(false);
+    if (result.ok) return;
+    expect(result.errors.length).toBeGreaterThan(0);
+    for (const error of result.errors) {
+      expect(error.message.length).toBeGreaterThan(5);
+      expect(error.from).toBeGreaterThanOrEqual(0);
+      expect(error.to).toBeGreaterThanOrEqual(error.from);
+      expect(error.to).toBeLessThanOrEqual(Math.max(text.length, 1));
+    }
+    expect(functionSpy).not.toHaveBeenCalled();
+    expect(evalSpy).not.toHaveBeenCalled();
+    expect((globalThis as Record<string, unknown>).__meanderPwned).toBeUndefined();
+  });
 
   it('handles 10 000 nested brackets without overflowing the stack', () => {
     const within = '('.repeat(10_000) + 'x' + ')'.repeat(10_000);

@@ -15,7 +15,9 @@ describe('checkExpression messages and positions', () => {
   });
 
   it('names an unknown name and lists the scope, sorted', () => {
-    expect(errorsOf('k * x')).toEqual([{ from: 0, to: 1, message: "unknown name 'k'; names in scope: a, b, t, x" }]);
+    expect(errorsOf('k * x')).toEqual([
+      { from: 0, to: 1, message: "unknown name 'k'; names in scope: a, b, t, x" },
+    ]);
   });
 
   it('says when no names are in scope', () => {
@@ -47,21 +49,33 @@ describe('checkExpression messages and positions', () => {
   });
 
   it('points at member access, this and strings where they stand', () => {
-    expect(errorsOf('1 + x.y')).toEqual([{ from: 4, to: 7, message: 'property access (a.b or a[b]) is not allowed in expressions' }]);
+    expect(errorsOf('1 + x.y')).toEqual([
+      { from: 4, to: 7, message: 'property access (a.b or a[b]) is not allowed in expressions' },
+    ]);
     expect(errorsOf('2 * this')[0]).toMatchObject({ from: 4, to: 8 });
-    expect(errorsOf('x + "s"')[0]).toMatchObject({ from: 4, to: 7, message: 'strings are not allowed; expressions work with numbers' });
+    expect(errorsOf('x + "s"')[0]).toMatchObject({
+      from: 4,
+      to: 7,
+      message: 'strings are not allowed; expressions work with numbers',
+    });
   });
 
   it('asks for brackets around a negated base of **', () => {
-    expect(errorsOf('-x ** 2')[0]?.message).toBe('a minus sign before ** needs brackets: write (-a) ** b or -(a ** b)');
+    expect(errorsOf('-x ** 2')[0]?.message).toBe(
+      'a minus sign before ** needs brackets: write (-a) ** b or -(a ** b)',
+    );
   });
 
   it('rejects text after the expression', () => {
-    expect(errorsOf('x y')).toEqual([{ from: 2, to: 3, message: "unexpected text after the expression: 'y'" }]);
+    expect(errorsOf('x y')).toEqual([
+      { from: 2, to: 3, message: "unexpected text after the expression: 'y'" },
+    ]);
   });
 
   it('rejects comments with their position', () => {
-    expect(errorsOf('x /* hidden */ + 1')).toEqual([{ from: 2, to: 14, message: 'comments are not allowed in expressions' }]);
+    expect(errorsOf('x /* hidden */ + 1')).toEqual([
+      { from: 2, to: 14, message: 'comments are not allowed in expressions' },
+    ]);
   });
 
   it('rejects empty and over-long input', () => {
@@ -74,7 +88,11 @@ describe('checkExpression messages and positions', () => {
   });
 
   it('rejects names written with escape sequences', () => {
-    expect(errorsOf('\\u0061 + 1')[0]).toMatchObject({ from: 0, to: 6, message: 'write names without escape sequences (\\u…)' });
+    expect(errorsOf('\\u0061 + 1')[0]).toMatchObject({
+      from: 0,
+      to: 6,
+      message: 'write names without escape sequences (\\u…)',
+    });
   });
 
   it('asks for decimal numbers', () => {

@@ -20,17 +20,25 @@ describe('checkSheet', () => {
     it('rejects duplicate cell ids', () => {
       const doc = ouSheet();
       doc.cells.push({ id: 'intro', kind: 'note', text: 'again' });
-      expect(checkSheet(doc)).toEqual([{ cellId: 'intro', path: ['id'], message: "cell id 'intro' is used by more than one cell" }]);
+      expect(checkSheet(doc)).toEqual([
+        { cellId: 'intro', path: ['id'], message: "cell id 'intro' is used by more than one cell" },
+      ]);
     });
 
     it('rejects a parameter defined in two params cells', () => {
       const issues = checkSheet(ouWith({ id: 'p2', kind: 'params', params: [{ name: 'mu', value: 1 }] }));
-      expect(issues).toContainEqual({ cellId: 'p2', path: ['params', 0, 'name'], message: "parameter 'mu' is already defined in cell 'p'" });
+      expect(issues).toContainEqual({
+        cellId: 'p2',
+        path: ['params', 0, 'name'],
+        message: "parameter 'mu' is already defined in cell 'p'",
+      });
     });
 
     it('rejects a state with the name of a parameter, naming both cells', () => {
       const issues = checkSheet(
-        ouWith(modelCell({ states: [{ name: 'mu', initial: '1', drift: '-mu', diffusion: { W: 'sigma' } }] })),
+        ouWith(
+          modelCell({ states: [{ name: 'mu', initial: '1', drift: '-mu', diffusion: { W: 'sigma' } }] }),
+        ),
       );
       expect(issues).toContainEqual({
         cellId: 'm',
@@ -40,7 +48,14 @@ describe('checkSheet', () => {
     });
 
     it('rejects a noise source with the name of a state of the same model', () => {
-      const issues = checkSheet(ouWith(modelCell({ noises: [{ name: 'x' }], states: [{ name: 'x', initial: '1', drift: '0', diffusion: { x: '1' } }] })));
+      const issues = checkSheet(
+        ouWith(
+          modelCell({
+            noises: [{ name: 'x' }],
+            states: [{ name: 'x', initial: '1', drift: '0', diffusion: { x: '1' } }],
+          }),
+        ),
+      );
       expect(issues).toContainEqual({
         cellId: 'm',
         path: ['noises', 0, 'name'],
@@ -60,28 +75,69 @@ describe('checkSheet', () => {
     });
 
     it('accepts names like s0 and w1, which generation renames', () => {
-      expect(checkSheet(ouWith({ id: 'p2', kind: 'params', params: [{ name: 's0', value: 1 }, { name: 'w1', value: 2 }] }))).toEqual([]);
+      expect(
+        checkSheet(
+          ouWith({
+            id: 'p2',
+            kind: 'params',
+            params: [
+              { name: 's0', value: 1 },
+              { name: 'w1', value: 2 },
+            ],
+          }),
+        ),
+      ).toEqual([]);
     });
   });
 
   describe('expression scopes', () => {
     it('does not let a parameter read a state or t', () => {
-      const issues = checkSheet(ouWith({ id: 'p2', kind: 'params', params: [{ name: 'q', value: 'x + t' }] }));
+      const issues = checkSheet(
+        ouWith({ id: 'p2', kind: 'params', params: [{ name: 'q', value: 'x + t' }] }),
+      );
       expect(issues).toEqual([
-        expect.objectContaining({ cellId: 'p2', path: ['params', 0, 'value'], from: 0, to: 1, message: expect.stringMatching(/^unknown name 'x'/) }),
-        expect.objectContaining({ cellId: 'p2', path: ['params', 0, 'value'], from: 4, to: 5, message: expect.stringMatching(/^unknown name 't'/) }),
+        expect.objectContaining({
+          cellId: 'p2',
+          path: ['params', 0, 'value'],
+          from: 0,
+          to: 1,
+          message: expect.stringMatching(/^unknown name 'x'/),
+        }),
+        expect.objectContaining({
+          cellId: 'p2',
+          path: ['params', 0, 'value'],
+          from: 4,
+          to: 5,
+          message: expect.stringMatching(/^unknown name 't'/),
+        }),
       ]);
     });
 
     it('lets an initial value read parameters only', () => {
-      const issues = checkSheet(ouWith(modelCell({ states: [{ name: 'x', initial: 'mu + t', drift: '0', diffusion: { W: 'sigma' } }] })));
-      expect(issues).toEqual([expect.objectContaining({ cellId: 'm', path: ['states', 0, 'initial'], from: 5, to: 6 })]);
+      const issues = checkSheet(
+        ouWith(
+          modelCell({ states: [{ name: 'x', initial: 'mu + t', drift: '0', diffusion: { W: 'sigma' } }] }),
+        ),
+      );
+      expect(issues).toEqual([
+        expect.objectContaining({ cellId: 'm', path: ['states', 0, 'initial'], from: 5, to: 6 }),
+      ]);
     });
 
     it('lets drift and diffusion read parameters, states and t, but not noise names', () => {
-      const ok = checkSheet(ouWith(modelCell({ states: [{ name: 'x', initial: '1', drift: 'theta * (mu - x) * t', diffusion: { W: 'sigma * x' } }] })));
+      const ok = checkSheet(
+        ouWith(
+          modelCell({
+            states: [
+              { name: 'x', initial: '1', drift: 'theta * (mu - x) * t', diffusion: { W: 'sigma * x' } },
+            ],
+          }),
+        ),
+      );
       expect(ok).toEqual([]);
-      const issues = checkSheet(ouWith(modelCell({ states: [{ name: 'x', initial: '1', drift: 'W', diffusion: { W: 'W' } }] })));
+      const issues = checkSheet(
+        ouWith(modelCell({ states: [{ name: 'x', initial: '1', drift: 'W', diffusion: { W: 'W' } }] })),
+      );
       expect(issues.map((i) => i.path)).toEqual([
         ['states', 0, 'drift'],
         ['states', 0, 'diffusion', 'W'],
@@ -90,10 +146,18 @@ describe('checkSheet', () => {
     });
 
     it('lets an exact solution read parameters, t, noise and state names', () => {
-      const ok = modelCell({ states: [{ name: 'x', initial: '1', drift: '0', diffusion: { W: 'sigma' }, exact: 'x + sigma * W + 0 * t' }] });
+      const ok = modelCell({
+        states: [
+          { name: 'x', initial: '1', drift: '0', diffusion: { W: 'sigma' }, exact: 'x + sigma * W + 0 * t' },
+        ],
+      });
       expect(checkSheet(ouWith(ok))).toEqual([]);
       const issues = checkSheet(
-        ouWith(modelCell({ states: [{ name: 'x', initial: '1', drift: '0', diffusion: { W: '1' }, exact: 'x + W + y' }] })),
+        ouWith(
+          modelCell({
+            states: [{ name: 'x', initial: '1', drift: '0', diffusion: { W: '1' }, exact: 'x + W + y' }],
+          }),
+        ),
       );
       expect(issues).toEqual([expect.objectContaining({ path: ['states', 0, 'exact'], from: 8, to: 9 })]);
     });
@@ -112,11 +176,19 @@ describe('checkSheet', () => {
           ],
         }),
       );
-      expect(issues).toEqual([{ cellId: 'p2', path: ['params', 0, 'value'], message: "parameter 'a' depends on itself through b → c → a" }]);
+      expect(issues).toEqual([
+        {
+          cellId: 'p2',
+          path: ['params', 0, 'value'],
+          message: "parameter 'a' depends on itself through b → c → a",
+        },
+      ]);
     });
 
     it('reports a parameter that reads itself', () => {
-      const issues = checkSheet(ouWith({ id: 'p2', kind: 'params', params: [{ name: 'a', value: 'a + 1' }] }));
+      const issues = checkSheet(
+        ouWith({ id: 'p2', kind: 'params', params: [{ name: 'a', value: 'a + 1' }] }),
+      );
       expect(messages(issues)).toEqual(["parameter 'a' depends on itself"]);
     });
 
@@ -136,26 +208,42 @@ describe('checkSheet', () => {
       expect(issues).toEqual([
         { cellId: 'p2', path: ['params', 0, 'value'], message: "'lo' is -1, below its minimum 0" },
         { cellId: 'p2', path: ['params', 1, 'value'], message: "'hi' is 11, above its maximum 10" },
-        { cellId: 'p2', path: ['params', 2, 'max'], message: "the maximum of 'bad' (2) is below its minimum (3)" },
+        {
+          cellId: 'p2',
+          path: ['params', 2, 'max'],
+          message: "the maximum of 'bad' (2) is below its minimum (3)",
+        },
       ]);
     });
 
     it('reports a parameter whose expression is not finite', () => {
-      const issues = checkSheet(ouWith({ id: 'p2', kind: 'params', params: [{ name: 'a', value: 'log(mu - 0.4)' }] }));
+      const issues = checkSheet(
+        ouWith({ id: 'p2', kind: 'params', params: [{ name: 'a', value: 'log(mu - 0.4)' }] }),
+      );
       expect(messages(issues)).toEqual(["parameter 'a' evaluates to -Infinity, not a finite number"]);
     });
   });
 
   describe('model', () => {
     it('rejects a diffusion key that is not a noise source', () => {
-      const issues = checkSheet(ouWith(modelCell({ states: [{ name: 'x', initial: '1', drift: '0', diffusion: { W: '1', V: '2' } }] })));
+      const issues = checkSheet(
+        ouWith(
+          modelCell({ states: [{ name: 'x', initial: '1', drift: '0', diffusion: { W: '1', V: '2' } }] }),
+        ),
+      );
       expect(issues).toEqual([
-        { cellId: 'm', path: ['states', 0, 'diffusion', 'V'], message: "'V' is not a noise source of this model; the noise sources are: W" },
+        {
+          cellId: 'm',
+          path: ['states', 0, 'diffusion', 'V'],
+          message: "'V' is not a noise source of this model; the noise sources are: W",
+        },
       ]);
     });
 
     it('rejects an initial value that is not finite', () => {
-      const issues = checkSheet(ouWith(modelCell({ states: [{ name: 'x', initial: 'sqrt(-mu)', drift: '0', diffusion: {} }] })));
+      const issues = checkSheet(
+        ouWith(modelCell({ states: [{ name: 'x', initial: 'sqrt(-mu)', drift: '0', diffusion: {} }] })),
+      );
       expect(messages(issues)).toEqual(["the initial value of 'x' evaluates to NaN"]);
     });
 
@@ -170,37 +258,85 @@ describe('checkSheet', () => {
       });
 
     it('accepts a valid correlation matrix', () => {
-      expect(checkSheet(ouWith(twoNoises([[1, -0.6], [-0.6, 1]])))).toEqual([]);
+      expect(
+        checkSheet(
+          ouWith(
+            twoNoises([
+              [1, -0.6],
+              [-0.6, 1],
+            ]),
+          ),
+        ),
+      ).toEqual([]);
     });
 
     it('rejects a correlation matrix of the wrong shape', () => {
       expect(checkSheet(ouWith(twoNoises([[1]])))).toEqual([
-        { cellId: 'm', path: ['correlation'], message: 'the correlation matrix must be 2 × 2: one row and one column per noise source' },
+        {
+          cellId: 'm',
+          path: ['correlation'],
+          message: 'the correlation matrix must be 2 × 2: one row and one column per noise source',
+        },
       ]);
     });
 
     it('rejects an asymmetric correlation matrix', () => {
-      expect(messages(checkSheet(ouWith(twoNoises([[1, 0.2], [0.3, 1]]))))).toEqual([
-        'entries (1, 2) and (2, 1) differ; the correlation matrix must be symmetric',
-      ]);
+      expect(
+        messages(
+          checkSheet(
+            ouWith(
+              twoNoises([
+                [1, 0.2],
+                [0.3, 1],
+              ]),
+            ),
+          ),
+        ),
+      ).toEqual(['entries (1, 2) and (2, 1) differ; the correlation matrix must be symmetric']);
     });
 
     it('rejects a diagonal entry other than 1', () => {
-      expect(checkSheet(ouWith(twoNoises([[2, 0], [0, 1]])))).toEqual([
-        { cellId: 'm', path: ['correlation', 0, 0], message: 'diagonal entry (1, 1) must be 1' },
-      ]);
+      expect(
+        checkSheet(
+          ouWith(
+            twoNoises([
+              [2, 0],
+              [0, 1],
+            ]),
+          ),
+        ),
+      ).toEqual([{ cellId: 'm', path: ['correlation', 0, 0], message: 'diagonal entry (1, 1) must be 1' }]);
     });
 
     it('rejects entries outside [−1, 1]', () => {
-      expect(messages(checkSheet(ouWith(twoNoises([[1, 1.5], [1.5, 1]]))))).toEqual([
-        'entry (1, 2) must lie between −1 and 1',
-        'entry (2, 1) must lie between −1 and 1',
-      ]);
+      expect(
+        messages(
+          checkSheet(
+            ouWith(
+              twoNoises([
+                [1, 1.5],
+                [1.5, 1],
+              ]),
+            ),
+          ),
+        ),
+      ).toEqual(['entry (1, 2) must lie between −1 and 1', 'entry (2, 1) must lie between −1 and 1']);
     });
 
     it('rejects a correlation matrix that is not positive definite', () => {
       // Perfect correlation is singular: det = 1 − ρ² = 0.
-      expect(messages(checkSheet(ouWith(twoNoises([[1, 1], [1, 1]]))))).toEqual(['the correlation matrix is not positive definite']);
+      expect(
+        messages(
+          checkSheet(
+            ouWith(
+              twoNoises([
+                [1, 1],
+                [1, 1],
+              ]),
+            ),
+          ),
+        ),
+      ).toEqual(['the correlation matrix is not positive definite']);
       // Pairwise valid but jointly impossible: det = 1 − 3·0.81 − 2·0.729 < 0 (hand computed).
       const three = modelCell({
         states: [{ name: 'x', initial: '1', drift: '-x', diffusion: { U: '1', V: '1', Z: '1' } }],
@@ -211,13 +347,19 @@ describe('checkSheet', () => {
           [0.9, -0.9, 1],
         ],
       });
-      expect(messages(checkSheet(ouWith(three)))).toEqual(['the correlation matrix is not positive definite']);
+      expect(messages(checkSheet(ouWith(three)))).toEqual([
+        'the correlation matrix is not positive definite',
+      ]);
     });
   });
 
   describe('simulation', () => {
     it('rejects a missing model and a reference to a cell of another kind', () => {
-      expect(checkSheet(ouWith(simulationCell({ model: 'nope' })))).toContainEqual({ cellId: 'run', path: ['model'], message: "there is no cell 'nope'" });
+      expect(checkSheet(ouWith(simulationCell({ model: 'nope' })))).toContainEqual({
+        cellId: 'run',
+        path: ['model'],
+        message: "there is no cell 'nope'",
+      });
       expect(checkSheet(ouWith(simulationCell({ model: 'p' })))).toContainEqual({
         cellId: 'run',
         path: ['model'],
@@ -226,8 +368,12 @@ describe('checkSheet', () => {
     });
 
     it('wants exactly one of steps and step size', () => {
-      expect(messages(checkSheet(ouWith(simulationCell({ steps: 100 }))))).toEqual(['give either a number of steps or a step size, not both']);
-      expect(messages(checkSheet(ouWith(simulationCell({ stepSize: undefined }))))).toEqual(['give a number of steps or a step size']);
+      expect(messages(checkSheet(ouWith(simulationCell({ steps: 100 }))))).toEqual([
+        'give either a number of steps or a step size, not both',
+      ]);
+      expect(messages(checkSheet(ouWith(simulationCell({ stepSize: undefined }))))).toEqual([
+        'give a number of steps or a step size',
+      ]);
     });
 
     it('wants t1 after t0', () => {
@@ -245,8 +391,14 @@ describe('checkSheet', () => {
     });
 
     it('rejects boundaries on names that are not states', () => {
-      expect(checkSheet(ouWith(simulationCell({ boundaries: { y: { rule: 'reflect', level: 0 } } })))).toEqual([
-        { cellId: 'run', path: ['boundaries', 'y'], message: "'y' is not a state variable of model 'm'; its states are: x" },
+      expect(
+        checkSheet(ouWith(simulationCell({ boundaries: { y: { rule: 'reflect', level: 0 } } }))),
+      ).toEqual([
+        {
+          cellId: 'run',
+          path: ['boundaries', 'y'],
+          message: "'y' is not a state variable of model 'm'; its states are: x",
+        },
       ]);
     });
 
@@ -260,7 +412,13 @@ describe('checkSheet', () => {
 
     it('allows Milstein only for scalar or diagonal noise', () => {
       const issues = checkSheet(ouWith(sharedNoise, simulationCell({ method: 'milstein' })));
-      expect(issues).toEqual([{ cellId: 'run', path: ['method'], message: expect.stringMatching(/^Milstein needs scalar noise .*use Euler–Maruyama$/) }]);
+      expect(issues).toEqual([
+        {
+          cellId: 'run',
+          path: ['method'],
+          message: expect.stringMatching(/^Milstein needs scalar noise .*use Euler–Maruyama$/),
+        },
+      ]);
       // Scalar noise felt by two states is fine, and so is diagonal noise.
       const scalar = modelCell({
         states: [
@@ -313,65 +471,129 @@ describe('checkSheet', () => {
 
   describe('charts, probes and studies', () => {
     it('rejects a missing simulation', () => {
-      expect(checkSheet(ouWith({ id: 'fan', kind: 'chart', simulation: 'gone', view: 'fan', state: 'x' }))).toEqual([
-        { cellId: 'fan', path: ['simulation'], message: "there is no cell 'gone'" },
-      ]);
+      expect(
+        checkSheet(ouWith({ id: 'fan', kind: 'chart', simulation: 'gone', view: 'fan', state: 'x' })),
+      ).toEqual([{ cellId: 'fan', path: ['simulation'], message: "there is no cell 'gone'" }]);
       expect(checkSheet(ouWith({ id: 's', kind: 'study', simulation: 'm' }))).toEqual([
         { cellId: 's', path: ['simulation'], message: "cell 'm' is a model cell, not a simulation cell" },
       ]);
     });
 
     it('rejects state names the model does not have', () => {
-      expect(checkSheet(ouWith({ id: 'high', kind: 'probe', simulation: 'run', quantity: 'mean', state: 'z' }))).toEqual([
-        { cellId: 'high', path: ['state'], message: "'z' is not a state variable of model 'm'; its states are: x" },
+      expect(
+        checkSheet(ouWith({ id: 'high', kind: 'probe', simulation: 'run', quantity: 'mean', state: 'z' })),
+      ).toEqual([
+        {
+          cellId: 'high',
+          path: ['state'],
+          message: "'z' is not a state variable of model 'm'; its states are: x",
+        },
       ]);
       expect(checkSheet(ouWith({ id: 's', kind: 'study', simulation: 'run', state: 'q' }))).toEqual([
         expect.objectContaining({ cellId: 's', path: ['state'] }),
       ]);
     });
 
-    it.each(['exceedance', 'subceedance', 'hit-before', 'first-passage'] as const)('wants a level for %s', (quantity) => {
-      const issues = checkSheet(ouWith({ id: 'high', kind: 'probe', simulation: 'run', quantity, state: 'x' }));
-      expect(issues).toEqual([{ cellId: 'high', path: ['level'], message: expect.stringMatching(/needs a level$/) }]);
-    });
+    it.each(['exceedance', 'subceedance', 'hit-before', 'first-passage'] as const)(
+      'wants a level for %s',
+      (quantity) => {
+        const issues = checkSheet(
+          ouWith({ id: 'high', kind: 'probe', simulation: 'run', quantity, state: 'x' }),
+        );
+        expect(issues).toEqual([
+          { cellId: 'high', path: ['level'], message: expect.stringMatching(/needs a level$/) },
+        ]);
+      },
+    );
 
     it('wants a probability for a quantile', () => {
-      expect(checkSheet(ouWith({ id: 'high', kind: 'probe', simulation: 'run', quantity: 'quantile', state: 'x' }))).toEqual([
+      expect(
+        checkSheet(
+          ouWith({ id: 'high', kind: 'probe', simulation: 'run', quantity: 'quantile', state: 'x' }),
+        ),
+      ).toEqual([
         { cellId: 'high', path: ['probability'], message: 'a quantile needs a probability between 0 and 1' },
       ]);
-      expect(checkSheet(ouWith({ id: 'high', kind: 'probe', simulation: 'run', quantity: 'quantile', state: 'x', probability: 0.9 }))).toEqual([]);
+      expect(
+        checkSheet(
+          ouWith({
+            id: 'high',
+            kind: 'probe',
+            simulation: 'run',
+            quantity: 'quantile',
+            state: 'x',
+            probability: 0.9,
+          }),
+        ),
+      ).toEqual([]);
     });
 
     it('wants a level or an absorbing lower boundary for extinction', () => {
-      const probe = { id: 'high', kind: 'probe', simulation: 'run', quantity: 'extinction', state: 'x' } as const;
-      expect(messages(checkSheet(ouWith(probe)))).toEqual(["extinction needs a level, or an absorbing lower boundary on 'x' in simulation 'run'"]);
-      expect(checkSheet(ouWith(probe, simulationCell({ boundaries: { x: { rule: 'absorb', level: 0 } } })))).toEqual([]);
+      const probe = {
+        id: 'high',
+        kind: 'probe',
+        simulation: 'run',
+        quantity: 'extinction',
+        state: 'x',
+      } as const;
+      expect(messages(checkSheet(ouWith(probe)))).toEqual([
+        "extinction needs a level, or an absorbing lower boundary on 'x' in simulation 'run'",
+      ]);
+      expect(
+        checkSheet(ouWith(probe, simulationCell({ boundaries: { x: { rule: 'absorb', level: 0 } } }))),
+      ).toEqual([]);
     });
 
     it('rejects a probe time outside the simulated interval', () => {
-      expect(checkSheet(ouWith({ id: 'high', kind: 'probe', simulation: 'run', quantity: 'mean', state: 'x', time: 4 }))).toEqual([
+      expect(
+        checkSheet(
+          ouWith({ id: 'high', kind: 'probe', simulation: 'run', quantity: 'mean', state: 'x', time: 4 }),
+        ),
+      ).toEqual([
         { cellId: 'high', path: ['time'], message: 'the time 4 lies outside the simulated interval [0, 3]' },
       ]);
     });
 
     it('wants a second state for a phase chart', () => {
-      expect(checkSheet(ouWith({ id: 'fan', kind: 'chart', simulation: 'run', view: 'phase', state: 'x' }))).toEqual([
+      expect(
+        checkSheet(ouWith({ id: 'fan', kind: 'chart', simulation: 'run', view: 'phase', state: 'x' })),
+      ).toEqual([
         { cellId: 'fan', path: ['stateY'], message: 'a phase chart needs a second state variable' },
       ]);
-      expect(checkSheet(ouWith({ id: 'fan', kind: 'chart', simulation: 'run', view: 'phase', state: 'x', stateY: 'y' }))).toEqual([
-        expect.objectContaining({ cellId: 'fan', path: ['stateY'] }),
-      ]);
+      expect(
+        checkSheet(
+          ouWith({ id: 'fan', kind: 'chart', simulation: 'run', view: 'phase', state: 'x', stateY: 'y' }),
+        ),
+      ).toEqual([expect.objectContaining({ cellId: 'fan', path: ['stateY'] })]);
     });
 
     it('wants an exact solution for an exact study reference', () => {
-      const noExact = modelCell({ states: [{ name: 'x', initial: '1', drift: '-x', diffusion: { W: 'sigma' } }] });
-      expect(checkSheet(ouWith(noExact, { id: 's', kind: 'study', simulation: 'run', reference: 'exact' }))).toEqual([
-        { cellId: 's', path: ['reference'], message: "an exact reference needs an exact solution for 'x'; use 'finest' or 'auto'" },
+      const noExact = modelCell({
+        states: [{ name: 'x', initial: '1', drift: '-x', diffusion: { W: 'sigma' } }],
+      });
+      expect(
+        checkSheet(ouWith(noExact, { id: 's', kind: 'study', simulation: 'run', reference: 'exact' })),
+      ).toEqual([
+        {
+          cellId: 's',
+          path: ['reference'],
+          message: "an exact reference needs an exact solution for 'x'; use 'finest' or 'auto'",
+        },
       ]);
       const withExact = modelCell({
-        states: [{ name: 'x', initial: '1', drift: 'mu * x', diffusion: { W: 'sigma * x' }, exact: 'x * exp((mu - sigma ** 2 / 2) * t + sigma * W)' }],
+        states: [
+          {
+            name: 'x',
+            initial: '1',
+            drift: 'mu * x',
+            diffusion: { W: 'sigma * x' },
+            exact: 'x * exp((mu - sigma ** 2 / 2) * t + sigma * W)',
+          },
+        ],
       });
-      expect(checkSheet(ouWith(withExact, { id: 's', kind: 'study', simulation: 'run', reference: 'exact' }))).toEqual([]);
+      expect(
+        checkSheet(ouWith(withExact, { id: 's', kind: 'study', simulation: 'run', reference: 'exact' })),
+      ).toEqual([]);
     });
   });
 });

@@ -63,7 +63,9 @@ export function modelCell(overrides: Partial<Extract<CellInput, { kind: 'model' 
   return { ...(base as Extract<CellInput, { kind: 'model' }>), ...overrides };
 }
 
-export function simulationCell(overrides: Partial<Extract<CellInput, { kind: 'simulation' }>> = {}): CellInput {
+export function simulationCell(
+  overrides: Partial<Extract<CellInput, { kind: 'simulation' }>> = {},
+): CellInput {
   const base = ouCells().find((c) => c.id === 'run');
   return { ...(base as Extract<CellInput, { kind: 'simulation' }>), ...overrides };
 }

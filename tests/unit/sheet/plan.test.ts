@@ -6,7 +6,11 @@ import { modelCell, ouSheet, ouWith, simulationCell } from './fixtures';
 // new Function in a test only: runs a plan's source the way the engine's generator would.
 function run(source: string, t: number, states: number[], noises: number[] = []): number {
   const args = ['t', ...states.map((_, i) => `s${i}`), ...noises.map((_, j) => `w${j}`)];
-  return (new Function(...args, `${EXPRESSION_PRELUDE}\nreturn ${source};`) as (...a: number[]) => number)(t, ...states, ...noises);
+  return (new Function(...args, `${EXPRESSION_PRELUDE}\nreturn ${source};`) as (...a: number[]) => number)(
+    t,
+    ...states,
+    ...noises,
+  );
 }
 
 describe('buildSimulationPlan', () => {
@@ -60,7 +64,9 @@ describe('buildSimulationPlan', () => {
   });
 
   it('takes steps as given, or from the step size with at least one step', () => {
-    expect(buildSimulationPlan(ouWith(simulationCell({ stepSize: undefined, steps: 64 })), 'run').steps).toBe(64);
+    expect(buildSimulationPlan(ouWith(simulationCell({ stepSize: undefined, steps: 64 })), 'run').steps).toBe(
+      64,
+    );
     expect(buildSimulationPlan(ouWith(simulationCell({ stepSize: 0.7 })), 'run').steps).toBe(4); // round(3 / 0.7 = 4.29)
     expect(buildSimulationPlan(ouWith(simulationCell({ stepSize: 50 })), 'run').steps).toBe(1);
   });
@@ -70,7 +76,13 @@ describe('buildSimulationPlan', () => {
       states: [
         // Geometric Brownian motion and its closed form X_t = X_0 exp((mu − sigma²/2) t + sigma W_t)
         // (Kloeden & Platen 1992, §4.4).
-        { name: 'x', initial: '1', drift: 'mu * x', diffusion: { W: 'sigma * x' }, exact: 'x * exp((mu - sigma ** 2 / 2) * t + sigma * W)' },
+        {
+          name: 'x',
+          initial: '1',
+          drift: 'mu * x',
+          diffusion: { W: 'sigma * x' },
+          exact: 'x * exp((mu - sigma ** 2 / 2) * t + sigma * W)',
+        },
         { name: 'y', initial: '2', drift: '-y', diffusion: { V: 'theta' } },
       ],
       noises: [{ name: 'W' }, { name: 'V' }],
@@ -97,7 +109,10 @@ describe('buildSimulationPlan', () => {
     const t = 0.8;
     const w = -0.35;
     const x0 = 1.5;
-    expect(run(plan.model.exact[0] ?? '', t, [x0, 2], [w, 0.9])).toBeCloseTo(x0 * Math.exp((0.4 - 0.25 ** 2 / 2) * t + 0.25 * w), 13);
+    expect(run(plan.model.exact[0] ?? '', t, [x0, 2], [w, 0.9])).toBeCloseTo(
+      x0 * Math.exp((0.4 - 0.25 ** 2 / 2) * t + 0.25 * w),
+      13,
+    );
   });
 
   it('collects probe times other than t1 and the levels probes watch', () => {
@@ -105,10 +120,26 @@ describe('buildSimulationPlan', () => {
       simulationCell({ boundaries: { x: { rule: 'absorb', level: -5 } } }),
       { id: 'q1', kind: 'probe', simulation: 'run', quantity: 'mean', state: 'x', time: 1.5 },
       { id: 'q2', kind: 'probe', simulation: 'run', quantity: 'variance', state: 'x', time: 3 },
-      { id: 'q3', kind: 'probe', simulation: 'run', quantity: 'quantile', state: 'x', time: 0.5, probability: 0.9 },
+      {
+        id: 'q3',
+        kind: 'probe',
+        simulation: 'run',
+        quantity: 'quantile',
+        state: 'x',
+        time: 0.5,
+        probability: 0.9,
+      },
       { id: 'q4', kind: 'probe', simulation: 'run', quantity: 'hit-before', state: 'x', level: 2 },
       { id: 'q5', kind: 'probe', simulation: 'run', quantity: 'first-passage', state: 'x', level: 2 },
-      { id: 'q6', kind: 'probe', simulation: 'run', quantity: 'first-passage', state: 'x', level: -1, direction: 'below' },
+      {
+        id: 'q6',
+        kind: 'probe',
+        simulation: 'run',
+        quantity: 'first-passage',
+        state: 'x',
+        level: -1,
+        direction: 'below',
+      },
       { id: 'q7', kind: 'probe', simulation: 'run', quantity: 'extinction', state: 'x', level: 0.1 },
       { id: 'q8', kind: 'probe', simulation: 'run', quantity: 'mean', state: 'x', time: 1.5 },
     );
@@ -122,7 +153,9 @@ describe('buildSimulationPlan', () => {
   });
 
   it('throws the issues of the cells involved, listed in the error', () => {
-    const doc = ouWith(modelCell({ states: [{ name: 'x', initial: '1', drift: 'k * x', diffusion: { W: 'sigma ^ 2' } }] }));
+    const doc = ouWith(
+      modelCell({ states: [{ name: 'x', initial: '1', drift: 'k * x', diffusion: { W: 'sigma ^ 2' } }] }),
+    );
     let thrown: unknown;
     try {
       buildSimulationPlan(doc, 'run');
@@ -135,7 +168,9 @@ describe('buildSimulationPlan', () => {
       ['states', 0, 'drift'],
       ['states', 0, 'diffusion', 'W'],
     ]);
-    expect(error.message).toMatch(/^simulation 'run': 2 problems: cell m, states\[0\]\.drift: unknown name 'k'/);
+    expect(error.message).toMatch(
+      /^simulation 'run': 2 problems: cell m, states\[0\]\.drift: unknown name 'k'/,
+    );
     expect(error.message).toContain('use ** for powers');
   });
 
