@@ -1,0 +1,128 @@
+import { spawn } from 'node:child_process';
+import { fileURLToPath } from 'node:url';
+import { describe, expect, it } from 'vitest';
+import { z } from 'zod';
+import { exampleSheets } from '@shared/examples/index';
+
+/**
+ * The headless runner as a user runs it: a child process (tsx server/cli.ts …), stdout parsed as
+ * JSON. Path counts are scaled down so each run takes a second or two.
+ */
+const repoRoot = fileURLToPath(new URL('../../../', import.meta.url));
+const fixture = (name: string) => fileURLToPath(new URL(`./fixtures/${name}`, import.meta.url));
+
+interface CliRun {
+  code: number | null;
+  stdout: string;
+  stderr: string;
+}
+
+function runCli(args: string[]): Promise<CliRun> {
+  return new Promise((resolve, reject) => {
+    const child = spawn(process.execPath, ['node_modules/tsx/dist/cli.mjs', 'server/cli.ts', ...args], { cwd: repoRoot });
+    let stdout = '';
+    let stderr = '';
+    child.stdout.on('data', (chunk: Buffer) => (stdout += chunk.toString()));
+    child.stderr.on('data', (chunk: Buffer) => (stderr += chunk.toString()));
+    child.on('error', reject);
+    child.on('close', (code) => resolve({ code, stdout, stderr }));
+  });
+}
+
+const nullableNumber = z.number().nullable();
+const quantiles = z.object({ '5': nullableNumber, '25': nullableNumber, '50': nullableNumber, '75': nullableNumber, '95': nullableNumber }).strict();
+const simulationOutput = z
+  .object({
+    id: z.string(),
+    kind: z.literal('simulation'),
+    method: z.enum(['euler-maruyama', 'milstein', 'heun']),
+    paths: z.number().int().positive(),
+    steps: z.number().int().positive(),
+    final: z.record(z.string(), z.object({ mean: nullableNumber, variance: nullableNumber, quantiles }).strict()),
+    blowups: z.number().int().min(0),
+    digest: z.string().regex(/^[0-9a-f]{16}$/),
+  })
+  .strict();
+const probeOutput = z
+  .object({
+    id: z.string(),
+    kind: z.literal('probe'),
+    estimate: nullableNumber,
+    standardError: nullableNumber,
+    ci: z.tuple([nullableNumber, nullableNumber]),
+    paths: z.number().int().min(0),
+    note: z.string().optional(),
+  })
+  .strict();
+const studyLevel = z
+  .object({ steps: z.number().int(), h: z.number(), strongError: nullableNumber, strongSE: nullableNumber, weakError: nullableNumber, weakSE: nullableNumber })
+  .strict();
+const studyOutput = z
+  .object({
+    id: z.string(),
+    kind: z.literal('study'),
+    strongOrder: nullableNumber,
+    weakOrder: nullableNumber,
+    reference: z.enum(['exact', 'finest']),
+    levels: z.array(studyLevel).min(3),
+    note: z.string().optional(),
+  })
+  .strict();
+const runOutput = z.object({ title: z.string(), cells: z.array(z.union([simulationOutput, probeOutput, studyOutput])) }).strict();
+
+describe('sheet run (command line)', () => {
+  for (const example of exampleSheets) {
+    it(`prints the documented JSON for the ${example.slug} example`, async () => {
+      const result = await runCli(['run', `shared/examples/${example.slug}.json`, '--paths-scale', '0.02', '--workers', '2']);
+      expect(result.stderr).toBe('');
+      expect(result.code).toBe(0);
+      expect(result.stdout.trim().split('\n')).toHaveLength(1);
+      const output = runOutput.parse(JSON.parse(result.stdout));
+      expect(output.title).toBe(example.document.title);
+      // One output per numerical cell, in document order.
+      const numerical = example.document.cells.filter((c) => c.kind === 'simulation' || c.kind === 'probe' || c.kind === 'study');
+      expect(output.cells.map((c) => [c.id, c.kind])).toEqual(numerical.map((c) => [c.id, c.kind]));
+      for (const cell of output.cells) {
+        if (cell.kind === 'simulation') {
+          const source = numerical.find((c) => c.id === cell.id);
+          expect(source?.kind === 'simulation' && Math.max(1, Math.round(source.paths * 0.02))).toBe(cell.paths);
+        }
+        if (cell.kind === 'probe') {
+          expect(cell.ci[0]!).toBeLessThanOrEqual(cell.estimate!);
+          expect(cell.ci[1]!).toBeGreaterThanOrEqual(cell.estimate!);
+        }
+      }
+    });
+  }
+
+  it('gives the same digest and numbers with one worker and with two', async () => {
+    const one = await runCli(['run', fixture('small-relaxation.json'), '--workers', '1']);
+    const two = await runCli(['run', fixture('small-relaxation.json'), '--workers', '2']);
+    expect(one.code).toBe(0);
+    expect(two.code).toBe(0);
+    const sim = (stdout: string) => runOutput.parse(JSON.parse(stdout)).cells.find((c) => c.kind === 'simulation');
+    expect(sim(one.stdout)).toBeDefined();
+    expect(sim(one.stdout)).toEqual(sim(two.stdout));
+    expect(JSON.parse(one.stdout)).toEqual(JSON.parse(two.stdout));
+  });
+
+  it('exits 1 on an invalid sheet, naming the cell and the field on stderr, with nothing on stdout', async () => {
+    const result = await runCli(['run', fixture('unknown-name.json')]);
+    expect(result.code).toBe(1);
+    expect(result.stdout).toBe('');
+    expect(result.stderr).toMatch(/cell gauge-model, states\[0\]\.drift: .*offset/);
+  });
+
+  it('exits 2 on a usage error and on a missing file, with nothing on stdout', async () => {
+    const noFile = await runCli(['run']);
+    expect(noFile.code).toBe(2);
+    expect(noFile.stdout).toBe('');
+    expect(noFile.stderr).toMatch(/needs a sheet file/);
+    const badWorkers = await runCli(['run', fixture('small-relaxation.json'), '--workers', 'many']);
+    expect(badWorkers.code).toBe(2);
+    expect(badWorkers.stderr).toMatch(/--workers must be a positive whole number/);
+    const missing = await runCli(['run', 'no-such-sheet.json']);
+    expect(missing.code).toBe(2);
+    expect(missing.stderr).toMatch(/cannot read no-such-sheet\.json: no such file/);
+  });
+});
