@@ -291,10 +291,7 @@ export const useSheetEditorStore = defineStore('sheet-editor', () => {
       serverUpdatedAt.value = new Date();
       clearDraft('draft', userId.value, id);
       draftRestoredAt.value = null;
-      if (doc.title.trim() !== serverTitle.value) {
-        await renameSheet(id, doc.title.trim()).catch(() => undefined);
-        serverTitle.value = doc.title.trim();
-      }
+      if (doc.title.trim() !== serverTitle.value) await renameAfterSave(id, doc.title.trim());
       return true;
     } catch (error) {
       const current = versionConflict(error);
@@ -303,6 +300,16 @@ export const useSheetEditorStore = defineStore('sheet-editor', () => {
       return false;
     } finally {
       saving.value = false;
+    }
+  }
+
+  /** The sheet list shows the sheet's own title: keep it in step with the saved document's. */
+  async function renameAfterSave(id: string, title: string): Promise<void> {
+    try {
+      await renameSheet(id, title);
+      serverTitle.value = title;
+    } catch (error) {
+      saveError.value = `The version was saved, but the sheet list still shows the old title: ${errorMessage(error)}`;
     }
   }
 
