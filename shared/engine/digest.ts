@@ -36,6 +36,11 @@ export class Fnv1a64 {
     return this;
   }
 
+  addBytes(bytes: ArrayLike<number>): this {
+    for (let i = 0; i < bytes.length; i++) this.byte(bytes[i]! & 0xff);
+    return this;
+  }
+
   addNumbers(values: ArrayLike<number>): this {
     for (let i = 0; i < values.length; i++) this.addNumber(values[i]!);
     return this;

@@ -1,7 +1,7 @@
 /** The simulation engine: pure TypeScript, no DOM, no Node APIs. */
 export type { ModelSpec, SimulationPlan, WatchSpec } from './plan';
 export type * from './result';
-export { simulateChunk, simulate, allocateChunk } from './simulate';
+export { simulateChunk, simulate, allocateChunk, chunkBytes } from './simulate';
 export { mergeChunks } from './merge';
 export { evaluateProbe, wilsonInterval, quantileEstimate, valuesAt, Z95 } from './probes';
 export { runStudy } from './study';

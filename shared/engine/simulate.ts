@@ -13,6 +13,15 @@ function now(): number {
   return typeof performance !== 'undefined' ? performance.now() : Date.now();
 }
 
+/**
+ * Bytes a chunk of `pathCount` paths holds: 8 · pathCount · ((saveCount + probeCount) · d + 3d +
+ * watches + 1). It grows with paths × saved times, never with steps.
+ */
+export function chunkBytes(plan: SimulationPlan, pathCount: number): number {
+  const d = plan.model.stateNames.length;
+  return 8 * pathCount * ((plan.saveCount + plan.probeTimes.length) * d + 3 * d + plan.watches.length + 1);
+}
+
 /** Allocates the chunk's arrays (memory: pathCount · (saveCount + probeCount) · d doubles, plus per-path records). */
 export function allocateChunk(plan: SimulationPlan, layout: PlanLayout, firstPath: number, pathCount: number): ChunkResult {
   const d = layout.stateCount;
