@@ -1,0 +1,90 @@
+import { readFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import { RunCancelledError } from '@shared/run/chunk-pool';
+import { inProcessEnvironment } from '@shared/run/environments';
+import { runSheet, type SheetRunEnvironment } from '@shared/run/run-sheet';
+import type { CellOutput } from '@shared/run/outputs';
+import { simulate } from '@shared/engine/simulate';
+import { buildSimulationPlan, sheetDocumentSchema } from '@shared/sheet/index';
+
+const fixture = sheetDocumentSchema.parse(JSON.parse(readFileSync(new URL('./fixtures/small-relaxation.json', import.meta.url), 'utf8')));
+
+/** Counts what the runner asks of its environment. */
+function countingEnvironment(inner: SheetRunEnvironment = inProcessEnvironment()) {
+  const calls = { simulations: 0, studies: 0 };
+  const env: SheetRunEnvironment = {
+    runSimulation: (plan, onProgress) => {
+      calls.simulations++;
+      return inner.runSimulation(plan, onProgress);
+    },
+    runStudy: (plan, options) => {
+      calls.studies++;
+      return inner.runStudy(plan, options);
+    },
+  };
+  return { env, calls };
+}
+
+describe('runSheet', () => {
+  it('runs a simulation once, on demand, even when its probe comes first, and lists outputs in document order', async () => {
+    const { env, calls } = countingEnvironment();
+    const seen: string[] = [];
+    const output = await runSheet(fixture, env, { onCellOutput: (cell) => seen.push(cell.id) });
+    expect(output.title).toBe(fixture.title);
+    expect(output.cells.map((c) => c.id)).toEqual(['gauge-probe', 'gauge-run', 'gauge-study']);
+    expect(seen).toEqual(['gauge-probe', 'gauge-run', 'gauge-study']);
+    expect(calls).toEqual({ simulations: 1, studies: 1 });
+    expect(output.cells.every((c) => !('error' in c))).toBe(true);
+  });
+
+  it('reports the same digest as the engine running the whole plan in one piece', async () => {
+    const output = await runSheet(fixture, inProcessEnvironment());
+    const sim = output.cells.find((c): c is Extract<CellOutput, { kind: 'simulation' }> => c.kind === 'simulation');
+    const whole = simulate(buildSimulationPlan(fixture, 'gauge-run'));
+    expect(sim?.digest).toBe(whole.digest);
+    expect(sim?.paths).toBe(3000);
+  });
+
+  it('summarises the final distribution close to the Ornstein–Uhlenbeck law', async () => {
+    const output = await runSheet(fixture, inProcessEnvironment());
+    const sim = output.cells.find((c): c is Extract<CellOutput, { kind: 'simulation' }> => c.kind === 'simulation')!;
+    const summary = sim.final.Y!;
+    // OU mean m + (Y0 − m) e^{−kT} and variance v²(1 − e^{−2kT})/(2k) (Kloeden & Platen 1992, §4.4).
+    const k = 0.7, m = -1.5, v = 0.45, y0 = 0.6, T = 2;
+    const mean = m + (y0 - m) * Math.exp(-k * T);
+    const variance = ((v * v) / (2 * k)) * (1 - Math.exp(-2 * k * T));
+    // Tolerances: 5 standard errors of the sample mean and variance (normal data: Var(s²) = 2σ⁴/(n−1)),
+    // plus the Euler–Maruyama bias at h = 0.01, well below 0.01 here (common practice, no source).
+    expect(Math.abs(summary.mean! - mean)).toBeLessThan(5 * Math.sqrt(variance / 3000) + 0.01);
+    expect(Math.abs(summary.variance! - variance)).toBeLessThan(5 * variance * Math.sqrt(2 / 2999) + 0.01);
+    expect(summary.quantiles['5']!).toBeLessThan(summary.quantiles['50']!);
+    expect(summary.quantiles['50']!).toBeLessThan(summary.quantiles['95']!);
+  });
+
+  it('reports progress per cell', async () => {
+    const progress: { cellId: string; pathsDone: number }[] = [];
+    await runSheet(fixture, inProcessEnvironment(), { onProgress: (cellId, p) => progress.push({ cellId, pathsDone: p.pathsDone }) });
+    expect(progress.length).toBeGreaterThan(1);
+    expect(progress.every((p) => p.cellId === 'gauge-run')).toBe(true);
+    expect(progress[progress.length - 1]!.pathsDone).toBe(3000);
+  });
+
+  it('records a failing cell with its message and still computes the others', async () => {
+    const inner = inProcessEnvironment();
+    const env: SheetRunEnvironment = {
+      runSimulation: inner.runSimulation,
+      runStudy: () => Promise.reject(new Error('the study ran out of memory')),
+    };
+    const output = await runSheet(fixture, env);
+    expect(output.cells.find((c) => c.id === 'gauge-study')).toEqual({ id: 'gauge-study', kind: 'study', error: 'the study ran out of memory' });
+    expect(output.cells.find((c) => c.id === 'gauge-run')).toHaveProperty('digest');
+  });
+
+  it('stops the whole run on a cancel instead of recording it as a failed cell', async () => {
+    const env: SheetRunEnvironment = {
+      runSimulation: () => Promise.reject(new RunCancelledError()),
+      runStudy: () => Promise.reject(new Error('should not be reached')),
+    };
+    await expect(runSheet(fixture, env)).rejects.toBeInstanceOf(RunCancelledError);
+  });
+});
