@@ -40,6 +40,8 @@ export async function ensurePostgres(options: EnsurePostgresOptions): Promise<Lo
   const asRoot = process.getuid?.() === 0;
   const exec = (binary: string, args: string[]) => runAs(asRoot, path.join(binDir, binary), args);
 
+  // The parent keeps the usual mode (the server's account must reach through it); only the data is private.
+  await mkdir(path.dirname(dataDir), { recursive: true });
   await mkdir(dataDir, { recursive: true, mode: 0o700 });
   await mkdir(socketDir, { recursive: true, mode: 0o700 });
   if (asRoot) await chownToService([dataDir, socketDir]);
