@@ -44,7 +44,7 @@ describe('example probes against closed forms', () => {
     const output = await runSheet(doc, inProcessEnvironment());
     const rise = probe(output.cells, 'rise-odds');
     const mu = 0.035, sigma = 0.27, s0 = 100, T = 2, level = 130;
-    // ln S_T ~ N(ln S0 + (μ − σ²/2)T, σ²T) (Kloeden & Platen 1992, ch. 4; Higham 2001, §6).
+    // ln S_T ~ N(ln S0 + (μ − σ²/2)T, σ²T) (Kloeden & Platen 1992, ch. 4; Higham 2001).
     const exact = 1 - jStat.normal.cdf(Math.log(level), Math.log(s0) + (mu - (sigma * sigma) / 2) * T, sigma * Math.sqrt(T));
     const se = Math.sqrt((exact * (1 - exact)) / 10_000);
     // Allowance 0.003 for Milstein's O(h) weak bias at h = 0.004 (common practice, no source).
