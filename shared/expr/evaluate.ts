@@ -72,8 +72,11 @@ function evaluateNode(node: ExprNode, values: Readonly<Record<string, number>>):
       return evaluateNode(node.test, values)
         ? evaluateNode(node.then, values)
         : evaluateNode(node.otherwise, values);
-    case 'call':
+    case 'call': {
+      if (!Object.hasOwn(FUNCTION_IMPLEMENTATIONS, node.fn))
+        throw new Error(`not an expression function: ${node.fn}`);
       return FUNCTION_IMPLEMENTATIONS[node.fn](...node.args.map((arg) => evaluateNode(arg, values)));
+    }
   }
   throw new Error('unreachable: unknown expression node');
 }

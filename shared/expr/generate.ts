@@ -1,4 +1,4 @@
-import { findConstant } from './functions';
+import { findConstant, findFunction } from './functions';
 import { helperName } from './prelude';
 import type { CheckedExpr, ExprNode } from './tree';
 
@@ -15,7 +15,22 @@ export function generateSource(tree: CheckedExpr, names: Readonly<Record<string,
   return emit(tree.root, names);
 }
 
+/**
+ * Operators by node kind. The types already say this; the check is repeated at run time because
+ * generated source is executed, and a tree could reach here by other means than checkExpression.
+ */
+const OPERATORS: Readonly<Record<string, ReadonlySet<string>>> = {
+  unary: new Set(['-', '+', '!']),
+  arithmetic: new Set(['+', '-', '*', '/', '**']),
+  comparison: new Set(['<', '<=', '>', '>=', '==', '!=']),
+  logical: new Set(['&&', '||']),
+};
+
 function emit(node: ExprNode, names: Readonly<Record<string, string>>): string {
+  if ('op' in node && !OPERATORS[node.kind]?.has(node.op))
+    throw new Error(`not an expression operator: ${String(node.op)}`);
+  if (node.kind === 'call' && findFunction(node.fn)?.name !== node.fn)
+    throw new Error(`not an expression function: ${String(node.fn)}`);
   switch (node.kind) {
     case 'number':
       return numberSource(node.value);
@@ -44,6 +59,7 @@ function emit(node: ExprNode, names: Readonly<Record<string, string>>): string {
     case 'call':
       return `${helperName(node.fn)}(${node.args.map((arg) => emit(arg, names)).join(', ')})`;
   }
+  throw new Error(`not an expression node: ${String((node as { kind?: unknown }).kind)}`);
 }
 
 /** Full precision (String of a double round-trips); negatives in brackets so `- -1` never forms. */

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { checkExpression, evaluate } from '@shared/expr';
+import { checkExpression, evaluate, type CheckedExpr } from '@shared/expr';
 
 function value(text: string, values: Record<string, number> = {}): number {
   const result = checkExpression(text, Object.keys(values));
@@ -83,5 +83,13 @@ describe('evaluate against hand-computed values', () => {
     expect(result.ok).toBe(true);
     if (result.ok)
       expect(() => evaluate(result.tree, {})).toThrow("no value given for the name 'constructor'");
+  });
+
+  it('refuses a forged call of an inherited property', () => {
+    const forged = {
+      root: { kind: 'call', fn: 'constructor', args: [] },
+      names: [],
+    } as unknown as CheckedExpr;
+    expect(() => evaluate(forged, {})).toThrow('not an expression function: constructor');
   });
 });

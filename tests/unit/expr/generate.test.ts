@@ -6,6 +6,7 @@ import {
   EXPRESSION_PRELUDE,
   generateSource,
   numberSource,
+  type CheckedExpr,
 } from '@shared/expr';
 import { FUNCTION_IMPLEMENTATIONS } from '@shared/expr/library';
 
@@ -89,6 +90,26 @@ describe('generateSource', () => {
       expect(() => generateSource(checked.tree, { x: 's0' })).toThrow(
         "no replacement given for the name 'y'",
       );
+  });
+});
+
+describe('generateSource on a tree not made by checkExpression', () => {
+  it.each([
+    [
+      'an operator',
+      {
+        kind: 'arithmetic',
+        op: '+ globalThis.__meanderPwned',
+        left: { kind: 'number', value: 1 },
+        right: { kind: 'number', value: 2 },
+      },
+    ],
+    ['a function', { kind: 'call', fn: 'constructor', args: [] }],
+    ['a node kind', { kind: 'source', text: 'globalThis.__meanderPwned = 1' }],
+    ['a number', { kind: 'number', value: Number.NaN }],
+  ])('refuses a forged %s', (_what, root) => {
+    const forged = { root, names: [] } as unknown as CheckedExpr;
+    expect(() => generateSource(forged, {})).toThrow();
   });
 });
 
