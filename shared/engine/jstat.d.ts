@@ -10,6 +10,11 @@ declare module 'jstat' {
     lognormal: Distribution;
     studentt: Distribution;
     chisquare: Distribution;
+    mean(values: ArrayLike<number>): number;
+    /** Sample (n − 1) version when `sample` is true. */
+    stdev(values: ArrayLike<number>, sample?: boolean): number;
+    variance(values: ArrayLike<number>, sample?: boolean): number;
+    percentile(values: ArrayLike<number>, k: number, exclusive?: boolean): number;
   }
   const jStat: JStat;
   export default jStat;

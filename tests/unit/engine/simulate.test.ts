@@ -164,7 +164,7 @@ describe('boundaries', () => {
     initial: [x0],
     t1: 1,
     steps,
-    paths: 20_000,
+    paths: 10_000,
     boundaries: [{ rule: 'absorb', level: 0, side: 'below' }],
   });
 
