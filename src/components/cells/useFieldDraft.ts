@@ -5,7 +5,7 @@ import { ref, watch, type Ref } from 'vue';
  * Kept outside the component, keyed by cell id and field, so a re-mounted editor (the page may
  * re-create cards when cells move) shows it again instead of losing it.
  */
-const pendingText = new Map<string, string>();
+const pendingText = new Map<string, { text: string; over: string }>();
 
 export interface FieldDraft {
   /** What the input shows: the typed text, valid or not. */
@@ -23,7 +23,10 @@ export interface FieldDraft {
  * (someone else's edit, an undo, a reload), never when the cell is merely re-rendered.
  */
 export function useFieldDraft(key: () => string, committed: () => string): FieldDraft {
-  const text = ref(pendingText.get(key()) ?? committed());
+  // Typed text is shown again only over the value it was typed over; if the cell has changed
+  // since (an undo, someone else's save), the cell wins.
+  const pending = pendingText.get(key());
+  const text = ref(pending && pending.over === committed() ? pending.text : committed());
   let lastAccepted: string | null = null;
 
   watch(committed, (next) => {
@@ -35,7 +38,7 @@ export function useFieldDraft(key: () => string, committed: () => string): Field
   function type(value: string, accepted: string | null): void {
     text.value = value;
     if (accepted === null) {
-      pendingText.set(key(), value);
+      pendingText.set(key(), { text: value, over: committed() });
     } else {
       lastAccepted = accepted;
       pendingText.delete(key());
