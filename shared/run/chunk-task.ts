@@ -1,6 +1,7 @@
 import { simulateChunk } from '../engine/simulate';
 import type { SimulationPlan } from '../engine/plan';
 import type { ChunkResult } from '../engine/result';
+import { collectTransferables } from './transferables';
 
 /**
  * The worker side of one chunk, shared by the browser worker and the command-line runner's
@@ -31,19 +32,5 @@ export function runChunkTask(
 
 /** The buffers of a chunk, to hand over without copying (postMessage transfer list). */
 export function chunkTransferables(chunk: ChunkResult): ArrayBuffer[] {
-  const arrays = [
-    chunk.saved,
-    chunk.probeValues,
-    chunk.runningMax,
-    chunk.runningMin,
-    chunk.firstPassage,
-    chunk.absorptionTime,
-    chunk.blowupTime,
-  ];
-  const buffers = new Set<ArrayBuffer>();
-  for (const array of arrays) {
-    // Views onto a shared or already listed buffer must not be transferred twice.
-    if (array.buffer instanceof ArrayBuffer && array.buffer.byteLength > 0) buffers.add(array.buffer);
-  }
-  return [...buffers];
+  return collectTransferables(chunk);
 }

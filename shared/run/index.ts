@@ -14,4 +14,5 @@ export { runChunkTask, chunkTransferables, type ChunkCancel } from './chunk-task
 export { runSheet, isNumericalCell, isCancellation, type SheetRunEnvironment, type RunSheetHooks, type NumericalCell } from './run-sheet';
 export { inProcessEnvironment, poolEnvironment } from './environments';
 export { scaleSheetPaths } from './scale';
+export { collectTransferables } from './transferables';
 export * from './outputs';

@@ -1,15 +1,16 @@
 import * as Comlink from 'comlink';
 import type { SimulationPlan } from '@shared/engine/plan';
 import type { ChunkResult, SimulationResult, StudyOptions, StudyResult } from '@shared/engine/result';
-import { mergeChunks } from '@shared/engine/merge';
 import { ChunkPool, RunCancelledError, type ChunkWorker, type RunProgress } from '@shared/run/chunk-pool';
 import type { SheetRunEnvironment } from '@shared/run/run-sheet';
+import { collectTransferables } from '@shared/run/transferables';
 import type { SimulationWorkerApi } from './simulation.worker';
 
 /**
  * The browser's simulation pool: hardwareConcurrency − 1 Web Workers (at least one), chunks
- * handed out as workers free up, merged in path order on return. The scheduling itself lives in
- * the framework-free ChunkPool (shared/run), tested in Node with fake workers.
+ * handed out as workers free up, merged in path order by a helper worker (the main thread only
+ * schedules). The scheduling itself lives in the framework-free ChunkPool (shared/run), tested in
+ * Node with fake workers and with worker_threads.
  */
 export function defaultWorkerCount(): number {
   const cores = typeof navigator !== 'undefined' ? navigator.hardwareConcurrency : undefined;
@@ -39,8 +40,12 @@ function chunkWorker(cancelFlag: Int32Array | null): ChunkWorker<SimulationPlan,
 
 export class SimulationPool {
   private readonly chunks: ChunkPool<SimulationPlan, ChunkResult>;
-  /** Studies run on their own short-lived workers, so cancelling one is simply terminating it. */
-  private readonly studyWorkers = new Set<{ worker: Worker; reject: (error: unknown) => void }>();
+  /**
+   * One more worker for merging and studies, created on first use. A cancel terminates it when
+   * busy (a study has no cheaper way to stop) and the next request starts a fresh one.
+   */
+  private helper: { worker: Worker; api: Comlink.Remote<SimulationWorkerApi> } | null = null;
+  private readonly helperJobs = new Set<(error: unknown) => void>();
 
   constructor(size = defaultWorkerCount()) {
     this.chunks = new ChunkPool({ size, createWorker: chunkWorker });
@@ -51,34 +56,30 @@ export class SimulationPool {
   }
 
   async simulate(plan: SimulationPlan, onProgress?: (progress: RunProgress) => void): Promise<SimulationResult> {
-    return mergeChunks(plan, await this.chunks.run(plan, onProgress));
+    const chunks = await this.chunks.run(plan, onProgress);
+    return this.onHelper((api) => api.mergeChunks(plan, Comlink.transfer(chunks, collectTransferables(chunks))));
   }
 
   runStudy(plan: SimulationPlan, options: StudyOptions): Promise<StudyResult> {
-    const { worker, api } = createBrowserWorker();
-    return new Promise<StudyResult>((resolve, reject) => {
-      const entry = { worker, reject };
-      this.studyWorkers.add(entry);
-      api.runStudy(plan, options).then(resolve, reject).finally(() => {
-        this.studyWorkers.delete(entry);
-        worker.terminate();
-      });
-    });
+    return this.onHelper((api) => api.runStudy(plan, options));
   }
 
   /** Stops every simulation and study in flight; their promises reject with RunCancelledError. */
   cancel(): void {
     this.chunks.cancel();
-    for (const entry of this.studyWorkers) {
-      entry.worker.terminate();
-      entry.reject(new RunCancelledError());
+    if (this.helperJobs.size > 0 && this.helper) {
+      this.helper.worker.terminate();
+      this.helper = null;
+      for (const reject of this.helperJobs) reject(new RunCancelledError());
+      this.helperJobs.clear();
     }
-    this.studyWorkers.clear();
   }
 
   dispose(): void {
     this.cancel();
     this.chunks.dispose();
+    this.helper?.worker.terminate();
+    this.helper = null;
   }
 
   /** The pool as a runSheet environment. */
@@ -87,5 +88,16 @@ export class SimulationPool {
       runSimulation: (plan, onProgress) => this.simulate(plan, onProgress),
       runStudy: (plan, options) => this.runStudy(plan, options),
     };
+  }
+
+  private onHelper<T>(job: (api: Comlink.Remote<SimulationWorkerApi>) => Promise<T>): Promise<T> {
+    this.helper ??= createBrowserWorker();
+    const { api } = this.helper;
+    return new Promise<T>((resolve, reject) => {
+      this.helperJobs.add(reject);
+      job(api)
+        .then(resolve, reject)
+        .finally(() => this.helperJobs.delete(reject));
+    });
   }
 }

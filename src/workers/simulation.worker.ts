@@ -1,14 +1,19 @@
 /// <reference lib="webworker" />
 import * as Comlink from 'comlink';
 import type { SimulationPlan } from '@shared/engine/plan';
-import type { ChunkResult, StudyOptions, StudyResult } from '@shared/engine/result';
+import type { ChunkResult, SimulationResult, StudyOptions, StudyResult } from '@shared/engine/result';
+import { mergeChunks as engineMergeChunks } from '@shared/engine/merge';
 import { runStudy as engineRunStudy } from '@shared/engine/study';
 import { chunkTransferables, runChunkTask, type ChunkCancel } from '@shared/run/chunk-task';
+import { collectTransferables } from '@shared/run/transferables';
 
 /**
  * The simulation worker: the only place in the browser where the engine (and its generated code)
- * runs. The main thread talks to it through comlink; chunk buffers are transferred, not copied.
+ * runs. The main thread talks to it through comlink; buffers are transferred, not copied. Merging
+ * happens here too (quantiles at every saved time mean sorting all paths), so the page stays
+ * responsive.
  */
+
 /** A callback that arrived through Comlink.proxy holds a message channel open until released. */
 function releaseCallback(callback: unknown): void {
   const remote = callback as Partial<Record<typeof Comlink.releaseProxy, () => void>> | undefined;
@@ -29,6 +34,11 @@ const api = {
     } finally {
       releaseCallback(onProgress);
     }
+  },
+
+  mergeChunks(plan: SimulationPlan, chunks: ChunkResult[]): SimulationResult {
+    const result = engineMergeChunks(plan, chunks);
+    return Comlink.transfer(result, collectTransferables(result));
   },
 
   runStudy(plan: SimulationPlan, options: StudyOptions): StudyResult {
