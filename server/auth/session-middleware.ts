@@ -6,7 +6,6 @@ import type { AuthLucia } from './lucia';
 
 declare global {
   // Express's own extension point for typed res.locals.
-  // eslint-disable-next-line @typescript-eslint/no-namespace
   namespace Express {
     interface Locals {
       user?: User;

@@ -17,6 +17,6 @@ export const versionConflict = (currentVersion: number) =>
 export const invalidDocument = (message: string, path: (string | number)[]) =>
   new AppError(400, API_ERROR_CODES.invalidDocument, message, { path });
 
-/** For a later issue: a caller who may see the sheet but lacks the role for this action. */
+/** A caller who may see the sheet but lacks the role for this action (once sheets are shared). */
 export const sheetForbidden = (needed: string) =>
   new AppError(403, API_ERROR_CODES.forbidden, `This needs the ${needed} role on the sheet.`);

@@ -13,7 +13,7 @@ import { emptySheetDocument, sheetDocumentSchema, type SheetDocument } from '@sh
 import type { Db } from '../db/client';
 import { zodIssueToBadRequest } from '../http/validate';
 import { createSheetsRepository, type SheetRecord, type SheetsRepository } from './sheets.repository';
-import { invalidDocument, sheetNotFound, versionConflict, versionNotFound } from './sheets.errors';
+import { invalidDocument, sheetForbidden, sheetNotFound, versionConflict, versionNotFound } from './sheets.errors';
 
 /** Roles on a sheet, weakest first. */
 export const SHEET_ROLES = ['viewer', 'commenter', 'editor', 'owner'] as const;
@@ -30,12 +30,13 @@ export function sheetRoleOf(sheet: Pick<SheetRecord, 'ownerId'>, user: SheetActo
 
 /**
  * The one place that decides who may do what with a sheet. A caller without any role gets 404,
- * as if the sheet did not exist.
+ * as if the sheet did not exist; one who may see it but needs a stronger role gets 403.
  */
 export function requireSheetRole(sheet: SheetRecord | null, user: SheetActor, needed: SheetRole): SheetRecord {
   if (!sheet) throw sheetNotFound();
   const role = sheetRoleOf(sheet, user);
-  if (!role || SHEET_ROLES.indexOf(role) < SHEET_ROLES.indexOf(needed)) throw sheetNotFound();
+  if (!role) throw sheetNotFound();
+  if (SHEET_ROLES.indexOf(role) < SHEET_ROLES.indexOf(needed)) throw sheetForbidden(needed);
   return sheet;
 }
 
