@@ -221,8 +221,10 @@ export const useSheetEditorStore = defineStore('sheet-editor', () => {
   }
 
   async function run(targetId: string | null): Promise<void> {
-    const doc = document.value;
-    if (running.value || !doc || readonly.value) return;
+    if (running.value || !document.value || readonly.value) return;
+    // A plain deep copy: edits made while the run goes on do not leak into it, and the plans built
+    // from it hold no reactive proxies (which cannot be posted to a worker).
+    const doc = JSON.parse(JSON.stringify(document.value)) as SheetDocument;
     const steps = planRunSteps(doc, targetId, dependencies.value);
     if (steps.length === 0) {
       runNotice.value = targetId === null ? 'Nothing to run: the sheet has no simulation, probe or study.' : 'Nothing to run for this cell.';

@@ -82,7 +82,7 @@ export interface MountedSheet {
   pinia: Pinia;
 }
 
-export async function mountSheet(path = '/sheets/s1'): Promise<MountedSheet> {
+export async function mountSheet(path = '/sheets/s1', editors: CellEditorMap = stubEditors()): Promise<MountedSheet> {
   const pinia = createPinia();
   setActivePinia(pinia);
   useSessionStore().me = USER;
@@ -97,7 +97,7 @@ export async function mountSheet(path = '/sheets/s1'): Promise<MountedSheet> {
   await router.isReady();
   const wrapper = mount(defineComponent({ render: () => h(RouterView) }), {
     attachTo: document.body,
-    global: { plugins: [pinia, router], provide: { [cellEditorsKey as symbol]: stubEditors() } },
+    global: { plugins: [pinia, router], provide: { [cellEditorsKey as symbol]: editors } },
   });
   await settle();
   return { wrapper, router, pinia };

@@ -5,7 +5,7 @@ import type { SimulationPlan } from '@shared/engine/plan';
 import type { SimulationResult } from '@shared/engine/result';
 import type { ParamsCell } from '@shared/sheet';
 import { useSheetEditorStore } from '@/stores/sheet-editor';
-import { buttonNamed, cardOf, click, mountSheet, pondSheet, settle } from './harness';
+import { buttonNamed, cardOf, click, mountSheet, pondSheet, settle, stubEditors } from './harness';
 
 const pool = vi.hoisted(() => ({
   simulate: vi.fn(),
@@ -77,9 +77,12 @@ describe('running cells', () => {
 
   it('puts a failed run on the cell that caused it, in words', async () => {
     pool.simulate.mockRejectedValue(new Error('12 of 400 paths blew up before t = 3.1'));
-    ({ wrapper } = await mountSheet());
+    // Without a simulation editor the card itself shows the error (the real editor shows it in place).
+    const { simulation: _simulationEditor, ...editors } = stubEditors();
+    ({ wrapper } = await mountSheet('/sheets/s1', editors));
     await click(buttonNamed('Run simulation cell'));
     expect(cardOf('simulation-season').querySelector('[role="alert"]')?.textContent).toContain('12 of 400 paths blew up before t = 3.1');
+    expect(useSheetEditorStore().outputs['simulation-season']).toMatchObject({ kind: 'error', message: '12 of 400 paths blew up before t = 3.1' });
   });
 
   it('marks the simulation and its probe stale after a parameter changes, and not before', async () => {
