@@ -47,8 +47,14 @@ export class SimulationPool {
   private helper: { worker: Worker; api: Comlink.Remote<SimulationWorkerApi> } | null = null;
   private readonly helperJobs = new Set<(error: unknown) => void>();
 
-  constructor(size = defaultWorkerCount()) {
-    this.chunks = new ChunkPool({ size, createWorker: chunkWorker });
+  /** `sharedMemory: false` forces cancel by terminating workers (default: detect cross-origin isolation). */
+  constructor(size = defaultWorkerCount(), options: { sharedMemory?: boolean } = {}) {
+    this.chunks = new ChunkPool({ size, createWorker: chunkWorker, sharedMemory: options.sharedMemory });
+  }
+
+  /** Whether cancel works through shared memory (true) or by replacing workers (false). */
+  get usesSharedMemory(): boolean {
+    return this.chunks.usesSharedMemory;
   }
 
   get size(): number {
