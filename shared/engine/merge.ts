@@ -1,7 +1,7 @@
 import type { SimulationPlan } from './plan';
 import type { ChunkResult, ExtinctionSummary, ProbeSeries, SavedStats, SimulationResult, BlowupSummary } from './result';
 import { planLayout } from './layout';
-import { moments, quantileSorted, sortFinite } from './statistics';
+import { moments, quantilesInPlace } from './statistics';
 import { Fnv1a64 } from './digest';
 import { meanSquareStability } from './stability';
 
@@ -29,6 +29,9 @@ function gather(chunks: ChunkResult[], pick: (chunk: ChunkResult) => Float64Arra
   return out;
 }
 
+/** Minimum, the five reported quantiles, maximum. */
+const SAVED_PROBABILITIES = [0, 0.05, 0.25, 0.5, 0.75, 0.95, 1] as const;
+
 function savedStats(values: Float64Array, paths: number, saveCount: number, scratch: Float64Array): SavedStats {
   const stats: SavedStats = {
     mean: new Float64Array(saveCount),
@@ -42,19 +45,25 @@ function savedStats(values: Float64Array, paths: number, saveCount: number, scra
     max: new Float64Array(saveCount),
     live: new Int32Array(saveCount),
   };
+  const levels = new Float64Array(SAVED_PROBABILITIES.length);
   for (let k = 0; k < saveCount; k++) {
     const column = values.subarray(k * paths, (k + 1) * paths);
     const m = moments(column);
-    const count = sortFinite(column, scratch);
+    let count = 0;
+    for (let p = 0; p < paths; p++) {
+      const value = column[p]!;
+      if (value - value === 0) scratch[count++] = value;
+    }
+    quantilesInPlace(scratch, count, SAVED_PROBABILITIES, levels);
     stats.mean[k] = m.mean;
     stats.variance[k] = m.variance;
-    stats.q05[k] = quantileSorted(scratch, count, 0.05);
-    stats.q25[k] = quantileSorted(scratch, count, 0.25);
-    stats.q50[k] = quantileSorted(scratch, count, 0.5);
-    stats.q75[k] = quantileSorted(scratch, count, 0.75);
-    stats.q95[k] = quantileSorted(scratch, count, 0.95);
-    stats.min[k] = count > 0 ? scratch[0]! : NaN;
-    stats.max[k] = count > 0 ? scratch[count - 1]! : NaN;
+    stats.min[k] = levels[0]!;
+    stats.q05[k] = levels[1]!;
+    stats.q25[k] = levels[2]!;
+    stats.q50[k] = levels[3]!;
+    stats.q75[k] = levels[4]!;
+    stats.q95[k] = levels[5]!;
+    stats.max[k] = levels[6]!;
     stats.live[k] = count;
   }
   return stats;

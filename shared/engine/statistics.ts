@@ -66,3 +66,72 @@ export function moments(values: ArrayLike<number>): Moments {
   const variance = count < 2 ? NaN : (squares - (compensation * compensation) / count) / (count - 1);
   return { count, mean, variance, fourthCentral: fourth / count };
 }
+
+/**
+ * Rearranges values[lo..hi] so that values[k] holds the k-th smallest of them, everything before
+ * it is ≤ and everything after it is ≥ (Hoare's FIND, 1961, with a median-of-three pivot).
+ * Expected linear time; no allocation.
+ */
+export function selectInPlace(values: Float64Array, lo: number, hi: number, k: number): void {
+  let left = lo;
+  let right = hi;
+  while (right > left) {
+    const middle = (left + right) >>> 1;
+    // Median of three as pivot, which also guards sorted input.
+    let a = values[left]!;
+    let b = values[middle]!;
+    let c = values[right]!;
+    if (a > b) [a, b] = [b, a];
+    if (b > c) [b, c] = [c, b];
+    if (a > b) [a, b] = [b, a];
+    const pivot = b;
+    let i = left;
+    let j = right;
+    while (i <= j) {
+      while (values[i]! < pivot) i++;
+      while (values[j]! > pivot) j--;
+      if (i <= j) {
+        const swap = values[i]!;
+        values[i] = values[j]!;
+        values[j] = swap;
+        i++;
+        j--;
+      }
+    }
+    if (k <= j) right = j;
+    else if (k >= i) left = i;
+    else return;
+  }
+}
+
+/**
+ * Type-7 quantiles (see quantileSorted) of the first `count` entries of `values`, which must be
+ * finite, without a full sort: selects the needed order statistics in increasing order, each
+ * search confined to the part not yet fixed. Reorders `values`. `probabilities` ascending.
+ */
+export function quantilesInPlace(values: Float64Array, count: number, probabilities: readonly number[], out: Float64Array): void {
+  if (count === 0) {
+    out.fill(NaN, 0, probabilities.length);
+    return;
+  }
+  let fixed = 0;
+  const select = (rank: number): number => {
+    if (rank >= fixed) {
+      selectInPlace(values, fixed, count - 1, rank);
+      fixed = rank;
+    }
+    return values[rank]!;
+  };
+  probabilities.forEach((probability, index) => {
+    const position = (count - 1) * probability;
+    const below = Math.floor(position);
+    const lower = select(below);
+    // After selecting `below`, the next order statistic is the minimum of what lies above it.
+    let upper = lower;
+    if (below + 1 < count && position > below) {
+      upper = Infinity;
+      for (let i = below + 1; i < count; i++) if (values[i]! < upper) upper = values[i]!;
+    }
+    out[index] = lower + (position - below) * (upper - lower);
+  });
+}
