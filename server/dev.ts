@@ -26,17 +26,21 @@ async function main() {
     stdio: 'inherit',
     env: { ...process.env, API_PORT: String(env.API_PORT) },
   });
-  const stop = async () => {
-    if (vite.exitCode === null) {
-      const exited = new Promise<void>((resolve) => vite.once('exit', () => resolve()));
-      vite.kill('SIGTERM');
-      await exited;
-    }
-    await api.close();
-    await services.stop();
-  };
-  vite.once('exit', (code) => {
-    if (code !== null && code !== 0) log(`Vite exited with code ${code}`);
+  const viteExited = new Promise<number | null>((resolve) => vite.once('exit', (code) => resolve(code)));
+  // Ctrl-C reaches Vite and us at once, so either side may begin the shutdown; it runs once.
+  let stopping: Promise<void> | null = null;
+  const stop = () =>
+    (stopping ??= (async () => {
+      if (vite.exitCode === null && vite.signalCode === null) vite.kill('SIGTERM');
+      await viteExited;
+      await api.close();
+      await services.stop();
+    })());
+  // Without Vite there is nothing to develop against: stop the rest too.
+  void viteExited.then((code) => {
+    if (stopping) return;
+    log(`Vite exited (code ${code ?? 'none'}); stopping`);
+    stop().finally(() => process.exit(code ?? 1));
   });
   onShutdown(stop, log);
 }

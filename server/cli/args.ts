@@ -46,14 +46,18 @@ function positiveNumber(flag: string, text: string | undefined, integer: boolean
 
 export function parseArguments(argv: readonly string[]): CliArguments {
   const [command, ...rest] = argv;
-  if (command === undefined || command === 'help' || command === '--help' || command === '-h') return { command: 'help' };
+  if (command === undefined || command === 'help' || command === '--help' || command === '-h')
+    return { command: 'help' };
   if (command !== 'run') throw new UsageError(`unknown command "${command}"; the only command is "run"`);
   let file: string | undefined;
   let workers: number | null = null;
   let pathsScale: number | null = null;
   for (let i = 0; i < rest.length; i++) {
     const arg = rest[i]!;
-    const [flag, inline] = arg.startsWith('--') && arg.includes('=') ? [arg.slice(0, arg.indexOf('=')), arg.slice(arg.indexOf('=') + 1)] : [arg, undefined];
+    const [flag, inline] =
+      arg.startsWith('--') && arg.includes('=')
+        ? [arg.slice(0, arg.indexOf('=')), arg.slice(arg.indexOf('=') + 1)]
+        : [arg, undefined];
     if (flag === '--workers') {
       workers = positiveNumber('--workers', inline ?? rest[++i], true);
       if (workers > 256) throw new UsageError('--workers is at most 256');

@@ -4,7 +4,14 @@ import type { ChunkCancel } from '../../shared/run/chunk-task';
 
 /** Messages between the runner and its worker threads (structured clone; buffers transferred). */
 export type ToWorker =
-  | { type: 'chunk'; id: number; plan: SimulationPlan; firstPath: number; pathCount: number; cancel: ChunkCancel | null }
+  | {
+      type: 'chunk';
+      id: number;
+      plan: SimulationPlan;
+      firstPath: number;
+      pathCount: number;
+      cancel: ChunkCancel | null;
+    }
   | { type: 'study'; id: number; plan: SimulationPlan; options: StudyOptions };
 
 export type FromWorker =

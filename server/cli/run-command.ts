@@ -22,12 +22,21 @@ export async function runCommand(args: RunArguments): Promise<CommandOutcome> {
   try {
     text = await readFile(args.file, 'utf8');
   } catch (error) {
-    const reason = (error as NodeJS.ErrnoException).code === 'ENOENT' ? 'no such file' : error instanceof Error ? error.message : String(error);
+    const reason =
+      (error as NodeJS.ErrnoException).code === 'ENOENT'
+        ? 'no such file'
+        : error instanceof Error
+          ? error.message
+          : String(error);
     return { exitCode: EXIT_USAGE, stdout: '', stderr: [`cannot read ${args.file}: ${reason}`] };
   }
   const validation = validateSheetText(text);
   if (!validation.ok) {
-    return { exitCode: EXIT_INVALID, stdout: '', stderr: [`${args.file} is not a valid sheet:`, ...validation.problems.map((p) => `  ${p}`)] };
+    return {
+      exitCode: EXIT_INVALID,
+      stdout: '',
+      stderr: [`${args.file} is not a valid sheet:`, ...validation.problems.map((p) => `  ${p}`)],
+    };
   }
   const doc = args.pathsScale === null ? validation.doc : scaleSheetPaths(validation.doc, args.pathsScale);
   const threads = createThreadPool(args.workers ?? defaultThreadCount());

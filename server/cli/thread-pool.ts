@@ -45,7 +45,9 @@ export class SimulationThread {
       else entry.resolve(message);
     });
     this.worker.on('error', (error) => this.failAll(error));
-    this.worker.on('exit', (code) => this.failAll(new Error(`a simulation thread stopped (exit code ${code})`)));
+    this.worker.on('exit', (code) =>
+      this.failAll(new Error(`a simulation thread stopped (exit code ${code})`)),
+    );
   }
 
   private failAll(error: Error): void {
@@ -92,7 +94,13 @@ function threadChunkWorker(cancelFlag: Int32Array | null): ChunkWorker<Simulatio
   const thread = new SimulationThread();
   return {
     simulate: (job) =>
-      thread.simulateChunk(job.plan, job.range.firstPath, job.range.pathCount, cancelFlag ? { flag: cancelFlag, epoch: job.epoch } : null, job.onPathsDone),
+      thread.simulateChunk(
+        job.plan,
+        job.range.firstPath,
+        job.range.pathCount,
+        cancelFlag ? { flag: cancelFlag, epoch: job.epoch } : null,
+        job.onPathsDone,
+      ),
     terminate: () => void thread.terminate(),
   };
 }
@@ -106,7 +114,11 @@ export interface ThreadPool {
 
 /** A pool of `size` threads; studies run one at a time on an extra thread of their own. */
 export function createThreadPool(size = defaultThreadCount()): ThreadPool {
-  const pool = new ChunkPool<SimulationPlan, ChunkResult>({ size, createWorker: threadChunkWorker, sharedMemory: true });
+  const pool = new ChunkPool<SimulationPlan, ChunkResult>({
+    size,
+    createWorker: threadChunkWorker,
+    sharedMemory: true,
+  });
   let studyThread: SimulationThread | null = null;
   const study = (plan: SimulationPlan, options: StudyOptions) => {
     studyThread ??= new SimulationThread();

@@ -14,8 +14,12 @@ function send(message: FromWorker, transfer: ArrayBuffer[] = []): void {
 port.on('message', (message: ToWorker) => {
   try {
     if (message.type === 'chunk') {
-      const chunk = runChunkTask(message.plan, message.firstPath, message.pathCount, message.cancel, (pathsDone) =>
-        send({ type: 'progress', id: message.id, pathsDone }),
+      const chunk = runChunkTask(
+        message.plan,
+        message.firstPath,
+        message.pathCount,
+        message.cancel,
+        (pathsDone) => send({ type: 'progress', id: message.id, pathsDone }),
       );
       send({ type: 'chunk-done', id: message.id, chunk }, chunkTransferables(chunk));
     } else {

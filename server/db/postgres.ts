@@ -67,10 +67,14 @@ export async function ensurePostgres(options: EnsurePostgresOptions): Promise<Lo
       },
     );
   }
-  await createDatabaseIfMissing(options, socketDir, exec);
+  // A server that was already running may listen elsewhere; postmaster.pid says where.
+  const running = await readPostmasterPid(dataDir);
+  const port = running?.port ?? options.port;
+  if (port !== options.port) log(`PostgreSQL for ${dataDir} was already running on port ${port}; using it`);
+  await createDatabaseIfMissing({ ...options, port }, running?.socketDir ?? socketDir, exec);
 
   return {
-    url: `postgres://${SUPERUSER}@127.0.0.1:${options.port}/${options.database}`,
+    url: `postgres://${SUPERUSER}@127.0.0.1:${port}/${options.database}`,
     async stop() {
       if (startedHere && (await isRunning(dataDir, exec))) await exec('pg_ctl', ['stop', '-m', 'fast', '-w', '-D', dataDir]);
     },
@@ -172,6 +176,16 @@ async function removeStalePid(dataDir: string, exec: Exec): Promise<void> {
   const pid = Number(content.split('\n')[0]);
   if (Number.isInteger(pid) && pid > 0 && isAlive(pid) && (await isRunning(dataDir, exec))) return;
   await rm(pidFile, { force: true });
+}
+
+/** postmaster.pid: line 4 is the port, line 5 the socket directory (PostgreSQL's pidfile.h). */
+async function readPostmasterPid(dataDir: string): Promise<{ port: number; socketDir: string } | null> {
+  const content = await readFile(path.join(dataDir, 'postmaster.pid'), 'utf8').catch(() => null);
+  if (content === null) return null;
+  const lines = content.split('\n');
+  const port = Number(lines[3]);
+  const socketDir = lines[4]?.trim();
+  return Number.isInteger(port) && port > 0 && socketDir ? { port, socketDir } : null;
 }
 
 function isAlive(pid: number): boolean {
