@@ -110,8 +110,17 @@ function watchUpdates(plan: SimulationPlan, time: string): string {
 }
 
 /**
+ * Paths at least this long also poll ctx.shouldStop every STOP_CHECK_MASK + 1 steps (a few ms of
+ * work), so a cancel lands within 200 ms even when one path is a long batch of work.
+ */
+const LONG_PATH_STEPS = 1 << 17;
+const STOP_CHECK_MASK = (1 << 16) - 1;
+
+/**
  * Source of `kernel(ctx)`: simulates paths ctx.pStart … ctx.pEnd − 1 of a chunk (see
- * KernelContext in kernel.ts for what ctx holds) and writes the chunk's arrays.
+ * KernelContext in kernel.ts for what ctx holds), writes the chunk's arrays and returns ctx.pEnd,
+ * or the index of the path it was working on when a long path was stopped (that path and the
+ * later ones are not done).
  */
 export function buildKernelSource(plan: SimulationPlan, layout: PlanLayout): string {
   const d = layout.stateCount;
@@ -130,7 +139,7 @@ const kn = ctx.kn, wn = ctx.wn, gen = ctx.gen, normalSlowPath = ctx.normalSlowPa
 const saved = ctx.saved, probeValues = ctx.probeValues, runningMax = ctx.runningMax, runningMin = ctx.runningMin;
 const firstPassage = ctx.firstPassage, absorptionTime = ctx.absorptionTime, blowupTime = ctx.blowupTime;
 const saveSteps = ctx.saveSteps, probeSteps = ctx.probeStepsSorted, probeOrder = ctx.probeOrder;
-const seed = ctx.seed, firstPath = ctx.firstPath, pathCount = ctx.pathCount, pEnd = ctx.pEnd;
+const seed = ctx.seed, firstPath = ctx.firstPath, pathCount = ctx.pathCount, pEnd = ctx.pEnd, shouldStop = ctx.shouldStop;
 const t0 = ${numberLiteral(plan.t0)}, h = ${numberLiteral(layout.h)}, steps = ${plan.steps};
 const sqh = Math.sqrt(h), halfInvSqh = 0.5 / sqh;
 let x0 = 0, x1 = 0, x2 = 0, x3 = 0, r = 0, xt = 0, iz = 0;
@@ -153,6 +162,7 @@ for (let p = ctx.pStart; p < pEnd; p++) {
     ${p.noiseDraws}
     ${p.stepAndBoundaries}
     if (${p.blowupTest}) { blown = true; break; }
+    ${plan.steps >= LONG_PATH_STEPS ? `if ((n & ${STOP_CHECK_MASK}) === 0 && shouldStop()) return p;` : ''}
     ${running}
     ${watchUpdates(plan, END_OF_STEP)}
     if (n === nextSave) { do { ${save} k++; } while (saveSteps[k] === n); nextSave = saveSteps[k]; }
@@ -169,6 +179,7 @@ for (let p = ctx.pStart; p < pEnd; p++) {
   ${plan.watches.map((_, w) => `firstPassage[${w} * pathCount + p] = fp${w};`).join(' ')}
   ${states.map((i) => `absorptionTime[${i} * pathCount + p] = ${absorbing.includes(i) ? `abT${i}` : 'NaN'};`).join(' ')}
 }
+return pEnd;
 `;
 }
 

@@ -28,9 +28,12 @@ export interface KernelContext {
   pathCount: number;
   pStart: number;
   pEnd: number;
+  /** Polled inside very long paths only (see codegen.ts). */
+  shouldStop: () => boolean;
 }
 
-export type Kernel = (ctx: KernelContext) => void;
+/** Returns the index after the last completed path. */
+export type Kernel = (ctx: KernelContext) => number;
 
 export interface IncrementContext {
   increments: Float64Array;

@@ -82,6 +82,7 @@ export function simulateChunk(plan: SimulationPlan, firstPath: number, pathCount
     pathCount,
     pStart: 0,
     pEnd: 0,
+    shouldStop: hooks?.shouldStop === undefined ? () => false : () => hooks.shouldStop!() === true,
   };
   const checksHooks = hooks?.shouldStop !== undefined || hooks?.onProgress !== undefined;
   let batch = checksHooks ? Math.max(1, Math.floor(FIRST_BATCH_PATH_STEPS / plan.steps)) : pathCount;
@@ -93,9 +94,13 @@ export function simulateChunk(plan: SimulationPlan, firstPath: number, pathCount
     ctx.pStart = ctx.pEnd;
     ctx.pEnd = Math.min(pathCount, ctx.pStart + batch);
     const started = now();
-    kernel(ctx);
+    const reached = kernel(ctx);
     const elapsed = now() - started;
-    chunk.pathsDone = ctx.pEnd;
+    chunk.pathsDone = reached;
+    if (reached < ctx.pEnd) {
+      chunk.cancelled = true;
+      break;
+    }
     hooks?.onProgress?.(chunk.pathsDone);
     if (checksHooks) {
       // Resize the next batch toward the target time, changing by at most 4× at a time.

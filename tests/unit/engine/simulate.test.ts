@@ -327,6 +327,19 @@ describe('progress and cancel', () => {
   });
 });
 
+describe('cancel inside long paths', () => {
+  it('polls shouldStop within a path of many steps and drops the unfinished path', () => {
+    const plan = makePlan({ drift: ['-s0'], diffusion: [['1']], initial: [0], t1: 1, steps: 300_000, paths: 3, saveCount: 3 });
+    let polls = 0;
+    const chunk = simulateChunk(plan, 0, plan.paths, { shouldStop: () => ++polls > 2 });
+    // One poll before the first batch, then every 65 536 steps inside the path: the third poll
+    // (step 131 072 of path 0) stops it, so no path is complete.
+    expect(polls).toBe(3);
+    expect(chunk.cancelled).toBe(true);
+    expect(chunk.pathsDone).toBe(0);
+  });
+});
+
 describe('plan checks', () => {
   it('rejects Milstein for non-diagonal noise and names the alternative', () => {
     const plan = makePlan({ drift: ['0', '0'], diffusion: [['1', 's1'], ['0', '1']], initial: [0, 0], t1: 1, steps: 10, paths: 10, method: 'milstein' });
