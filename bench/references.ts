@@ -40,10 +40,20 @@ async function commandWorks(command: string, args: string[]): Promise<boolean> {
   }
 }
 
-function parseReport(stdout: string): { seconds: number; stepsPerSec: number; mean: number; variance: number } {
+function parseReport(stdout: string): {
+  seconds: number;
+  stepsPerSec: number;
+  mean: number;
+  variance: number;
+} {
   const line = stdout.trim().split('\n').pop() ?? '';
   const report = JSON.parse(line) as { seconds: number; stepsPerSec: number; mean: number; var: number };
-  return { seconds: report.seconds, stepsPerSec: report.stepsPerSec, mean: report.mean, variance: report.var };
+  return {
+    seconds: report.seconds,
+    stepsPerSec: report.stepsPerSec,
+    mean: report.mean,
+    variance: report.var,
+  };
 }
 
 export async function prepareReferences(): Promise<ReferenceSetup> {
@@ -67,9 +77,15 @@ export async function prepareReferences(): Promise<ReferenceSetup> {
       const binary = join(buildDir, file.replace(/\.c$/, ''));
       try {
         await run('gcc', ['-O3', '-march=native', '-o', binary, source, '-lm'], { timeout: 120_000 });
-        references.push({ name, measure: async () => parseReport((await run(binary, args, { timeout: 600_000 })).stdout) });
+        references.push({
+          name,
+          measure: async () => parseReport((await run(binary, args, { timeout: 600_000 })).stdout),
+        });
       } catch (error) {
-        skipped.push({ name, reason: `gcc failed: ${error instanceof Error ? error.message : String(error)}` });
+        skipped.push({
+          name,
+          reason: `gcc failed: ${error instanceof Error ? error.message : String(error)}`,
+        });
       }
     }
   }
@@ -80,7 +96,11 @@ export async function prepareReferences(): Promise<ReferenceSetup> {
   } else if (!(await commandWorks('python3', ['-c', 'import numpy']))) {
     skipped.push({ name: 'ref-numpy', reason: 'python3 with numpy is not available' });
   } else {
-    references.push({ name: 'ref-numpy', measure: async () => parseReport((await run('python3', [script, ...args], { timeout: 600_000 })).stdout) });
+    references.push({
+      name: 'ref-numpy',
+      measure: async () =>
+        parseReport((await run('python3', [script, ...args], { timeout: 600_000 })).stdout),
+    });
   }
 
   return { references, skipped, cleanup: () => rmSync(buildDir, { recursive: true, force: true }) };

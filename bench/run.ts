@@ -29,11 +29,13 @@ function parseOptions(argv: string[]): Options {
     const [flag, inline] = argv[i]!.includes('=') ? argv[i]!.split('=', 2) : [argv[i]!, undefined];
     const value = inline ?? argv[++i];
     if (flag === '--case') {
-      if (!CASE_NAMES.includes(value as CaseName)) throw new Error(`unknown case "${value}"; cases: ${CASE_NAMES.join(', ')}`);
+      if (!CASE_NAMES.includes(value as CaseName))
+        throw new Error(`unknown case "${value}"; cases: ${CASE_NAMES.join(', ')}`);
       cases.push(value as CaseName);
     } else if (flag === '--rounds' || flag === '--threads') {
       const n = Number(value);
-      if (!Number.isInteger(n) || n < 1) throw new Error(`${flag} needs a positive whole number, got "${value}"`);
+      if (!Number.isInteger(n) || n < 1)
+        throw new Error(`${flag} needs a positive whole number, got "${value}"`);
       if (flag === '--rounds') rounds = n;
       else threads = n;
     } else {
@@ -99,7 +101,8 @@ async function main(): Promise<void> {
     const runners: CaseRunner[] = [];
     for (const name of options.cases) {
       if (name === 'ou-scalar') runners.push(inProcessCase(name, planOf(benchSheets.ou())));
-      if (name === 'ou-scalar-pool') runners.push(await poolCase(name, planOf(benchSheets.ou()), threadPool!));
+      if (name === 'ou-scalar-pool')
+        runners.push(await poolCase(name, planOf(benchSheets.ou()), threadPool!));
       if (name === 'grazing-2d') runners.push(inProcessCase(name, planOf(benchSheets.grazing())));
       if (name === 'gbm-milstein') runners.push(inProcessCase(name, planOf(benchSheets.gbm())));
     }
@@ -113,13 +116,29 @@ async function main(): Promise<void> {
 
     const medians = new Map<string, Measurement>();
     for (const [name, list] of samples) {
-      medians.set(name, { seconds: median(list.map((m) => m.seconds)), stepsPerSec: median(list.map((m) => m.stepsPerSec)) });
+      medians.set(name, {
+        seconds: median(list.map((m) => m.seconds)),
+        stepsPerSec: median(list.map((m) => m.stepsPerSec)),
+      });
     }
     const line = (name: string, paths: number, steps: number, extra: Record<string, unknown> = {}) => {
       const m = medians.get(name)!;
-      print({ case: name, paths, steps, seconds: Number(m.seconds.toFixed(4)), stepsPerSec: Number(m.stepsPerSec.toPrecision(4)), ...extra });
+      print({
+        case: name,
+        paths,
+        steps,
+        seconds: Number(m.seconds.toFixed(4)),
+        stepsPerSec: Number(m.stepsPerSec.toPrecision(4)),
+        ...extra,
+      });
     };
-    for (const runner of runners) line(runner.name, runner.paths, runner.steps, runner.name === 'ou-scalar-pool' ? { threads: options.threads } : {});
+    for (const runner of runners)
+      line(
+        runner.name,
+        runner.paths,
+        runner.steps,
+        runner.name === 'ou-scalar-pool' ? { threads: options.threads } : {},
+      );
     for (const reference of references) line(reference.name, benchOuSize().paths, benchOuSize().steps);
     if (wantsOu) {
       const engine = medians.get('ou-scalar')?.stepsPerSec;

@@ -31,7 +31,9 @@ export interface ChunkWorker<TPlan, TChunk> {
 }
 
 /** `cancelEpoch` is null when shared memory is not available. */
-export type ChunkWorkerFactory<TPlan, TChunk> = (cancelEpoch: Int32Array | null) => ChunkWorker<TPlan, TChunk>;
+export type ChunkWorkerFactory<TPlan, TChunk> = (
+  cancelEpoch: Int32Array | null,
+) => ChunkWorker<TPlan, TChunk>;
 
 export interface RunProgress {
   pathsDone: number;
@@ -108,7 +110,8 @@ export class ChunkPool<TPlan extends PlanSize, TChunk> {
     this.createWorker = options.createWorker;
     this.progressIntervalMs = options.progressIntervalMs ?? 200;
     this.now = options.now ?? (() => performance.now());
-    for (let i = 0; i < options.size; i++) this.slots.push({ worker: this.createWorker(this.cancelEpoch), busyWith: null });
+    for (let i = 0; i < options.size; i++)
+      this.slots.push({ worker: this.createWorker(this.cancelEpoch), busyWith: null });
   }
 
   get size(): number {

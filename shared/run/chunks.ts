@@ -18,7 +18,8 @@ export const TARGET_CHUNKS = 32;
 export const MAX_CHUNK_PATH_STEPS = 4_000_000;
 
 export function chunkPathCount(paths: number, steps: number): number {
-  if (!Number.isInteger(paths) || paths < 1) throw new RangeError(`paths must be a positive integer, got ${paths}`);
+  if (!Number.isInteger(paths) || paths < 1)
+    throw new RangeError(`paths must be a positive integer, got ${paths}`);
   if (!Number.isFinite(steps) || steps < 1) throw new RangeError(`steps must be at least 1, got ${steps}`);
   const bySpread = Math.ceil(paths / TARGET_CHUNKS);
   const byWork = Math.floor(MAX_CHUNK_PATH_STEPS / steps);

@@ -23,7 +23,12 @@ export function inProcessEnvironment(): SheetRunEnvironment {
         chunks.push(runChunkTask(plan, range.firstPath, range.pathCount, null));
         pathsDone += range.pathCount;
         const elapsedMs = performance.now() - started;
-        onProgress?.({ pathsDone, paths: plan.paths, elapsedMs, etaMs: (elapsedMs * (plan.paths - pathsDone)) / pathsDone });
+        onProgress?.({
+          pathsDone,
+          paths: plan.paths,
+          elapsedMs,
+          etaMs: (elapsedMs * (plan.paths - pathsDone)) / pathsDone,
+        });
       }
       return mergeChunks(plan, chunks);
     },

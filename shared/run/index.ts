@@ -11,7 +11,14 @@ export {
   type RunProgress,
 } from './chunk-pool';
 export { runChunkTask, chunkTransferables, type ChunkCancel } from './chunk-task';
-export { runSheet, isNumericalCell, isCancellation, type SheetRunEnvironment, type RunSheetHooks, type NumericalCell } from './run-sheet';
+export {
+  runSheet,
+  isNumericalCell,
+  isCancellation,
+  type SheetRunEnvironment,
+  type RunSheetHooks,
+  type NumericalCell,
+} from './run-sheet';
 export { inProcessEnvironment, poolEnvironment } from './environments';
 export { scaleSheetPaths } from './scale';
 export { collectTransferables } from './transferables';

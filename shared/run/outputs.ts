@@ -1,5 +1,12 @@
 import type { Method, ProbeCell, StudyCell } from '../sheet/document';
-import type { ProbeEstimate, ProbeRequest, SimulationResult, StudyLevel, StudyOptions, StudyResult } from '../engine/result';
+import type {
+  ProbeEstimate,
+  ProbeRequest,
+  SimulationResult,
+  StudyLevel,
+  StudyOptions,
+  StudyResult,
+} from '../engine/result';
 
 /**
  * Per-cell outputs of a sheet run: small, plain JSON (no typed arrays), what the command-line
@@ -149,7 +156,10 @@ function stateIndex(stateNames: readonly string[], name: string, cellId: string)
 
 /** The engine's view of a probe cell: states by index rather than by name. */
 export function probeRequest(cell: ProbeCell, stateNames: readonly string[]): ProbeRequest {
-  const request: ProbeRequest = { quantity: cell.quantity, state: stateIndex(stateNames, cell.state, cell.id) };
+  const request: ProbeRequest = {
+    quantity: cell.quantity,
+    state: stateIndex(stateNames, cell.state, cell.id),
+  };
   if (cell.time !== undefined) request.time = cell.time;
   if (cell.level !== undefined) request.level = cell.level;
   if (cell.probability !== undefined) request.probability = cell.probability;

@@ -22,7 +22,10 @@ import {
  * come back in document order.
  */
 export interface SheetRunEnvironment {
-  runSimulation(plan: SimulationPlan, onProgress?: (progress: RunProgress) => void): Promise<SimulationResult>;
+  runSimulation(
+    plan: SimulationPlan,
+    onProgress?: (progress: RunProgress) => void,
+  ): Promise<SimulationResult>;
   runStudy(plan: SimulationPlan, options: StudyOptions): Promise<StudyResult>;
 }
 
@@ -50,7 +53,11 @@ function messageOf(error: unknown): string {
   return error instanceof Error ? error.message : String(error);
 }
 
-export async function runSheet(doc: SheetDocument, env: SheetRunEnvironment, hooks: RunSheetHooks = {}): Promise<SheetRunOutput> {
+export async function runSheet(
+  doc: SheetDocument,
+  env: SheetRunEnvironment,
+  hooks: RunSheetHooks = {},
+): Promise<SheetRunOutput> {
   const plans = new Map<string, SimulationPlan>();
   const simulations = new Map<string, Promise<SimulationResult>>();
 
@@ -68,7 +75,9 @@ export async function runSheet(doc: SheetDocument, env: SheetRunEnvironment, hoo
     if (!pending) {
       pending = (async () => {
         const plan = planFor(simulationId);
-        const result = await env.runSimulation(plan, (progress) => hooks.onProgress?.(simulationId, progress));
+        const result = await env.runSimulation(plan, (progress) =>
+          hooks.onProgress?.(simulationId, progress),
+        );
         hooks.onSimulationResult?.(simulationId, result, plan);
         return result;
       })();

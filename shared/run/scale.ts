@@ -8,12 +8,14 @@ import type { SheetDocument } from '../sheet/document';
 export const MIN_STUDY_PATHS = 10;
 
 export function scaleSheetPaths(doc: SheetDocument, factor: number): SheetDocument {
-  if (!Number.isFinite(factor) || factor <= 0) throw new RangeError(`the path scale must be a positive number, got ${factor}`);
+  if (!Number.isFinite(factor) || factor <= 0)
+    throw new RangeError(`the path scale must be a positive number, got ${factor}`);
   return {
     ...doc,
     cells: doc.cells.map((cell) => {
       if (cell.kind === 'simulation') return { ...cell, paths: Math.max(1, Math.round(cell.paths * factor)) };
-      if (cell.kind === 'study') return { ...cell, paths: Math.max(MIN_STUDY_PATHS, Math.round(cell.paths * factor)) };
+      if (cell.kind === 'study')
+        return { ...cell, paths: Math.max(MIN_STUDY_PATHS, Math.round(cell.paths * factor)) };
       return cell;
     }),
   };

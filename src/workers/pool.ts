@@ -18,7 +18,10 @@ export function defaultWorkerCount(): number {
 }
 
 function createBrowserWorker(): { worker: Worker; api: Comlink.Remote<SimulationWorkerApi> } {
-  const worker = new Worker(new URL('./simulation.worker.ts', import.meta.url), { type: 'module', name: 'meander-simulation' });
+  const worker = new Worker(new URL('./simulation.worker.ts', import.meta.url), {
+    type: 'module',
+    name: 'meander-simulation',
+  });
   return { worker, api: Comlink.wrap<SimulationWorkerApi>(worker) };
 }
 
@@ -61,9 +64,14 @@ export class SimulationPool {
     return this.chunks.size;
   }
 
-  async simulate(plan: SimulationPlan, onProgress?: (progress: RunProgress) => void): Promise<SimulationResult> {
+  async simulate(
+    plan: SimulationPlan,
+    onProgress?: (progress: RunProgress) => void,
+  ): Promise<SimulationResult> {
     const chunks = await this.chunks.run(plan, onProgress);
-    return this.onHelper((api) => api.mergeChunks(plan, Comlink.transfer(chunks, collectTransferables(chunks))));
+    return this.onHelper((api) =>
+      api.mergeChunks(plan, Comlink.transfer(chunks, collectTransferables(chunks))),
+    );
   }
 
   runStudy(plan: SimulationPlan, options: StudyOptions): Promise<StudyResult> {

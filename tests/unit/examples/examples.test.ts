@@ -48,7 +48,8 @@ describe('example sheets', () => {
       it('uses note, params, model, simulation, chart and probe cells, with documented parameters', () => {
         const doc = sheetDocumentSchema.parse(raw);
         const kinds = new Set(doc.cells.map((cell) => cell.kind));
-        for (const kind of ['note', 'params', 'model', 'simulation', 'chart', 'probe'] as const) expect(kinds).toContain(kind);
+        for (const kind of ['note', 'params', 'model', 'simulation', 'chart', 'probe'] as const)
+          expect(kinds).toContain(kind);
         const ids = doc.cells.map((cell) => cell.id);
         expect(new Set(ids).size).toBe(ids.length);
         for (const param of cellsOf(doc.cells, 'params').flatMap((cell) => cell.params)) {
@@ -66,7 +67,9 @@ describe('example sheets', () => {
 
       it('avoids the parameter sets reserved for the benchmark and for well-known textbook demos', () => {
         const doc = sheetDocumentSchema.parse(raw);
-        const values = new Set(cellsOf(doc.cells, 'params').flatMap((cell) => cell.params.map((p) => p.value)));
+        const values = new Set(
+          cellsOf(doc.cells, 'params').flatMap((cell) => cell.params.map((p) => p.value)),
+        );
         expect(values.has(1.1) && values.has(0.8) && values.has(0.3)).toBe(false);
         expect(values.has(2) && values.has(1)).toBe(false);
       });

@@ -9,7 +9,11 @@ describe('runner arguments', () => {
       workers: 3,
       pathsScale: 0.25,
     });
-    expect(parseArguments(['run', '--workers=1', 'a.json'])).toMatchObject({ file: 'a.json', workers: 1, pathsScale: null });
+    expect(parseArguments(['run', '--workers=1', 'a.json'])).toMatchObject({
+      file: 'a.json',
+      workers: 1,
+      pathsScale: null,
+    });
   });
 
   it('treats no command and --help as a request for help', () => {

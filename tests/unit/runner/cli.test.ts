@@ -19,7 +19,9 @@ interface CliRun {
 
 function runCli(args: string[]): Promise<CliRun> {
   return new Promise((resolve, reject) => {
-    const child = spawn(process.execPath, ['node_modules/tsx/dist/cli.mjs', 'server/cli.ts', ...args], { cwd: repoRoot });
+    const child = spawn(process.execPath, ['node_modules/tsx/dist/cli.mjs', 'server/cli.ts', ...args], {
+      cwd: repoRoot,
+    });
     let stdout = '';
     let stderr = '';
     child.stdout.on('data', (chunk: Buffer) => (stdout += chunk.toString()));
@@ -30,7 +32,15 @@ function runCli(args: string[]): Promise<CliRun> {
 }
 
 const nullableNumber = z.number().nullable();
-const quantiles = z.object({ '5': nullableNumber, '25': nullableNumber, '50': nullableNumber, '75': nullableNumber, '95': nullableNumber }).strict();
+const quantiles = z
+  .object({
+    '5': nullableNumber,
+    '25': nullableNumber,
+    '50': nullableNumber,
+    '75': nullableNumber,
+    '95': nullableNumber,
+  })
+  .strict();
 const simulationOutput = z
   .object({
     id: z.string(),
@@ -38,7 +48,10 @@ const simulationOutput = z
     method: z.enum(['euler-maruyama', 'milstein', 'heun']),
     paths: z.number().int().positive(),
     steps: z.number().int().positive(),
-    final: z.record(z.string(), z.object({ mean: nullableNumber, variance: nullableNumber, quantiles }).strict()),
+    final: z.record(
+      z.string(),
+      z.object({ mean: nullableNumber, variance: nullableNumber, quantiles }).strict(),
+    ),
     blowups: z.number().int().min(0),
     digest: z.string().regex(/^[0-9a-f]{16}$/),
   })
@@ -55,7 +68,14 @@ const probeOutput = z
   })
   .strict();
 const studyLevel = z
-  .object({ steps: z.number().int(), h: z.number(), strongError: nullableNumber, strongSE: nullableNumber, weakError: nullableNumber, weakSE: nullableNumber })
+  .object({
+    steps: z.number().int(),
+    h: z.number(),
+    strongError: nullableNumber,
+    strongSE: nullableNumber,
+    weakError: nullableNumber,
+    weakSE: nullableNumber,
+  })
   .strict();
 const studyOutput = z
   .object({
@@ -68,24 +88,37 @@ const studyOutput = z
     note: z.string().optional(),
   })
   .strict();
-const runOutput = z.object({ title: z.string(), cells: z.array(z.union([simulationOutput, probeOutput, studyOutput])) }).strict();
+const runOutput = z
+  .object({ title: z.string(), cells: z.array(z.union([simulationOutput, probeOutput, studyOutput])) })
+  .strict();
 
 describe('sheet run (command line)', () => {
   for (const example of exampleSheets) {
     it(`prints the documented JSON for the ${example.slug} example`, async () => {
-      const result = await runCli(['run', `shared/examples/${example.slug}.json`, '--paths-scale', '0.02', '--workers', '2']);
+      const result = await runCli([
+        'run',
+        `shared/examples/${example.slug}.json`,
+        '--paths-scale',
+        '0.02',
+        '--workers',
+        '2',
+      ]);
       expect(result.stderr).toBe('');
       expect(result.code).toBe(0);
       expect(result.stdout.trim().split('\n')).toHaveLength(1);
       const output = runOutput.parse(JSON.parse(result.stdout));
       expect(output.title).toBe(example.document.title);
       // One output per numerical cell, in document order.
-      const numerical = example.document.cells.filter((c) => c.kind === 'simulation' || c.kind === 'probe' || c.kind === 'study');
+      const numerical = example.document.cells.filter(
+        (c) => c.kind === 'simulation' || c.kind === 'probe' || c.kind === 'study',
+      );
       expect(output.cells.map((c) => [c.id, c.kind])).toEqual(numerical.map((c) => [c.id, c.kind]));
       for (const cell of output.cells) {
         if (cell.kind === 'simulation') {
           const source = numerical.find((c) => c.id === cell.id);
-          expect(source?.kind === 'simulation' && Math.max(1, Math.round(source.paths * 0.02))).toBe(cell.paths);
+          expect(source?.kind === 'simulation' && Math.max(1, Math.round(source.paths * 0.02))).toBe(
+            cell.paths,
+          );
         }
         if (cell.kind === 'probe') {
           expect(cell.ci[0]!).toBeLessThanOrEqual(cell.estimate!);
@@ -100,7 +133,8 @@ describe('sheet run (command line)', () => {
     const two = await runCli(['run', fixture('small-relaxation.json'), '--workers', '2']);
     expect(one.code).toBe(0);
     expect(two.code).toBe(0);
-    const sim = (stdout: string) => runOutput.parse(JSON.parse(stdout)).cells.find((c) => c.kind === 'simulation');
+    const sim = (stdout: string) =>
+      runOutput.parse(JSON.parse(stdout)).cells.find((c) => c.kind === 'simulation');
     expect(sim(one.stdout)).toBeDefined();
     expect(sim(one.stdout)).toEqual(sim(two.stdout));
     expect(JSON.parse(one.stdout)).toEqual(JSON.parse(two.stdout));

@@ -13,7 +13,8 @@ import type { CellOutput } from '@shared/run/outputs';
  */
 function probe(cells: CellOutput[], id: string) {
   const cell = cells.find((c) => c.id === id);
-  if (!cell || cell.kind !== 'probe' || 'error' in cell) throw new Error(`no probe output ${id}: ${JSON.stringify(cell)}`);
+  if (!cell || cell.kind !== 'probe' || 'error' in cell)
+    throw new Error(`no probe output ${id}: ${JSON.stringify(cell)}`);
   return cell;
 }
 
@@ -22,15 +23,25 @@ describe('example probes against closed forms', () => {
     const doc = scaleSheetPaths(findExampleSheet('soil-moisture-anomaly')!.document, 0.25); // 5000 paths
     const output = await runSheet(doc, inProcessEnvironment());
     const odds = probe(output.cells, 'drought-odds');
-    const tau = 24, s = 9, a0 = 15, t = 60, threshold = -25, h = 60 / 1200;
+    const tau = 24,
+      s = 9,
+      a0 = 15,
+      t = 60,
+      threshold = -25,
+      h = 60 / 1200;
     // OU law: mean a0·e^{−t/τ}, variance (s²τ/2)(1 − e^{−2t/τ}) (Kloeden & Platen 1992, §4.4).
     const mean = a0 * Math.exp(-t / tau);
-    const sd = Math.sqrt(((s * s * tau) / 2) * (1 - Math.exp(-2 * t / tau)));
+    const sd = Math.sqrt(((s * s * tau) / 2) * (1 - Math.exp((-2 * t) / tau)));
     const exact = jStat.normal.cdf(threshold, mean, sd);
     // The Euler–Maruyama recursion A ← (1 − h/τ)A + s√h Z is itself exactly normal: mean a0·ρⁿ and
     // variance s²h(1 − ρ²ⁿ)/(1 − ρ²) with ρ = 1 − h/τ (geometric sum; scheme as in Higham 2001).
-    const rho = 1 - h / tau, n = t / h;
-    const emExact = jStat.normal.cdf(threshold, a0 * rho ** n, Math.sqrt((s * s * h * (1 - rho ** (2 * n))) / (1 - rho * rho)));
+    const rho = 1 - h / tau,
+      n = t / h;
+    const emExact = jStat.normal.cdf(
+      threshold,
+      a0 * rho ** n,
+      Math.sqrt((s * s * h * (1 - rho ** (2 * n))) / (1 - rho * rho)),
+    );
     const se = Math.sqrt((emExact * (1 - emExact)) / 5000);
     expect(odds.paths).toBe(5000);
     expect(Math.abs(odds.estimate! - emExact)).toBeLessThan(4.5 * se);
@@ -43,9 +54,15 @@ describe('example probes against closed forms', () => {
     const doc = scaleSheetPaths(findExampleSheet('commodity-price-index')!.document, 0.2); // 10 000 paths
     const output = await runSheet(doc, inProcessEnvironment());
     const rise = probe(output.cells, 'rise-odds');
-    const mu = 0.035, sigma = 0.27, s0 = 100, T = 2, level = 130;
+    const mu = 0.035,
+      sigma = 0.27,
+      s0 = 100,
+      T = 2,
+      level = 130;
     // ln S_T ~ N(ln S0 + (μ − σ²/2)T, σ²T) (Kloeden & Platen 1992, ch. 4; Higham 2001).
-    const exact = 1 - jStat.normal.cdf(Math.log(level), Math.log(s0) + (mu - (sigma * sigma) / 2) * T, sigma * Math.sqrt(T));
+    const exact =
+      1 -
+      jStat.normal.cdf(Math.log(level), Math.log(s0) + (mu - (sigma * sigma) / 2) * T, sigma * Math.sqrt(T));
     const se = Math.sqrt((exact * (1 - exact)) / 10_000);
     // Allowance 0.003 for Milstein's O(h) weak bias at h = 0.004 (common practice, no source).
     expect(rise.paths).toBe(10_000);
@@ -62,6 +79,7 @@ describe('example probes against closed forms', () => {
     // sampling error over 2000 paths and six levels (common practice, no source).
     expect(study.strongOrder!).toBeGreaterThan(0.75);
     expect(study.strongOrder!).toBeLessThan(1.25);
-    for (let i = 1; i < study.levels.length; i++) expect(study.levels[i]!.strongError!).toBeLessThan(study.levels[i - 1]!.strongError!);
+    for (let i = 1; i < study.levels.length; i++)
+      expect(study.levels[i]!.strongError!).toBeLessThan(study.levels[i - 1]!.strongError!);
   });
 });

@@ -7,7 +7,9 @@ import type { CellOutput } from '@shared/run/outputs';
 import { simulate } from '@shared/engine/simulate';
 import { buildSimulationPlan, sheetDocumentSchema } from '@shared/sheet/index';
 
-const fixture = sheetDocumentSchema.parse(JSON.parse(readFileSync(new URL('./fixtures/small-relaxation.json', import.meta.url), 'utf8')));
+const fixture = sheetDocumentSchema.parse(
+  JSON.parse(readFileSync(new URL('./fixtures/small-relaxation.json', import.meta.url), 'utf8')),
+);
 
 /** Counts what the runner asks of its environment. */
 function countingEnvironment(inner: SheetRunEnvironment = inProcessEnvironment()) {
@@ -39,7 +41,9 @@ describe('runSheet', () => {
 
   it('reports the same digest as the engine running the whole plan in one piece', async () => {
     const output = await runSheet(fixture, inProcessEnvironment());
-    const sim = output.cells.find((c): c is Extract<CellOutput, { kind: 'simulation' }> => c.kind === 'simulation');
+    const sim = output.cells.find(
+      (c): c is Extract<CellOutput, { kind: 'simulation' }> => c.kind === 'simulation',
+    );
     const whole = simulate(buildSimulationPlan(fixture, 'gauge-run'));
     expect(sim?.digest).toBe(whole.digest);
     expect(sim?.paths).toBe(3000);
@@ -47,10 +51,16 @@ describe('runSheet', () => {
 
   it('summarises the final distribution close to the Ornstein–Uhlenbeck law', async () => {
     const output = await runSheet(fixture, inProcessEnvironment());
-    const sim = output.cells.find((c): c is Extract<CellOutput, { kind: 'simulation' }> => c.kind === 'simulation')!;
+    const sim = output.cells.find(
+      (c): c is Extract<CellOutput, { kind: 'simulation' }> => c.kind === 'simulation',
+    )!;
     const summary = sim.final.Y!;
     // OU mean m + (Y0 − m) e^{−kT} and variance v²(1 − e^{−2kT})/(2k) (Kloeden & Platen 1992, §4.4).
-    const k = 0.7, m = -1.5, v = 0.45, y0 = 0.6, T = 2;
+    const k = 0.7,
+      m = -1.5,
+      v = 0.45,
+      y0 = 0.6,
+      T = 2;
     const mean = m + (y0 - m) * Math.exp(-k * T);
     const variance = ((v * v) / (2 * k)) * (1 - Math.exp(-2 * k * T));
     // Tolerances: 5 standard errors of the sample mean and variance (normal data: Var(s²) = 2σ⁴/(n−1)),
@@ -63,7 +73,9 @@ describe('runSheet', () => {
 
   it('reports progress per cell', async () => {
     const progress: { cellId: string; pathsDone: number }[] = [];
-    await runSheet(fixture, inProcessEnvironment(), { onProgress: (cellId, p) => progress.push({ cellId, pathsDone: p.pathsDone }) });
+    await runSheet(fixture, inProcessEnvironment(), {
+      onProgress: (cellId, p) => progress.push({ cellId, pathsDone: p.pathsDone }),
+    });
     expect(progress.length).toBeGreaterThan(1);
     expect(progress.every((p) => p.cellId === 'gauge-run')).toBe(true);
     expect(progress[progress.length - 1]!.pathsDone).toBe(3000);
@@ -76,7 +88,11 @@ describe('runSheet', () => {
       runStudy: () => Promise.reject(new Error('the study ran out of memory')),
     };
     const output = await runSheet(fixture, env);
-    expect(output.cells.find((c) => c.id === 'gauge-study')).toEqual({ id: 'gauge-study', kind: 'study', error: 'the study ran out of memory' });
+    expect(output.cells.find((c) => c.id === 'gauge-study')).toEqual({
+      id: 'gauge-study',
+      kind: 'study',
+      error: 'the study ran out of memory',
+    });
     expect(output.cells.find((c) => c.id === 'gauge-run')).toHaveProperty('digest');
   });
 

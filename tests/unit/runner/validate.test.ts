@@ -26,7 +26,10 @@ describe('validateSheetText', () => {
 
   it('names the cell and the expression of a checker error', () => {
     const outcome = validateSheetText(
-      withCell('soil-model', (cell) => ((cell.states as Record<string, unknown>[])[0]!.drift = '-A / tau + rainfall')),
+      withCell(
+        'soil-model',
+        (cell) => ((cell.states as Record<string, unknown>[])[0]!.drift = '-A / tau + rainfall'),
+      ),
     );
     expect(outcome.ok).toBe(false);
     if (outcome.ok) return;

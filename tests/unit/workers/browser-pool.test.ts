@@ -11,7 +11,9 @@ import { ShimWorker } from './web-worker-shim';
  * The browser pool and its comlink worker, run in Node through a Worker shim on worker_threads:
  * chunk transfer, the progress callback proxy, shared-memory cancel and the helper worker.
  */
-const doc = sheetDocumentSchema.parse(JSON.parse(readFileSync(new URL('../runner/fixtures/small-relaxation.json', import.meta.url), 'utf8')));
+const doc = sheetDocumentSchema.parse(
+  JSON.parse(readFileSync(new URL('../runner/fixtures/small-relaxation.json', import.meta.url), 'utf8')),
+);
 const plan = buildSimulationPlan(doc, 'gauge-run');
 const originalWorker = globalThis.Worker;
 let pool: SimulationPool;

@@ -1,5 +1,11 @@
 import { describe, expect, it } from 'vitest';
-import { ChunkPool, RunCancelledError, type ChunkJob, type ChunkWorker, type RunProgress } from '@shared/run/chunk-pool';
+import {
+  ChunkPool,
+  RunCancelledError,
+  type ChunkJob,
+  type ChunkWorker,
+  type RunProgress,
+} from '@shared/run/chunk-pool';
 import { MAX_CHUNK_PATHS, splitPaths } from '@shared/run/chunks';
 
 interface FakePlan {
@@ -39,11 +45,17 @@ function fakeWorkerFactory(options: { delayMs: (job: ChunkJob<FakePlan>) => numb
               return;
             }
             const elapsed = Date.now() - started;
-            job.onPathsDone(Math.floor((job.range.pathCount * Math.min(elapsed, total)) / Math.max(total, 1)));
+            job.onPathsDone(
+              Math.floor((job.range.pathCount * Math.min(elapsed, total)) / Math.max(total, 1)),
+            );
             if (elapsed >= total) {
               clearInterval(tick);
               options.log?.push(`${record.id}:${job.range.firstPath}`);
-              resolve({ firstPath: job.range.firstPath, pathCount: job.range.pathCount, workerId: record.id });
+              resolve({
+                firstPath: job.range.firstPath,
+                pathCount: job.range.pathCount,
+                workerId: record.id,
+              });
             }
           }, 2);
         });
@@ -106,7 +118,9 @@ describe('ChunkPool', () => {
       const pool = new ChunkPool<FakePlan, FakeChunk>({ size, createWorker: factory, sharedMemory: true });
       const chunks = await pool.run(plan);
       pool.dispose();
-      expect(chunks.map((c) => [c.firstPath, c.pathCount])).toEqual(expected.map((r) => [r.firstPath, r.pathCount]));
+      expect(chunks.map((c) => [c.firstPath, c.pathCount])).toEqual(
+        expected.map((r) => [r.firstPath, r.pathCount]),
+      );
     }
   });
 
@@ -198,6 +212,8 @@ describe('ChunkPool', () => {
   });
 
   it('refuses a pool without workers', () => {
-    expect(() => new ChunkPool({ size: 0, createWorker: fakeWorkerFactory({ delayMs: () => 1 }).factory })).toThrow(/at least one worker/);
+    expect(
+      () => new ChunkPool({ size: 0, createWorker: fakeWorkerFactory({ delayMs: () => 1 }).factory }),
+    ).toThrow(/at least one worker/);
   });
 });

@@ -8,7 +8,9 @@ import { RunCancelledError } from '@shared/run/chunk-pool';
 import { buildSimulationPlan, sheetDocumentSchema } from '@shared/sheet/index';
 
 /** The chunk pool on real worker_threads (the runner's and the benchmark's configuration). */
-const doc = sheetDocumentSchema.parse(JSON.parse(readFileSync(new URL('../runner/fixtures/small-relaxation.json', import.meta.url), 'utf8')));
+const doc = sheetDocumentSchema.parse(
+  JSON.parse(readFileSync(new URL('../runner/fixtures/small-relaxation.json', import.meta.url), 'utf8')),
+);
 const plan = buildSimulationPlan(doc, 'gauge-run');
 const pools: ThreadPool[] = [];
 

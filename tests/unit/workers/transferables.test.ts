@@ -22,10 +22,14 @@ describe('collectTransferables', () => {
   });
 
   it('lists every array of an engine chunk so posting it copies nothing', () => {
-    const doc = sheetDocumentSchema.parse(JSON.parse(readFileSync(new URL('../runner/fixtures/small-relaxation.json', import.meta.url), 'utf8')));
+    const doc = sheetDocumentSchema.parse(
+      JSON.parse(readFileSync(new URL('../runner/fixtures/small-relaxation.json', import.meta.url), 'utf8')),
+    );
     const chunk = simulateChunk(buildSimulationPlan(doc, 'gauge-run'), 0, 10);
     const buffers = chunkTransferables(chunk);
-    const arrays = Object.values(chunk).filter((v): v is Float64Array => ArrayBuffer.isView(v) && v.byteLength > 0);
+    const arrays = Object.values(chunk).filter(
+      (v): v is Float64Array => ArrayBuffer.isView(v) && v.byteLength > 0,
+    );
     for (const array of arrays) expect(buffers).toContain(array.buffer);
     // Transferring detaches them: structuredClone with a transfer list moves, not copies.
     const moved = structuredClone(chunk, { transfer: buffers });
