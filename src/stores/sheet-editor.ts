@@ -43,6 +43,8 @@ export const useSheetEditorStore = defineStore('sheet-editor', () => {
   const running = ref(false);
   const runningCellId = ref<string | null>(null);
   const progress = ref<RunProgress | null>(null);
+  /** When the running step started (performance.now()), for elapsed time where no progress comes. */
+  const stepStartedAt = ref<number | null>(null);
   const runNotice = ref<string | null>(null);
   let runCancelled = false;
   let backend: SheetRunBackend | null = null;
@@ -251,6 +253,7 @@ export const useSheetEditorStore = defineStore('sheet-editor', () => {
         onStepStart: (step) => {
           runningCellId.value = step.cellId;
           progress.value = null;
+          stepStartedAt.value = performance.now();
         },
         onProgress: (_cellId, next) => {
           progress.value = next;
@@ -264,6 +267,7 @@ export const useSheetEditorStore = defineStore('sheet-editor', () => {
       running.value = false;
       runningCellId.value = null;
       progress.value = null;
+      stepStartedAt.value = null;
     }
   }
 
@@ -400,6 +404,7 @@ export const useSheetEditorStore = defineStore('sheet-editor', () => {
     running,
     runningCellId,
     progress,
+    stepStartedAt,
     runNotice,
     draftRestoredAt,
     draftStorageFailed,
