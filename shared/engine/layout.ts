@@ -21,7 +21,8 @@ export interface PlanLayout {
   cholesky: Float64Array | null;
 }
 
-const MAX_SAVED_VALUES = 2 ** 31 - 1;
+/** Path values a merged run may hold (8 bytes each, so about 2 GB); beyond this the merge cannot allocate. */
+export const MAX_SAVED_VALUES = 2 ** 28;
 
 export function stepTime(plan: SimulationPlan, h: number, step: number): number {
   return step === plan.steps ? plan.t1 : plan.t0 + step * h;
@@ -50,8 +51,11 @@ export function planLayout(plan: SimulationPlan): PlanLayout {
   if (!Number.isInteger(plan.samplePaths) || plan.samplePaths < 0) throw new RangeError(`samplePaths must be a non-negative integer, got ${plan.samplePaths}`);
   if (plan.boundaries.length !== stateCount) throw new RangeError(`expected one boundary rule per state variable (${stateCount}), got ${plan.boundaries.length}`);
   if (plan.blowupBound !== null && !(plan.blowupBound > 0)) throw new RangeError(`the blow-up bound must be positive, got ${plan.blowupBound}`);
-  if (plan.saveCount * stateCount * Math.min(plan.paths, 2000) > MAX_SAVED_VALUES) {
-    throw new RangeError('too many saved values per chunk: lower the saved-time count');
+  const savedValues = plan.paths * (plan.saveCount + plan.probeTimes.length) * stateCount;
+  if (savedValues > MAX_SAVED_VALUES) {
+    throw new RangeError(
+      `the run would keep ${savedValues.toExponential(2)} path values (paths × (saved + probe times) × states), more than ${MAX_SAVED_VALUES.toExponential(2)}; lower the number of paths or saved times`,
+    );
   }
   for (const watch of plan.watches) {
     if (!Number.isInteger(watch.state) || watch.state < 0 || watch.state >= stateCount) throw new RangeError(`a watch names state ${watch.state}, which does not exist`);

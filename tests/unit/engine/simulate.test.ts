@@ -50,6 +50,19 @@ describe('saved grid, probe times and sample paths', () => {
     expect(Array.from(result.samplePaths[0]![0]!)).toEqual([0, 3, 7, 10]);
   });
 
+  it('saves a step twice when there are more saved times than steps', () => {
+    const plan = makePlan({ drift: ['1'], diffusion: [['0']], initial: [0], t1: 2, steps: 2, paths: 1, saveCount: 5 });
+    const result = simulate(plan);
+    // Grid 0, 0.5, 1, 1.5, 2 → nearest steps 0, 1, 1, 2, 2 (Math.round rounds halves up).
+    expect(Array.from(result.savedSteps)).toEqual([0, 1, 1, 2, 2]);
+    expect(Array.from(result.samplePaths[0]![0]!)).toEqual([0, 1, 1, 2, 2]);
+  });
+
+  it('refuses a run whose saved values would not fit in memory, before any work', () => {
+    const plan = makePlan({ drift: ['0'], diffusion: [['1']], initial: [0], t1: 1, steps: 10, paths: 10_000_000, saveCount: 101 });
+    expect(() => simulateChunk(plan, 0, 10)).toThrow(/lower the number of paths or saved times/);
+  });
+
   it('keeps values at probe times snapped to the step grid, in the order asked', () => {
     const result = simulate(ou);
     expect(result.probes.map((probe) => probe.time)).toEqual([1.23, 0.5]);
