@@ -106,9 +106,11 @@ export function defaultCell(kind: CellKind, doc: SheetDocument, index: number): 
     case 'model': {
       const state = freshName('x', taken);
       const noise = freshName('W', new Set([...taken, state]));
+      const modelCount = doc.cells.filter((cell) => cell.kind === 'model').length;
       return {
         id,
         kind,
+        name: modelCount === 0 ? 'New model' : `New model ${modelCount + 1}`,
         states: [{ name: state, initial: '1', drift: `-${state}`, diffusion: { [noise]: '0.2' } }],
         noises: [{ name: noise }],
         calculus: 'ito',
