@@ -34,7 +34,9 @@ export const BUILTIN_NAMES: readonly ScopeName[] = [
  * exactly what a run would refuse.
  */
 export function expressionProblems(text: string, scope: readonly ScopeName[]): ExpressionProblem[] {
-  const names = scope.filter((entry) => entry.kind !== 'function' && entry.kind !== 'constant').map((entry) => entry.name);
+  const names = scope
+    .filter((entry) => entry.kind !== 'function' && entry.kind !== 'constant')
+    .map((entry) => entry.name);
   const checked = checkExpression(text, names);
   if (checked.ok) return [];
   return checked.errors.map((error) => ({ from: error.from, to: error.to, message: error.message }));

@@ -20,7 +20,14 @@ export function expressionDiagnostics(
 ): ExpressionDiagnostic[] {
   if (text.trim() === '') {
     if (options.allowEmpty) return [];
-    return [{ from: 0, to: text.length, severity: 'error', message: 'An expression is needed here (write 0 for none).' }];
+    return [
+      {
+        from: 0,
+        to: text.length,
+        severity: 'error',
+        message: 'An expression is needed here (write 0 for none).',
+      },
+    ];
   }
   return expressionProblems(text, scope).map((problem) => {
     let from = clamp(problem.from, 0, text.length);
@@ -47,8 +54,10 @@ export function expressionCompletions(scope: readonly ScopeName[]): ExpressionCo
   for (const entry of [...scope, ...BUILTIN_NAMES]) {
     if (seen.has(entry.name)) continue;
     seen.add(entry.name);
-    if (entry.kind === 'function') completions.push({ label: entry.name, type: 'function', info: entry.detail });
-    else if (entry.kind === 'constant') completions.push({ label: entry.name, type: 'constant', info: entry.detail });
+    if (entry.kind === 'function')
+      completions.push({ label: entry.name, type: 'function', info: entry.detail });
+    else if (entry.kind === 'constant')
+      completions.push({ label: entry.name, type: 'constant', info: entry.detail });
     else completions.push({ label: entry.name, type: 'variable', detail: entry.detail ?? entry.kind });
   }
   return completions;

@@ -35,7 +35,12 @@ export interface ExpressionEditor {
 const LINT_DELAY_MS = 300;
 
 const meanderTheme = EditorView.theme({
-  '&': { fontSize: '0.92em', border: '1px solid var(--meander-rule, #dcd2c0)', borderRadius: '4px', backgroundColor: 'var(--meander-paper, #fffcf6)' },
+  '&': {
+    fontSize: '0.92em',
+    border: '1px solid var(--meander-rule, #dcd2c0)',
+    borderRadius: '4px',
+    backgroundColor: 'var(--meander-paper, #fffcf6)',
+  },
   '&.cm-focused': { outline: '2px solid var(--meander-accent, #1d6a64)', outlineOffset: '1px' },
   '.cm-content': { fontFamily: 'var(--meander-font-mono, "JetBrains Mono", monospace)', padding: '3px 0' },
   '.cm-line': { padding: '0 6px' },
@@ -45,7 +50,10 @@ export function createExpressionEditor(options: ExpressionEditorOptions): Expres
   const editable = new Compartment();
   // Text set from outside (props) is not echoed back as a change the person made.
   let settingFromOutside = false;
-  const editableExtensions = (readonly: boolean) => [EditorState.readOnly.of(readonly), EditorView.editable.of(!readonly)];
+  const editableExtensions = (readonly: boolean) => [
+    EditorState.readOnly.of(readonly),
+    EditorView.editable.of(!readonly),
+  ];
 
   const completionSource = (context: CompletionContext): CompletionResult | null => {
     const word = context.matchBefore(/[A-Za-z_][A-Za-z0-9_]*/);
@@ -64,7 +72,13 @@ export function createExpressionEditor(options: ExpressionEditorOptions): Expres
         // Expressions are one line: Enter does nothing unless the completion list is open.
         Prec.high(keymap.of([{ key: 'Enter', run: () => true }])),
         autocompletion({ override: [completionSource], activateOnTyping: true }),
-        linter((v) => expressionDiagnostics(v.state.doc.toString(), options.scope(), { allowEmpty: options.allowEmpty }), { delay: LINT_DELAY_MS }),
+        linter(
+          (v) =>
+            expressionDiagnostics(v.state.doc.toString(), options.scope(), {
+              allowEmpty: options.allowEmpty,
+            }),
+          { delay: LINT_DELAY_MS },
+        ),
         EditorView.contentAttributes.of({ 'aria-label': options.label }),
         placeholderText(options.placeholder ?? ''),
         editable.of(editableExtensions(options.readonly)),

@@ -37,7 +37,9 @@ export function addNoise(model: ModelCell): ModelCell {
   let n = model.noises.length + 1;
   while (taken.has(`W${n}`)) n += 1;
   const next = { ...model, noises: [...model.noises, { name: `W${n}` }] };
-  return next.correlation ? { ...next, correlation: resizeCorrelation(next.correlation, next.noises.length) } : next;
+  return next.correlation
+    ? { ...next, correlation: resizeCorrelation(next.correlation, next.noises.length) }
+    : next;
 }
 
 /** Removing a noise source drops its diffusion entries and its row and column of the correlation. */
@@ -57,7 +59,9 @@ export function removeNoise(model: ModelCell, index: number): ModelCell {
   }
   return {
     ...next,
-    correlation: model.correlation.filter((_, i) => i !== index).map((row) => row.filter((_, j) => j !== index)),
+    correlation: model.correlation
+      .filter((_, i) => i !== index)
+      .map((row) => row.filter((_, j) => j !== index)),
   };
 }
 
@@ -67,11 +71,14 @@ export function identityCorrelation(size: number): number[][] {
 
 /** Keeps the entries that still fit; new rows and columns are uncorrelated. */
 export function resizeCorrelation(matrix: number[][], size: number): number[][] {
-  return Array.from({ length: size }, (_, i) => Array.from({ length: size }, (_, j) => (i === j ? 1 : (matrix[i]?.[j] ?? 0))));
+  return Array.from({ length: size }, (_, i) =>
+    Array.from({ length: size }, (_, j) => (i === j ? 1 : (matrix[i]?.[j] ?? 0))),
+  );
 }
 
 export function setCorrelated(model: ModelCell, correlated: boolean): ModelCell {
-  if (correlated) return { ...model, correlation: resizeCorrelation(model.correlation ?? [], model.noises.length) };
+  if (correlated)
+    return { ...model, correlation: resizeCorrelation(model.correlation ?? [], model.noises.length) };
   const { correlation: _unused, ...rest } = model;
   return rest;
 }

@@ -22,7 +22,11 @@ export interface FormattedEstimate {
 }
 
 /** Estimate, error and interval with decimals matched to the error's second significant digit. */
-export function formatEstimate(estimate: number, standardError: number, ci: readonly [number, number]): FormattedEstimate {
+export function formatEstimate(
+  estimate: number,
+  standardError: number,
+  ci: readonly [number, number],
+): FormattedEstimate {
   if (!(standardError > 0) || !Number.isFinite(standardError)) {
     return {
       estimate: formatSignificant(estimate, 6),
@@ -36,7 +40,10 @@ export function formatEstimate(estimate: number, standardError: number, ci: read
   const largest = Math.max(Math.abs(estimate), Math.abs(ci[0]), Math.abs(ci[1]));
   if (decimals < 0 || decimals > 8 || largest >= 1e7) {
     return {
-      estimate: formatSignificant(estimate, Math.max(2, Math.floor(Math.log10(Math.abs(estimate) || 1)) - errorExponent + 2)),
+      estimate: formatSignificant(
+        estimate,
+        Math.max(2, Math.floor(Math.log10(Math.abs(estimate) || 1)) - errorExponent + 2),
+      ),
       standardError: formatSignificant(standardError, 2),
       low: formatSignificant(ci[0], 4),
       high: formatSignificant(ci[1], 4),

@@ -8,7 +8,8 @@ const NUMBER_PATTERN = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
 export function parseNumberText(text: string, what = 'this'): ParsedNumber {
   const trimmed = text.trim();
   if (trimmed === '') return { ok: false, message: `${capitalise(what)} needs a number.` };
-  if (!NUMBER_PATTERN.test(trimmed)) return { ok: false, message: `"${trimmed}" is not a number (write e.g. 0.25 or 1e-3).` };
+  if (!NUMBER_PATTERN.test(trimmed))
+    return { ok: false, message: `"${trimmed}" is not a number (write e.g. 0.25 or 1e-3).` };
   const value = Number(trimmed);
   if (!Number.isFinite(value)) return { ok: false, message: `"${trimmed}" is too large.` };
   return { ok: true, value };
@@ -23,7 +24,8 @@ export interface IntegerRange {
 export function parseIntegerText(text: string, what: string, range: IntegerRange): ParsedNumber {
   const parsed = parseNumberText(text, what);
   if (!parsed.ok) return parsed;
-  if (!Number.isInteger(parsed.value)) return { ok: false, message: `${capitalise(what)} must be a whole number.` };
+  if (!Number.isInteger(parsed.value))
+    return { ok: false, message: `${capitalise(what)} must be a whole number.` };
   if (parsed.value < range.min || parsed.value > range.max) {
     return {
       ok: false,

@@ -28,12 +28,18 @@ export function paramToText(param: Parameter): ParamRowText {
 }
 
 /** A symbol name's problem, or null: the schema's own rule, plus clashes with reserved names. */
-export function nameProblem(name: string, takenElsewhere: readonly string[], reserved: readonly string[]): string | null {
+export function nameProblem(
+  name: string,
+  takenElsewhere: readonly string[],
+  reserved: readonly string[],
+): string | null {
   const trimmed = name.trim();
   if (trimmed === '') return 'A name is needed.';
   const parsed = symbolNameSchema.safeParse(trimmed);
-  if (!parsed.success) return `"${trimmed}" is not a valid name: ${parsed.error.issues[0]?.message ?? 'bad name'}.`;
-  if (reserved.includes(trimmed)) return `"${trimmed}" is reserved (a function or built-in name); choose another.`;
+  if (!parsed.success)
+    return `"${trimmed}" is not a valid name: ${parsed.error.issues[0]?.message ?? 'bad name'}.`;
+  if (reserved.includes(trimmed))
+    return `"${trimmed}" is reserved (a function or built-in name); choose another.`;
   if (takenElsewhere.includes(trimmed)) return `"${trimmed}" is already used in this sheet.`;
   return null;
 }
@@ -58,14 +64,17 @@ export function checkParamRow(row: ParamRowText, context: ParamCheckContext): Pa
   const max = row.max.trim() === '' ? null : parseNumberText(row.max, 'max');
   if (min && !min.ok) errors.min = min.message;
   if (max && !max.ok) errors.max = max.message;
-  if (min?.ok && max?.ok && max.value < min.value) errors.max = `Max (${max.value}) is below min (${min.value}).`;
+  if (min?.ok && max?.ok && max.value < min.value)
+    errors.max = `Max (${max.value}) is below min (${min.value}).`;
 
   const value = valueProblem(row.value, context.otherNames);
   if (value) errors.value = value;
   else {
     const numeric = parseNumberText(row.value);
-    if (numeric.ok && min?.ok && numeric.value < min.value) errors.value = `The value is below min (${min.value}).`;
-    if (numeric.ok && max?.ok && numeric.value > max.value) errors.value = `The value is above max (${max.value}).`;
+    if (numeric.ok && min?.ok && numeric.value < min.value)
+      errors.value = `The value is below min (${min.value}).`;
+    if (numeric.ok && max?.ok && numeric.value > max.value)
+      errors.value = `The value is above max (${max.value}).`;
   }
   if (row.unit.length > 40) errors.unit = 'A unit is at most 40 characters.';
   if (row.description.length > 500) errors.description = 'A description is at most 500 characters.';
@@ -84,7 +93,12 @@ function valueProblem(text: string, otherNames: readonly string[]): string | nul
  * The parameter a valid field contributes to the cell, or null when the field's text cannot be
  * stored (it stays in the row, with its error shown). Optional fields left blank are dropped.
  */
-export function applyParamField(param: Parameter, field: ParamField, text: string, errors: ParamRowErrors): Parameter | null {
+export function applyParamField(
+  param: Parameter,
+  field: ParamField,
+  text: string,
+  errors: ParamRowErrors,
+): Parameter | null {
   if (errors[field] && field !== 'value') return null;
   const next: Parameter = { ...param };
   switch (field) {

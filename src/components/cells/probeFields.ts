@@ -11,14 +11,70 @@ export interface QuantityInfo {
 }
 
 export const PROBE_QUANTITIES: readonly QuantityInfo[] = [
-  { value: 'mean', label: 'Mean', usesTime: true, usesLevel: 'no', usesProbability: false, usesDirection: false },
-  { value: 'variance', label: 'Variance', usesTime: true, usesLevel: 'no', usesProbability: false, usesDirection: false },
-  { value: 'quantile', label: 'Quantile', usesTime: true, usesLevel: 'no', usesProbability: true, usesDirection: false },
-  { value: 'exceedance', label: 'P(X ≥ a)', usesTime: true, usesLevel: 'required', usesProbability: false, usesDirection: false },
-  { value: 'subceedance', label: 'P(X ≤ a)', usesTime: true, usesLevel: 'required', usesProbability: false, usesDirection: false },
-  { value: 'hit-before', label: 'P(reach a before the end)', usesTime: false, usesLevel: 'required', usesProbability: false, usesDirection: true },
-  { value: 'first-passage', label: 'First-passage time to a', usesTime: false, usesLevel: 'required', usesProbability: false, usesDirection: true },
-  { value: 'extinction', label: 'Extinction probability', usesTime: false, usesLevel: 'optional', usesProbability: false, usesDirection: false },
+  {
+    value: 'mean',
+    label: 'Mean',
+    usesTime: true,
+    usesLevel: 'no',
+    usesProbability: false,
+    usesDirection: false,
+  },
+  {
+    value: 'variance',
+    label: 'Variance',
+    usesTime: true,
+    usesLevel: 'no',
+    usesProbability: false,
+    usesDirection: false,
+  },
+  {
+    value: 'quantile',
+    label: 'Quantile',
+    usesTime: true,
+    usesLevel: 'no',
+    usesProbability: true,
+    usesDirection: false,
+  },
+  {
+    value: 'exceedance',
+    label: 'P(X ≥ a)',
+    usesTime: true,
+    usesLevel: 'required',
+    usesProbability: false,
+    usesDirection: false,
+  },
+  {
+    value: 'subceedance',
+    label: 'P(X ≤ a)',
+    usesTime: true,
+    usesLevel: 'required',
+    usesProbability: false,
+    usesDirection: false,
+  },
+  {
+    value: 'hit-before',
+    label: 'P(reach a before the end)',
+    usesTime: false,
+    usesLevel: 'required',
+    usesProbability: false,
+    usesDirection: true,
+  },
+  {
+    value: 'first-passage',
+    label: 'First-passage time to a',
+    usesTime: false,
+    usesLevel: 'required',
+    usesProbability: false,
+    usesDirection: true,
+  },
+  {
+    value: 'extinction',
+    label: 'Extinction probability',
+    usesTime: false,
+    usesLevel: 'optional',
+    usesProbability: false,
+    usesDirection: false,
+  },
 ];
 
 export function quantityInfo(quantity: ProbeQuantity): QuantityInfo {
@@ -31,7 +87,13 @@ export function quantityInfo(quantity: ProbeQuantity): QuantityInfo {
  */
 export function withQuantity(cell: ProbeCell, quantity: ProbeQuantity): ProbeCell {
   const info = quantityInfo(quantity);
-  const next: ProbeCell = { id: cell.id, kind: 'probe', simulation: cell.simulation, quantity, state: cell.state };
+  const next: ProbeCell = {
+    id: cell.id,
+    kind: 'probe',
+    simulation: cell.simulation,
+    quantity,
+    state: cell.state,
+  };
   if (info.usesTime && cell.time !== undefined) next.time = cell.time;
   if (info.usesLevel === 'required') next.level = cell.level ?? 0;
   if (info.usesLevel === 'optional' && cell.level !== undefined) next.level = cell.level;

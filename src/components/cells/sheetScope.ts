@@ -13,7 +13,10 @@ export function modelSymbolNames(document: SheetDocument): string[] {
   );
 }
 
-export function cellsOfKind<K extends Cell['kind']>(document: SheetDocument, kind: K): Extract<Cell, { kind: K }>[] {
+export function cellsOfKind<K extends Cell['kind']>(
+  document: SheetDocument,
+  kind: K,
+): Extract<Cell, { kind: K }>[] {
   return document.cells.filter((cell): cell is Extract<Cell, { kind: K }> => cell.kind === kind);
 }
 
@@ -38,14 +41,22 @@ function parameterDetail(param: Parameter): string {
 }
 
 export function parameterScope(document: SheetDocument): ScopeName[] {
-  return sheetParameters(document).map((p) => ({ name: p.name, kind: 'parameter', detail: parameterDetail(p) }));
+  return sheetParameters(document).map((p) => ({
+    name: p.name,
+    kind: 'parameter',
+    detail: parameterDetail(p),
+  }));
 }
 
 /** Names a drift or diffusion expression of `model` may use (besides the built-in functions). */
 export function coefficientScope(document: SheetDocument, model: ModelCell): ScopeName[] {
   return [
     ...parameterScope(document),
-    ...model.states.map((s): ScopeName => ({ name: s.name, kind: 'state', detail: s.unit ? `state (${s.unit})` : 'state' })),
+    ...model.states.map((s): ScopeName => ({
+      name: s.name,
+      kind: 'state',
+      detail: s.unit ? `state (${s.unit})` : 'state',
+    })),
     { name: 't', kind: 'time', detail: 'time' },
   ];
 }
@@ -63,7 +74,11 @@ export function exactScope(document: SheetDocument, model: ModelCell): ScopeName
   return [
     ...parameterScope(document),
     ...model.states.map((s): ScopeName => ({ name: s.name, kind: 'state', detail: 'initial value' })),
-    ...model.noises.map((n): ScopeName => ({ name: n.name, kind: 'noise', detail: `Brownian motion W_t of ${n.name}` })),
+    ...model.noises.map((n): ScopeName => ({
+      name: n.name,
+      kind: 'noise',
+      detail: `Brownian motion W_t of ${n.name}`,
+    })),
     { name: 't', kind: 'time', detail: 'time' },
   ];
 }

@@ -22,11 +22,16 @@ export interface RunCost {
 /** Steps of a run: given directly, or from the step size over [t0, t1] (rounded up). */
 export function stepCount(cell: Pick<SimulationCell, 't0' | 't1' | 'steps' | 'stepSize'>): number | null {
   if (cell.steps !== undefined) return cell.steps;
-  if (cell.stepSize !== undefined && cell.stepSize > 0 && cell.t1 > cell.t0) return Math.ceil((cell.t1 - cell.t0) / cell.stepSize - 1e-9);
+  if (cell.stepSize !== undefined && cell.stepSize > 0 && cell.t1 > cell.t0)
+    return Math.ceil((cell.t1 - cell.t0) / cell.stepSize - 1e-9);
   return null;
 }
 
-export function estimateRunCost(cell: SimulationCell, stateCount: number, hardwareConcurrency: number): RunCost | null {
+export function estimateRunCost(
+  cell: SimulationCell,
+  stateCount: number,
+  hardwareConcurrency: number,
+): RunCost | null {
   const steps = stepCount(cell);
   if (steps === null) return null;
   const workers = Math.max(1, Math.floor(hardwareConcurrency) - 1);

@@ -16,7 +16,16 @@ export const CHART_COLOURS = {
 };
 
 /** Path colours: the accent first, then muted earth and water tones that stay distinct. */
-export const PATH_COLOURS = ['#1d6a64', '#2c5f86', '#9a6512', '#7c4b72', '#5a7d36', '#a63a2c', '#56656e', '#b07d22'];
+export const PATH_COLOURS = [
+  '#1d6a64',
+  '#2c5f86',
+  '#9a6512',
+  '#7c4b72',
+  '#5a7d36',
+  '#a63a2c',
+  '#56656e',
+  '#b07d22',
+];
 
 export function axisTitle(name: string, unit: string | undefined): string {
   return unit ? `${name} (${unit})` : name;
@@ -51,4 +60,8 @@ export function chartLayout(x: AxisOptions, y: AxisOptions, extra: PlotLayout = 
   };
 }
 
-export const CHART_CONFIG = { displaylogo: false, responsive: true, modeBarButtonsToRemove: ['toImage', 'sendDataToCloud'] };
+export const CHART_CONFIG = {
+  displaylogo: false,
+  responsive: true,
+  modeBarButtonsToRemove: ['toImage', 'sendDataToCloud'],
+};

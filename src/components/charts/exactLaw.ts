@@ -52,7 +52,8 @@ export function exactLawAt(query: LawQuery): ExactLaw | null {
   if (diffusionLine.slope === 0) {
     const { intercept: a, slope: b } = driftLine;
     const c2 = diffusionLine.intercept ** 2;
-    if (b === 0) return { kind: 'normal', model: 'Ornstein–Uhlenbeck', mean: query.x0 + a * tau, variance: c2 * tau };
+    if (b === 0)
+      return { kind: 'normal', model: 'Ornstein–Uhlenbeck', mean: query.x0 + a * tau, variance: c2 * tau };
     const growth = Math.exp(b * tau);
     return {
       kind: 'normal',
@@ -89,7 +90,11 @@ export function normalDensity(x: number, mean: number, variance: number): number
 
 type Coefficient = (x: number, t: number) => number;
 
-function compile(text: string, model: ModelCell, params: Readonly<Record<string, number>>): Coefficient | null {
+function compile(
+  text: string,
+  model: ModelCell,
+  params: Readonly<Record<string, number>>,
+): Coefficient | null {
   const name = model.states[0]!.name;
   const checked = checkExpression(text, [...Object.keys(params), name, 't']);
   if (!checked.ok) return null;

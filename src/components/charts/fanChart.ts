@@ -9,17 +9,58 @@ export function buildFanChart({ chart, result, plan }: ChartInput): ChartBuild {
   const stats = result.stats[i]!;
   const t = Array.from(result.savedTimes);
   const band = (low: Float64Array, high: Float64Array, name: string, fill: string) => [
-    { type: 'scatter', mode: 'lines', x: t, y: Array.from(low), line: { width: 0 }, hoverinfo: 'skip', showlegend: false },
-    { type: 'scatter', mode: 'lines', x: t, y: Array.from(high), line: { width: 0 }, fill: 'tonexty', fillcolor: fill, name, hoverinfo: 'skip' },
+    {
+      type: 'scatter',
+      mode: 'lines',
+      x: t,
+      y: Array.from(low),
+      line: { width: 0 },
+      hoverinfo: 'skip',
+      showlegend: false,
+    },
+    {
+      type: 'scatter',
+      mode: 'lines',
+      x: t,
+      y: Array.from(high),
+      line: { width: 0 },
+      fill: 'tonexty',
+      fillcolor: fill,
+      name,
+      hoverinfo: 'skip',
+    },
   ];
   const traces = [
     ...band(stats.q05, stats.q95, '5–95 %', 'rgba(29, 106, 100, 0.16)'),
     ...band(stats.q25, stats.q75, '25–75 %', 'rgba(29, 106, 100, 0.32)'),
-    { type: 'scatter', mode: 'lines', x: t, y: Array.from(stats.q50), name: 'median', line: { color: CHART_COLOURS.accent, width: 2 } },
-    { type: 'scatter', mode: 'lines', x: t, y: Array.from(stats.mean), name: 'mean', line: { color: CHART_COLOURS.contrast, width: 1.6, dash: 'dash' } },
+    {
+      type: 'scatter',
+      mode: 'lines',
+      x: t,
+      y: Array.from(stats.q50),
+      name: 'median',
+      line: { color: CHART_COLOURS.accent, width: 2 },
+    },
+    {
+      type: 'scatter',
+      mode: 'lines',
+      x: t,
+      y: Array.from(stats.mean),
+      name: 'mean',
+      line: { color: CHART_COLOURS.contrast, width: 1.6, dash: 'dash' },
+    },
   ];
   const title = chart.title ?? `Quantile fan of ${chart.state}`;
-  const rows = t.map((time, k) => [time, stats.q05[k]!, stats.q25[k]!, stats.q50[k]!, stats.q75[k]!, stats.q95[k]!, stats.mean[k]!, stats.live[k]!]);
+  const rows = t.map((time, k) => [
+    time,
+    stats.q05[k]!,
+    stats.q25[k]!,
+    stats.q50[k]!,
+    stats.q75[k]!,
+    stats.q95[k]!,
+    stats.mean[k]!,
+    stats.live[k]!,
+  ]);
   return {
     ok: true,
     spec: {

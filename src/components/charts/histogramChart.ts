@@ -3,6 +3,7 @@ import { toCsv, fileNameFor } from './chartCsv';
 import { nearestSavedIndex, plural, stateIndex, unitOf, type ChartBuild, type ChartInput } from './chartSpec';
 import { histogram } from './histogram';
 import { exactLawAt, lawDensity } from './exactLaw';
+import { formatSignificant } from '../cells/numberFormat';
 
 const DENSITY_POINTS = 200;
 
@@ -19,7 +20,11 @@ export function buildHistogramChart({ chart, result, plan, model }: ChartInput):
   const all = result.savedValues[i]!;
   const values = all.subarray(k * result.paths, (k + 1) * result.paths);
   const bins = histogram(values, chart.bins);
-  if (bins.n === 0) return { ok: false, message: `No path has a finite value of ${chart.state} at t = ${t.toPrecision(4)}.` };
+  if (bins.n === 0)
+    return {
+      ok: false,
+      message: `No path has a finite value of ${chart.state} at t = ${formatSignificant(t)}.`,
+    };
 
   const centres = bins.counts.map((_, b) => (bins.edges[b]! + bins.edges[b + 1]!) / 2);
   const width = bins.edges[1]! - bins.edges[0]!;
@@ -30,7 +35,11 @@ export function buildHistogramChart({ chart, result, plan, model }: ChartInput):
       y: bins.density,
       width,
       name: 'simulated',
-      marker: { color: CHART_COLOURS.accent, opacity: 0.55, line: { color: CHART_COLOURS.accent, width: 0.5 } },
+      marker: {
+        color: CHART_COLOURS.accent,
+        opacity: 0.55,
+        line: { color: CHART_COLOURS.accent, width: 0.5 },
+      },
       hovertemplate: `${chart.state} ≈ %{x:.4g}<br>density %{y:.4g}<extra></extra>`,
     },
   ];
@@ -48,7 +57,10 @@ export function buildHistogramChart({ chart, result, plan, model }: ChartInput):
   const low = bins.edges[0]!;
   const high = bins.edges[bins.edges.length - 1]!;
   if (law) {
-    const xs = Array.from({ length: DENSITY_POINTS }, (_, n) => low + ((high - low) * n) / (DENSITY_POINTS - 1));
+    const xs = Array.from(
+      { length: DENSITY_POINTS },
+      (_, n) => low + ((high - low) * n) / (DENSITY_POINTS - 1),
+    );
     traces.push({
       type: 'scatter',
       mode: 'lines',
@@ -59,19 +71,37 @@ export function buildHistogramChart({ chart, result, plan, model }: ChartInput):
     });
   }
 
-  const title = chart.title ?? `Distribution of ${chart.state} at t = ${t.toPrecision(4)}`;
-  const rows = centres.map((c, b) => [bins.edges[b]!, bins.edges[b + 1]!, bins.counts[b]!, bins.density[b]!, ...(law ? [lawDensity(law, c)] : [])]);
-  const excluded = bins.excluded > 0 ? ` ${plural(bins.excluded, 'path')} without a finite value left out.` : '';
+  const title = chart.title ?? `Distribution of ${chart.state} at t = ${formatSignificant(t)}`;
+  const rows = centres.map((c, b) => [
+    bins.edges[b]!,
+    bins.edges[b + 1]!,
+    bins.counts[b]!,
+    bins.density[b]!,
+    ...(law ? [lawDensity(law, c)] : []),
+  ]);
+  const excluded =
+    bins.excluded > 0 ? ` ${plural(bins.excluded, 'path')} without a finite value left out.` : '';
   return {
     ok: true,
     spec: {
       traces,
-      layout: chartLayout({ title: axisTitle(chart.state, unitOf(plan, i)) }, { title: 'probability density' }, { bargap: 0 }),
-      ariaLabel: `Histogram of ${chart.state} at t = ${t.toPrecision(4)}: ${plural(bins.n, 'path')}${law ? `, with the exact ${law.model} density` : ''}`,
+      layout: chartLayout(
+        { title: axisTitle(chart.state, unitOf(plan, i)) },
+        { title: 'probability density' },
+        { bargap: 0 },
+      ),
+      ariaLabel: `Histogram of ${chart.state} at t = ${formatSignificant(t)}: ${plural(bins.n, 'path')}${law ? `, with the exact ${law.model} density` : ''}`,
       caption: `${plural(bins.n, 'path')} in ${plural(bins.counts.length, 'bin')}${law ? `; line: exact density (${law.model})` : ''}`,
-      csv: toCsv(['bin_low', 'bin_high', 'count', 'density', ...(law ? ['exact_density_at_centre'] : [])], rows),
+      csv: toCsv(
+        ['bin_low', 'bin_high', 'count', 'density', ...(law ? ['exact_density_at_centre'] : [])],
+        rows,
+      ),
       fileName: fileNameFor(title),
-      note: (law ? '' : 'No exact density: the model is not one with a known law (Ornstein–Uhlenbeck or geometric Brownian motion without boundaries).') + excluded || undefined,
+      note:
+        (law
+          ? ''
+          : 'No exact density: the model is not one with a known law (Ornstein–Uhlenbeck or geometric Brownian motion without boundaries).') +
+          excluded || undefined,
     },
   };
 }

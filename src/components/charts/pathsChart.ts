@@ -9,7 +9,11 @@ export function buildPathsChart({ chart, result, plan }: ChartInput): ChartBuild
   const i = stateIndex(result, chart.state);
   if (i === null) return { ok: false, message: `The run has no state variable "${chart.state}".` };
   const available = result.samplePaths[i] ?? [];
-  if (available.length === 0) return { ok: false, message: 'The run kept no sample paths: raise "Sample paths kept" in the simulation.' };
+  if (available.length === 0)
+    return {
+      ok: false,
+      message: 'The run kept no sample paths: raise "Sample paths kept" in the simulation.',
+    };
   const count = Math.min(chart.pathCount ?? DEFAULT_PATH_COUNT, available.length);
   const times = Array.from(result.savedTimes);
   const paths = available.slice(0, count);
@@ -35,7 +39,10 @@ export function buildPathsChart({ chart, result, plan }: ChartInput): ChartBuild
       caption: `${plural(count, 'sample path')} shown`,
       csv: toCsv(['t', ...paths.map((_, p) => `${chart.state}_path${p + 1}`)], rows),
       fileName: fileNameFor(title),
-      note: count < (chart.pathCount ?? DEFAULT_PATH_COUNT) ? `The run kept only ${plural(available.length, 'sample path')}.` : undefined,
+      note:
+        count < (chart.pathCount ?? DEFAULT_PATH_COUNT)
+          ? `The run kept only ${plural(available.length, 'sample path')}.`
+          : undefined,
     },
   };
 }

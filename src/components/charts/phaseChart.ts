@@ -9,11 +9,16 @@ export function buildPhaseChart({ chart, result, plan }: ChartInput): ChartBuild
   if (!stateY) return { ok: false, message: 'A phase plot needs a second state variable.' };
   const i = stateIndex(result, chart.state);
   const j = stateIndex(result, stateY);
-  if (i === null || j === null) return { ok: false, message: `The run has no state variable "${i === null ? chart.state : stateY}".` };
+  if (i === null || j === null)
+    return { ok: false, message: `The run has no state variable "${i === null ? chart.state : stateY}".` };
   const xs = result.samplePaths[i] ?? [];
   const ys = result.samplePaths[j] ?? [];
   const available = Math.min(xs.length, ys.length);
-  if (available === 0) return { ok: false, message: 'The run kept no sample paths: raise "Sample paths kept" in the simulation.' };
+  if (available === 0)
+    return {
+      ok: false,
+      message: 'The run kept no sample paths: raise "Sample paths kept" in the simulation.',
+    };
   const count = Math.min(chart.pathCount ?? DEFAULT_PATH_COUNT, available);
   const traces = Array.from({ length: count }, (_, p) => ({
     type: 'scatter',
@@ -34,7 +39,10 @@ export function buildPhaseChart({ chart, result, plan }: ChartInput): ChartBuild
     ok: true,
     spec: {
       traces,
-      layout: chartLayout({ title: axisTitle(chart.state, unitOf(plan, i)) }, { title: axisTitle(stateY, unitOf(plan, j)) }),
+      layout: chartLayout(
+        { title: axisTitle(chart.state, unitOf(plan, i)) },
+        { title: axisTitle(stateY, unitOf(plan, j)) },
+      ),
       ariaLabel: `Phase plot of ${stateY} against ${chart.state}: ${plural(count, 'path')}`,
       caption: `${plural(count, 'sample path')} shown`,
       csv: toCsv(['path', 't', chart.state, stateY], rows),

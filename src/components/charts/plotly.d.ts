@@ -16,7 +16,12 @@ declare module 'plotly.js-dist-min' {
   }
 
   export interface PlotlyStatic {
-    react(element: HTMLElement, data: PlotTrace[], layout?: PlotLayout, config?: PlotConfig): Promise<HTMLElement>;
+    react(
+      element: HTMLElement,
+      data: PlotTrace[],
+      layout?: PlotLayout,
+      config?: PlotConfig,
+    ): Promise<HTMLElement>;
     purge(element: HTMLElement): void;
     downloadImage(element: HTMLElement, options: DownloadImageOptions): Promise<string>;
     Plots: { resize(element: HTMLElement): void };

@@ -15,8 +15,20 @@ export function buildStudyChart(result: StudyResult, stateName: string): ChartSp
   const h = levels.map((l) => l.h);
   const traces: Record<string, unknown>[] = [];
   const series = [
-    { name: 'strong error', values: levels.map((l) => l.strongError), se: levels.map((l) => l.strongSE), colour: CHART_COLOURS.accent, symbol: 'circle' },
-    { name: 'weak error', values: levels.map((l) => l.weakError), se: levels.map((l) => l.weakSE), colour: CHART_COLOURS.contrast, symbol: 'diamond' },
+    {
+      name: 'strong error',
+      values: levels.map((l) => l.strongError),
+      se: levels.map((l) => l.strongSE),
+      colour: CHART_COLOURS.accent,
+      symbol: 'circle',
+    },
+    {
+      name: 'weak error',
+      values: levels.map((l) => l.weakError),
+      se: levels.map((l) => l.weakSE),
+      colour: CHART_COLOURS.contrast,
+      symbol: 'diamond',
+    },
   ];
   for (const s of series) {
     traces.push({
@@ -51,7 +63,10 @@ export function buildStudyChart(result: StudyResult, stateName: string): ChartSp
   const rows = levels.map((l) => [l.steps, l.h, l.strongError, l.strongSE, l.weakError, l.weakSE]);
   return {
     traces,
-    layout: chartLayout({ title: 'step size h', type: 'log' }, { title: `error in ${stateName} at the end time`, type: 'log' }),
+    layout: chartLayout(
+      { title: 'step size h', type: 'log' },
+      { title: `error in ${stateName} at the end time`, type: 'log' },
+    ),
     ariaLabel: `Step-size study of ${stateName}: strong and weak error against step size at ${plural(levels.length, 'level')}, ${plural(result.paths, 'path')}`,
     caption: `Error bars: ±2 standard errors; grey lines: reference slopes 1/2 and 1; ${plural(result.paths, 'path')} per level`,
     csv: toCsv(['steps', 'h', 'strong_error', 'strong_se', 'weak_error', 'weak_se'], rows),

@@ -5,10 +5,12 @@ import type { PlotlyStatic } from 'plotly.js-dist-min';
 let loading: Promise<PlotlyStatic> | null = null;
 
 function loadPlotly(): Promise<PlotlyStatic> {
-  loading ??= import('plotly.js-dist-min').then((module) => module.default).catch((error: unknown) => {
-    loading = null; // let a later chart try again (e.g. after a network hiccup)
-    throw error;
-  });
+  loading ??= import('plotly.js-dist-min')
+    .then((module) => module.default)
+    .catch((error: unknown) => {
+      loading = null; // let a later chart try again (e.g. after a network hiccup)
+      throw error;
+    });
   return loading;
 }
 

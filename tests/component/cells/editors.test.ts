@@ -37,11 +37,17 @@ describe('NoteCell', () => {
     mounted.push(wrapper);
     expect(wrapper.find('img').exists()).toBe(false);
     expect(wrapper.find('em').text()).toBe('rises');
-    await wrapper.findAll('button').find((b) => b.text() === 'Edit note')!.trigger('click');
+    await wrapper
+      .findAll('button')
+      .find((b) => b.text() === 'Edit note')!
+      .trigger('click');
     const textarea = input(wrapper, 'Note text');
     await textarea.setValue('# New heading');
     expect(lastUpdate(wrapper)).toEqual({ ...note, text: '# New heading' });
-    await wrapper.findAll('button').find((b) => b.text() === 'Done')!.trigger('click');
+    await wrapper
+      .findAll('button')
+      .find((b) => b.text() === 'Done')!
+      .trigger('click');
     expect(wrapper.find('textarea').exists()).toBe(false);
   });
 });
@@ -96,7 +102,10 @@ describe('ParamsCell', () => {
     await input(wrapper, 'value of parameter 3 (sigma)').setValue('0.5');
     expect(lastUpdate(wrapper)).toMatchObject({ params: [{}, {}, { name: 'sigma', value: 0.5 }, {}] });
     expect(cell).toEqual(before);
-    await wrapper.findAll('button').find((b) => b.text() === 'Add parameter')!.trigger('click');
+    await wrapper
+      .findAll('button')
+      .find((b) => b.text() === 'Add parameter')!
+      .trigger('click');
     expect((lastUpdate(wrapper) as typeof cell).params).toHaveLength(5);
   });
 
@@ -139,20 +148,34 @@ describe('ModelCell', () => {
   it('shows the correlation grid once there are two noise sources and checks it', async () => {
     const sheet = reservoirSheet();
     const model = cellOf(sheet, 'level-model', 'model');
-    const two = { ...model, noises: [...model.noises, { name: 'E' }], correlation: [[1, 0], [0, 1]] };
+    const two = {
+      ...model,
+      noises: [...model.noises, { name: 'E' }],
+      correlation: [
+        [1, 0],
+        [0, 1],
+      ],
+    };
     const wrapper = mount(ModelCell, { props: editorProps(sheet, two) });
     mounted.push(wrapper);
     await input(wrapper, 'Correlation of R and E').setValue('1.5');
     expect(wrapper.text()).toMatch(/Between −1 and 1/);
     await input(wrapper, 'Correlation of R and E').setValue('0.4');
-    expect(lastUpdate(wrapper)).toMatchObject({ correlation: [[1, 0.4], [0.4, 1]] });
+    expect(lastUpdate(wrapper)).toMatchObject({
+      correlation: [
+        [1, 0.4],
+        [0.4, 1],
+      ],
+    });
   });
 });
 
 describe('SimulationCell', () => {
   it('shows the estimated cost of the run before it runs', () => {
     const sheet = reservoirSheet();
-    const wrapper = mount(SimulationCell, { props: editorProps(sheet, cellOf(sheet, 'level-run', 'simulation')) });
+    const wrapper = mount(SimulationCell, {
+      props: editorProps(sheet, cellOf(sheet, 'level-run', 'simulation')),
+    });
     mounted.push(wrapper);
     const cost = wrapper.find('[aria-label="Estimated cost of the run"]');
     // 20 000 paths × 3000 steps = 60 million path-steps; 20 000 × 61 saved times × 1 state × 8 bytes.
@@ -177,7 +200,10 @@ describe('SimulationCell', () => {
     expect(wrapper.text()).toMatch(/"20k" is not a number/);
     await wrapper.setProps({ cell: { ...cell, seed: 9 } });
     expect((input(wrapper, 'Paths').element as HTMLInputElement).value).toBe('20k');
-    await wrapper.findAll('button').find((b) => b.text() === 'New seed')!.trigger('click');
+    await wrapper
+      .findAll('button')
+      .find((b) => b.text() === 'New seed')!
+      .trigger('click');
     const updated = lastUpdate(wrapper) as typeof cell;
     expect(updated.paths).toBe(20000);
     expect(Number.isInteger(updated.seed) && updated.seed >= 0 && updated.seed <= 0xffffffff).toBe(true);

@@ -13,7 +13,14 @@ export function reservoirSheet(): SheetDocument {
         id: 'pars',
         kind: 'params',
         params: [
-          { name: 'kappa', value: 0.8, unit: '1/day', min: 0, max: 5, description: 'Pull towards the target level' },
+          {
+            name: 'kappa',
+            value: 0.8,
+            unit: '1/day',
+            min: 0,
+            max: 5,
+            description: 'Pull towards the target level',
+          },
           { name: 'target', value: 3.2, unit: 'm' },
           { name: 'sigma', value: 0.45, unit: 'm/sqrt(day)' },
           { name: 'L0', value: 2.1, unit: 'm' },
@@ -23,7 +30,9 @@ export function reservoirSheet(): SheetDocument {
         id: 'level-model',
         kind: 'model',
         name: 'Reservoir level',
-        states: [{ name: 'L', initial: 'L0', unit: 'm', drift: 'kappa * (target - L)', diffusion: { R: 'sigma' } }],
+        states: [
+          { name: 'L', initial: 'L0', unit: 'm', drift: 'kappa * (target - L)', diffusion: { R: 'sigma' } },
+        ],
         noises: [{ name: 'R', description: 'Rain and release' }],
         calculus: 'ito',
       },
@@ -44,19 +53,42 @@ export function reservoirSheet(): SheetDocument {
         overrides: {},
       },
       { id: 'level-chart', kind: 'chart', simulation: 'level-run', view: 'paths', state: 'L', pathCount: 20 },
-      { id: 'level-probe', kind: 'probe', simulation: 'level-run', quantity: 'exceedance', state: 'L', level: 4 },
-      { id: 'level-study', kind: 'study', simulation: 'level-run', levels: 5, coarsestSteps: 8, paths: 2000, reference: 'auto' },
+      {
+        id: 'level-probe',
+        kind: 'probe',
+        simulation: 'level-run',
+        quantity: 'exceedance',
+        state: 'L',
+        level: 4,
+      },
+      {
+        id: 'level-study',
+        kind: 'study',
+        simulation: 'level-run',
+        levels: 5,
+        coarsestSteps: 8,
+        paths: 2000,
+        reference: 'auto',
+      },
     ],
   };
 }
 
-export function cellOf<K extends Cell['kind']>(document: SheetDocument, id: string, kind: K): Extract<Cell, { kind: K }> {
+export function cellOf<K extends Cell['kind']>(
+  document: SheetDocument,
+  id: string,
+  kind: K,
+): Extract<Cell, { kind: K }> {
   const cell = document.cells.find((c) => c.id === id);
   if (!cell || cell.kind !== kind) throw new Error(`fixture has no ${kind} cell ${id}`);
   return cell as Extract<Cell, { kind: K }>;
 }
 
-export function editorProps<C extends Cell>(document: SheetDocument, cell: C, outputs: Record<string, CellOutput | undefined> = {}): CellEditorProps<C> {
+export function editorProps<C extends Cell>(
+  document: SheetDocument,
+  cell: C,
+  outputs: Record<string, CellOutput | undefined> = {},
+): CellEditorProps<C> {
   return { cell, document, issues: [], outputs, stale: false, readonly: false };
 }
 
@@ -80,14 +112,20 @@ function stats(saveCount: number, value: (k: number) => number): SavedStats {
  * A small hand-made run of one state: saved values are chosen so tests can predict what a chart
  * shows (it is not an engine output and does not claim to be one).
  */
-export function fakeRun(options: { paths?: number; samplePaths?: number; saveCount?: number } = {}): { plan: SimulationPlan; result: SimulationResult } {
+export function fakeRun(options: { paths?: number; samplePaths?: number; saveCount?: number } = {}): {
+  plan: SimulationPlan;
+  result: SimulationResult;
+} {
   const paths = options.paths ?? 100;
   const saveCount = options.saveCount ?? 11;
   const sampleCount = options.samplePaths ?? 30;
   const savedTimes = Float64Array.from({ length: saveCount }, (_, k) => (30 * k) / (saveCount - 1));
   const savedValues = new Float64Array(saveCount * paths);
-  for (let k = 0; k < saveCount; k += 1) for (let p = 0; p < paths; p += 1) savedValues[k * paths + p] = 2 + (p % 10) * 0.1 + k * 0.01;
-  const samplePaths = Array.from({ length: sampleCount }, (_, p) => Float64Array.from({ length: saveCount }, (_, k) => savedValues[k * paths + p]!));
+  for (let k = 0; k < saveCount; k += 1)
+    for (let p = 0; p < paths; p += 1) savedValues[k * paths + p] = 2 + (p % 10) * 0.1 + k * 0.01;
+  const samplePaths = Array.from({ length: sampleCount }, (_, p) =>
+    Float64Array.from({ length: saveCount }, (_, k) => savedValues[k * paths + p]!),
+  );
   const plan: SimulationPlan = {
     model: {
       stateNames: ['L'],

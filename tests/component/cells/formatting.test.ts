@@ -7,8 +7,16 @@ import type { SimulationCell } from '@shared/sheet/document';
 describe('number formatting', () => {
   it('rounds an estimate to the second significant digit of its standard error', () => {
     // Rounding rule: two significant digits of the error (common practice, no single source).
-    expect(formatEstimate(0.123456, 0.0056789, [0.11232, 0.13459])).toEqual({ estimate: '0.1235', standardError: '0.0057', low: '0.1123', high: '0.1346' });
-    expect(formatEstimate(1234.567, 12.3, [1210.5, 1258.6])).toMatchObject({ estimate: '1235', standardError: '12' });
+    expect(formatEstimate(0.123456, 0.0056789, [0.11232, 0.13459])).toEqual({
+      estimate: '0.1235',
+      standardError: '0.0057',
+      low: '0.1123',
+      high: '0.1346',
+    });
+    expect(formatEstimate(1234.567, 12.3, [1210.5, 1258.6])).toMatchObject({
+      estimate: '1235',
+      standardError: '12',
+    });
   });
 
   it('writes negative numbers with a minus sign and never "−0"', () => {
@@ -27,8 +35,14 @@ describe('number fields', () => {
     expect(parseNumberText(' -1.5e-3 ')).toEqual({ ok: true, value: -0.0015 });
     expect(parseNumberText('abc')).toMatchObject({ ok: false });
     expect(parseNumberText('0x10')).toMatchObject({ ok: false });
-    expect(parseIntegerText('2.5', 'paths', { min: 1, max: 10 })).toMatchObject({ ok: false, message: /whole number/ });
-    expect(parseIntegerText('11', 'paths', { min: 1, max: 10 })).toMatchObject({ ok: false, message: /between 1 and 10/ });
+    expect(parseIntegerText('2.5', 'paths', { min: 1, max: 10 })).toMatchObject({
+      ok: false,
+      message: /whole number/,
+    });
+    expect(parseIntegerText('11', 'paths', { min: 1, max: 10 })).toMatchObject({
+      ok: false,
+      message: /between 1 and 10/,
+    });
   });
 });
 

@@ -1,5 +1,11 @@
 import { describe, expect, it } from 'vitest';
-import { addNoise, correlationProblem, removeNoise, renameNoise, setCorrelationEntry } from '@/components/cells/modelEdits';
+import {
+  addNoise,
+  correlationProblem,
+  removeNoise,
+  renameNoise,
+  setCorrelationEntry,
+} from '@/components/cells/modelEdits';
 import type { ModelCell } from '@shared/sheet/document';
 
 const model: ModelCell = {

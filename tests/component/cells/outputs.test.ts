@@ -34,7 +34,11 @@ describe('ProbeCell', () => {
     const sheet = reservoirSheet();
     const probe = cellOf(sheet, 'level-probe', 'probe');
     const outputs: Record<string, CellOutput> = {
-      'level-probe': { kind: 'probe', estimate: { estimate: 0.08215, standardError: 0.001941, ci: [0.07846, 0.08604], paths: 20000 }, finishedAt },
+      'level-probe': {
+        kind: 'probe',
+        estimate: { estimate: 0.08215, standardError: 0.001941, ci: [0.07846, 0.08604], paths: 20000 },
+        finishedAt,
+      },
     };
     const wrapper = mount(ProbeCell, { props: editorProps(sheet, probe, outputs) });
     mounted.push(wrapper);
@@ -66,7 +70,14 @@ describe('ProbeCell', () => {
     mounted.push(wrapper);
     await wrapper.find('select[aria-label="Quantity"]').setValue('quantile');
     const updated = (wrapper.emitted('update') as [unknown][]).at(-1)![0];
-    expect(updated).toEqual({ id: 'level-probe', kind: 'probe', simulation: 'level-run', quantity: 'quantile', state: 'L', probability: 0.5 });
+    expect(updated).toEqual({
+      id: 'level-probe',
+      kind: 'probe',
+      simulation: 'level-run',
+      quantity: 'quantile',
+      state: 'L',
+      probability: 0.5,
+    });
   });
 });
 
@@ -74,14 +85,20 @@ describe('ChartCell', () => {
   it('draws the chosen number of sample paths and says how many in its accessible name', async () => {
     const sheet = reservoirSheet();
     const chart = cellOf(sheet, 'level-chart', 'chart');
-    const wrapper = mount(ChartCell, { props: editorProps(sheet, chart, { 'level-run': simulationOutput() }) });
+    const wrapper = mount(ChartCell, {
+      props: editorProps(sheet, chart, { 'level-run': simulationOutput() }),
+    });
     mounted.push(wrapper);
     await flushPromises();
     const root = wrapper.find('[role="img"]');
     expect(root.attributes('aria-label')).toBe('Sample paths of L: 20 paths');
     expect(wrapper.text()).toContain('20 sample paths shown');
     expect(plotly.react).toHaveBeenCalled();
-    const [, traces, layout] = plotly.react.mock.calls.at(-1)! as unknown as [HTMLElement, unknown[], { yaxis: { title: { text: string } } }];
+    const [, traces, layout] = plotly.react.mock.calls.at(-1)! as unknown as [
+      HTMLElement,
+      unknown[],
+      { yaxis: { title: { text: string } } },
+    ];
     expect(traces).toHaveLength(20);
     expect(layout.yaxis.title.text).toBe('L (m)');
   });
@@ -89,22 +106,34 @@ describe('ChartCell', () => {
   it('offers PNG, SVG and CSV downloads', async () => {
     const sheet = reservoirSheet();
     const chart = cellOf(sheet, 'level-chart', 'chart');
-    const wrapper = mount(ChartCell, { props: editorProps(sheet, chart, { 'level-run': simulationOutput() }) });
+    const wrapper = mount(ChartCell, {
+      props: editorProps(sheet, chart, { 'level-run': simulationOutput() }),
+    });
     mounted.push(wrapper);
     await flushPromises();
     const buttons = wrapper.findAll('button').map((b) => b.text());
     expect(buttons).toEqual(expect.arrayContaining(['Download PNG', 'Download SVG', 'Download CSV']));
-    await wrapper.findAll('button').find((b) => b.text() === 'Download SVG')!.trigger('click');
-    expect(plotly.downloadImage).toHaveBeenCalledWith(expect.any(HTMLElement), expect.objectContaining({ format: 'svg' }));
+    await wrapper
+      .findAll('button')
+      .find((b) => b.text() === 'Download SVG')!
+      .trigger('click');
+    expect(plotly.downloadImage).toHaveBeenCalledWith(
+      expect.any(HTMLElement),
+      expect.objectContaining({ format: 'svg' }),
+    );
   });
 
   it('overlays the exact Ornstein–Uhlenbeck density on a histogram', async () => {
     const sheet = reservoirSheet();
     const chart = { ...cellOf(sheet, 'level-chart', 'chart'), view: 'histogram' as const };
-    const wrapper = mount(ChartCell, { props: editorProps(sheet, chart, { 'level-run': simulationOutput() }) });
+    const wrapper = mount(ChartCell, {
+      props: editorProps(sheet, chart, { 'level-run': simulationOutput() }),
+    });
     mounted.push(wrapper);
     await flushPromises();
-    expect(wrapper.find('[role="img"]').attributes('aria-label')).toBe('Histogram of L at t = 30.00: 100 paths, with the exact Ornstein–Uhlenbeck density');
+    expect(wrapper.find('[role="img"]').attributes('aria-label')).toBe(
+      'Histogram of L at t = 30: 100 paths, with the exact Ornstein–Uhlenbeck density',
+    );
   });
 
   it('says to run the simulation when it has no output yet', () => {
@@ -122,7 +151,9 @@ describe('SimulationCell output', () => {
     const output = simulationOutput();
     if (output.kind !== 'simulation') throw new Error('fixture');
     output.result.blowups = { count: 3, firstTime: 12.5, suggestion: 'Try a smaller step.' };
-    const wrapper = mount(SimulationCell, { props: editorProps(sheet, cellOf(sheet, 'level-run', 'simulation'), { 'level-run': output }) });
+    const wrapper = mount(SimulationCell, {
+      props: editorProps(sheet, cellOf(sheet, 'level-run', 'simulation'), { 'level-run': output }),
+    });
     mounted.push(wrapper);
     const summary = wrapper.find('[aria-label="Simulation summary"]');
     expect(summary.text()).toMatch(/3 paths blew up\s+\(first at t = 12\.5\)/);
@@ -138,7 +169,14 @@ describe('StudyCell', () => {
     const sheet = reservoirSheet();
     const study = cellOf(sheet, 'level-study', 'study');
     const result: StudyResult = {
-      levels: [8, 16, 32].map((steps) => ({ steps, h: 30 / steps, strongError: 0.2 * Math.sqrt(30 / steps), strongSE: 0.004, weakError: 0.05 * (30 / steps), weakSE: 0.002 })),
+      levels: [8, 16, 32].map((steps) => ({
+        steps,
+        h: 30 / steps,
+        strongError: 0.2 * Math.sqrt(30 / steps),
+        strongSE: 0.004,
+        weakError: 0.05 * (30 / steps),
+        weakSE: 0.002,
+      })),
       strongOrder: 0.503,
       strongOrderSE: 0.021,
       strongOrderCI: [0.462, 0.544],
@@ -149,11 +187,15 @@ describe('StudyCell', () => {
       paths: 2000,
       excluded: 0,
     };
-    const outputs: Record<string, CellOutput> = { 'level-study': { kind: 'study', plan: fakeRun().plan, result, finishedAt, seconds: 3 } };
+    const outputs: Record<string, CellOutput> = {
+      'level-study': { kind: 'study', plan: fakeRun().plan, result, finishedAt, seconds: 3 },
+    };
     const wrapper = mount(StudyCell, { props: editorProps(sheet, study, outputs) });
     mounted.push(wrapper);
     await flushPromises();
-    expect(wrapper.find('[role="img"]').attributes('aria-label')).toMatch(/strong and weak error against step size at 3 levels/);
+    expect(wrapper.find('[role="img"]').attributes('aria-label')).toMatch(
+      /strong and weak error against step size at 3 levels/,
+    );
     const orders = wrapper.find('table[aria-label="Fitted orders"]').text();
     expect(orders).toMatch(/0\.503 ± 0\.021/);
     expect(orders).toMatch(/\[0\.462, 0\.544\]/);

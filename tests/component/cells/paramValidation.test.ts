@@ -1,8 +1,21 @@
 import { describe, expect, it } from 'vitest';
-import { applyParamField, checkParamRow, nameProblem, type ParamRowText } from '@/components/cells/paramValidation';
+import {
+  applyParamField,
+  checkParamRow,
+  nameProblem,
+  type ParamRowText,
+} from '@/components/cells/paramValidation';
 import { RESERVED_NAMES } from '@/components/cells/expressionCheck';
 
-const row = (over: Partial<ParamRowText>): ParamRowText => ({ name: 'rate', value: '0.4', unit: '', min: '', max: '', description: '', ...over });
+const row = (over: Partial<ParamRowText>): ParamRowText => ({
+  name: 'rate',
+  value: '0.4',
+  unit: '',
+  min: '',
+  max: '',
+  description: '',
+  ...over,
+});
 const context = { otherNames: ['capacity', 'harvest'], reserved: RESERVED_NAMES };
 
 describe('parameter rows', () => {
@@ -24,7 +37,9 @@ describe('parameter rows', () => {
   it('accepts an expression of other parameters as a value, and explains a bad one', () => {
     expect(checkParamRow(row({ value: 'capacity / 2' }), context).value).toBeUndefined();
     expect(checkParamRow(row({ value: 'capacity ^ 2' }), context).value).toMatch(/\*\*/);
-    expect(checkParamRow(row({ value: 'unknownThing + 1' }), context).value).toMatch(/Not a number, and not a valid expression/);
+    expect(checkParamRow(row({ value: 'unknownThing + 1' }), context).value).toMatch(
+      /Not a number, and not a valid expression/,
+    );
   });
 
   it('flags a numeric value outside min..max', () => {
@@ -35,7 +50,10 @@ describe('parameter rows', () => {
     const param = { name: 'rate', value: 0.4 };
     expect(applyParamField(param, 'min', '0.1', {})).toEqual({ name: 'rate', value: 0.4, min: 0.1 });
     expect(applyParamField(param, 'min', 'abc', { min: 'bad' })).toBeNull();
-    expect(applyParamField(param, 'value', 'capacity / 3', {})).toEqual({ name: 'rate', value: 'capacity / 3' });
+    expect(applyParamField(param, 'value', 'capacity / 3', {})).toEqual({
+      name: 'rate',
+      value: 'capacity / 3',
+    });
     expect(applyParamField(param, 'unit', '', {})).toEqual(param);
   });
 });
