@@ -1,21 +1,19 @@
-import { createRequire } from 'node:module';
-import { dirname, join } from 'node:path';
-import { pathToFileURL } from 'node:url';
 import { Worker, type WorkerOptions } from 'node:worker_threads';
 
 /**
  * Starts a worker thread whose entry file is TypeScript. On Node 20 a worker does not pick up
  * tsx's hooks from `execArgv: ['--import', 'tsx']` for its own entry file ("Unknown file
- * extension .ts"), so a tiny bootstrap registers tsx inside the thread and then imports the file.
+ * extension .ts"), so a small JavaScript bootstrap registers tsx inside the thread and then
+ * imports the file. The caller's own `workerData` reaches the thread as `workerData.data`.
  */
-function tsxApiUrl(): string {
-  // import.meta.resolve is there under plain Node and tsx; some test runners leave it out.
-  if (typeof import.meta.resolve === 'function') return import.meta.resolve('tsx/esm/api');
-  const packageJson = createRequire(import.meta.url).resolve('tsx/package.json');
-  return pathToFileURL(join(dirname(packageJson), 'dist/esm/api/index.mjs')).href;
+const bootstrapUrl = new URL('./ts-worker-bootstrap.mjs', import.meta.url);
+
+export interface TypeScriptWorkerData<T> {
+  tsEntry: string;
+  data: T;
 }
 
-export function startTypeScriptWorker(entry: URL, options: Omit<WorkerOptions, 'eval'> = {}): Worker {
-  const bootstrap = `import(${JSON.stringify(tsxApiUrl())}).then(({ register }) => { register(); return import(${JSON.stringify(entry.href)}); });`;
-  return new Worker(bootstrap, { ...options, eval: true });
+export function startTypeScriptWorker(entry: URL, options: WorkerOptions = {}): Worker {
+  const workerData: TypeScriptWorkerData<unknown> = { tsEntry: entry.href, data: options.workerData };
+  return new Worker(bootstrapUrl, { ...options, workerData });
 }

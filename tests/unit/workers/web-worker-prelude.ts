@@ -20,4 +20,4 @@ scope.removeEventListener = (type, listener) => {
 };
 scope.postMessage = (message, transfer = []) => port.postMessage(message, transfer as never);
 
-await import((workerData as { entry: string }).entry);
+await import((workerData as { data: { entry: string } }).data.entry);
