@@ -5,17 +5,26 @@
  */
 export function choleskyOfCorrelation(correlation: number[][], noiseCount: number): Float64Array {
   if (correlation.length !== noiseCount || correlation.some((row) => row.length !== noiseCount)) {
-    throw new RangeError(`the noise correlation matrix must be ${noiseCount} × ${noiseCount}, one row and column per noise source`);
+    throw new RangeError(
+      `the noise correlation matrix must be ${noiseCount} × ${noiseCount}, one row and column per noise source`,
+    );
   }
   for (let i = 0; i < noiseCount; i++) {
     for (let j = 0; j < noiseCount; j++) {
       const c = correlation[i]![j]!;
-      if (!Number.isFinite(c)) throw new RangeError(`the noise correlation matrix has a non-finite entry at row ${i + 1}, column ${j + 1}`);
-      if (i === j && Math.abs(c - 1) > 1e-12) throw new RangeError(`a correlation matrix has 1 on its diagonal; row ${i + 1} has ${c}`);
+      if (!Number.isFinite(c))
+        throw new RangeError(
+          `the noise correlation matrix has a non-finite entry at row ${i + 1}, column ${j + 1}`,
+        );
+      if (i === j && Math.abs(c - 1) > 1e-12)
+        throw new RangeError(`a correlation matrix has 1 on its diagonal; row ${i + 1} has ${c}`);
       if (Math.abs(c - correlation[j]![i]!) > 1e-12) {
-        throw new RangeError(`the noise correlation matrix must be symmetric; entries (${i + 1}, ${j + 1}) and (${j + 1}, ${i + 1}) differ`);
+        throw new RangeError(
+          `the noise correlation matrix must be symmetric; entries (${i + 1}, ${j + 1}) and (${j + 1}, ${i + 1}) differ`,
+        );
       }
-      if (Math.abs(c) > 1) throw new RangeError(`a correlation lies in [−1, 1]; entry (${i + 1}, ${j + 1}) is ${c}`);
+      if (Math.abs(c) > 1)
+        throw new RangeError(`a correlation lies in [−1, 1]; entry (${i + 1}, ${j + 1}) is ${c}`);
     }
   }
   const factor = new Float64Array(noiseCount * noiseCount);

@@ -103,7 +103,8 @@ function watchUpdates(plan: SimulationPlan, time: string): string {
   return plan.watches
     .map((watch, w) => {
       const level = numberLiteral(watch.level);
-      const reached = watch.direction === 'below' ? `s${watch.state} <= ${level}` : `s${watch.state} >= ${level}`;
+      const reached =
+        watch.direction === 'below' ? `s${watch.state} <= ${level}` : `s${watch.state} >= ${level}`;
       return `if (hw${w} === 0 && ${reached}) { hw${w} = 1; fp${w} = ${time}; }`;
     })
     .join('\n');
@@ -130,7 +131,9 @@ export function buildKernelSource(plan: SimulationPlan, layout: PlanLayout): str
   const saveNaN = states.map((i) => `saved[(k * ${d} + ${i}) * pathCount + p] = NaN;`).join(' ');
   const probe = states.map((i) => `probeValues[(j * ${d} + ${i}) * pathCount + p] = s${i};`).join(' ');
   const probeNaN = states.map((i) => `probeValues[(j * ${d} + ${i}) * pathCount + p] = NaN;`).join(' ');
-  const running = states.map((i) => `if (s${i} > mx${i}) mx${i} = s${i}; if (s${i} < mn${i}) mn${i} = s${i};`).join('\n');
+  const running = states
+    .map((i) => `if (s${i} > mx${i}) mx${i} = s${i}; if (s${i} < mn${i}) mn${i} = s${i};`)
+    .join('\n');
   const absorbing = plan.boundaries.map((rule, i) => (rule.rule === 'absorb' ? i : -1)).filter((i) => i >= 0);
 
   return `"use strict";
@@ -204,7 +207,9 @@ ${initialValues(plan)}
 ${p.initialBoundaries}
 for (n = 1; n <= steps; n++) {
   ${p.timeUpdate}
-  ${range(m).map((j) => `dw${j} = increments[(n - 1) * ${m} + ${j}];`).join(' ')}
+  ${range(m)
+    .map((j) => `dw${j} = increments[(n - 1) * ${m} + ${j}];`)
+    .join(' ')}
   ${p.stepAndBoundaries}
   if (${p.blowupTest}) { ${states.map((i) => `out[${i}] = NaN;`).join(' ')} return 1; }
 }

@@ -33,24 +33,38 @@ export function planLayout(plan: SimulationPlan): PlanLayout {
   const stateCount = model.stateNames.length;
   const noiseCount = model.noiseNames.length;
   if (stateCount < 1) throw new RangeError('a model needs at least one state variable');
-  if (model.drift.length !== stateCount) throw new RangeError(`expected ${stateCount} drift expressions, got ${model.drift.length}`);
-  if (model.initial.length !== stateCount) throw new RangeError(`expected ${stateCount} initial values, got ${model.initial.length}`);
+  if (model.drift.length !== stateCount)
+    throw new RangeError(`expected ${stateCount} drift expressions, got ${model.drift.length}`);
+  if (model.initial.length !== stateCount)
+    throw new RangeError(`expected ${stateCount} initial values, got ${model.initial.length}`);
   if (model.diffusion.length !== stateCount || model.diffusion.some((row) => row.length !== noiseCount)) {
-    throw new RangeError(`the diffusion must have ${stateCount} rows of ${noiseCount} entries (one per noise source)`);
+    throw new RangeError(
+      `the diffusion must have ${stateCount} rows of ${noiseCount} entries (one per noise source)`,
+    );
   }
   model.initial.forEach((value, i) => {
-    if (!Number.isFinite(value)) throw new RangeError(`the initial value of ${model.stateNames[i]} is not a finite number (${value})`);
+    if (!Number.isFinite(value))
+      throw new RangeError(`the initial value of ${model.stateNames[i]} is not a finite number (${value})`);
   });
   if (!Number.isFinite(plan.t0) || !Number.isFinite(plan.t1) || !(plan.t1 > plan.t0)) {
     throw new RangeError(`the end time must be after the start time (got ${plan.t0} to ${plan.t1})`);
   }
-  if (!Number.isInteger(plan.steps) || plan.steps < 1) throw new RangeError(`steps must be a positive integer, got ${plan.steps}`);
-  if (!Number.isInteger(plan.paths) || plan.paths < 1) throw new RangeError(`paths must be a positive integer, got ${plan.paths}`);
-  if (!Number.isInteger(plan.seed) || plan.seed < 0 || plan.seed > 0xffffffff) throw new RangeError(`the seed must be an integer from 0 to 4294967295, got ${plan.seed}`);
-  if (!Number.isInteger(plan.saveCount) || plan.saveCount < 2) throw new RangeError(`saveCount must be an integer of at least 2, got ${plan.saveCount}`);
-  if (!Number.isInteger(plan.samplePaths) || plan.samplePaths < 0) throw new RangeError(`samplePaths must be a non-negative integer, got ${plan.samplePaths}`);
-  if (plan.boundaries.length !== stateCount) throw new RangeError(`expected one boundary rule per state variable (${stateCount}), got ${plan.boundaries.length}`);
-  if (plan.blowupBound !== null && !(plan.blowupBound > 0)) throw new RangeError(`the blow-up bound must be positive, got ${plan.blowupBound}`);
+  if (!Number.isInteger(plan.steps) || plan.steps < 1)
+    throw new RangeError(`steps must be a positive integer, got ${plan.steps}`);
+  if (!Number.isInteger(plan.paths) || plan.paths < 1)
+    throw new RangeError(`paths must be a positive integer, got ${plan.paths}`);
+  if (!Number.isInteger(plan.seed) || plan.seed < 0 || plan.seed > 0xffffffff)
+    throw new RangeError(`the seed must be an integer from 0 to 4294967295, got ${plan.seed}`);
+  if (!Number.isInteger(plan.saveCount) || plan.saveCount < 2)
+    throw new RangeError(`saveCount must be an integer of at least 2, got ${plan.saveCount}`);
+  if (!Number.isInteger(plan.samplePaths) || plan.samplePaths < 0)
+    throw new RangeError(`samplePaths must be a non-negative integer, got ${plan.samplePaths}`);
+  if (plan.boundaries.length !== stateCount)
+    throw new RangeError(
+      `expected one boundary rule per state variable (${stateCount}), got ${plan.boundaries.length}`,
+    );
+  if (plan.blowupBound !== null && !(plan.blowupBound > 0))
+    throw new RangeError(`the blow-up bound must be positive, got ${plan.blowupBound}`);
   const savedValues = plan.paths * (plan.saveCount + plan.probeTimes.length) * stateCount;
   if (savedValues > MAX_SAVED_VALUES) {
     throw new RangeError(
@@ -58,7 +72,8 @@ export function planLayout(plan: SimulationPlan): PlanLayout {
     );
   }
   for (const watch of plan.watches) {
-    if (!Number.isInteger(watch.state) || watch.state < 0 || watch.state >= stateCount) throw new RangeError(`a watch names state ${watch.state}, which does not exist`);
+    if (!Number.isInteger(watch.state) || watch.state < 0 || watch.state >= stateCount)
+      throw new RangeError(`a watch names state ${watch.state}, which does not exist`);
     if (!Number.isFinite(watch.level)) throw new RangeError('a watched level must be a finite number');
   }
 
@@ -90,6 +105,9 @@ export function planLayout(plan: SimulationPlan): PlanLayout {
   sorted.forEach((j, q) => (probeOrder[q] = j));
   probeOrder[probeCount] = -1;
 
-  const cholesky = model.correlation === null || noiseCount === 0 ? null : choleskyOfCorrelation(model.correlation, noiseCount);
+  const cholesky =
+    model.correlation === null || noiseCount === 0
+      ? null
+      : choleskyOfCorrelation(model.correlation, noiseCount);
   return { stateCount, noiseCount, h, saveSteps, savedTimes, probeSteps, probeTimes, probeOrder, cholesky };
 }

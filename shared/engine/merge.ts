@@ -1,5 +1,12 @@
 import type { SimulationPlan } from './plan';
-import type { ChunkResult, ExtinctionSummary, ProbeSeries, SavedStats, SimulationResult, BlowupSummary } from './result';
+import type {
+  ChunkResult,
+  ExtinctionSummary,
+  ProbeSeries,
+  SavedStats,
+  SimulationResult,
+  BlowupSummary,
+} from './result';
 import { planLayout } from './layout';
 import { moments, quantilesInPlace } from './statistics';
 import { Fnv1a64 } from './digest';
@@ -9,16 +16,31 @@ function checkChunks(plan: SimulationPlan, chunks: ChunkResult[], stateCount: nu
   if (chunks.length === 0) throw new RangeError('nothing to merge: no chunks were given');
   let expectedFirst = chunks[0]!.firstPath;
   for (const chunk of chunks) {
-    if (chunk.stateCount !== stateCount || chunk.saveCount !== plan.saveCount || chunk.watchCount !== plan.watches.length || chunk.probeCount !== plan.probeTimes.length) {
+    if (
+      chunk.stateCount !== stateCount ||
+      chunk.saveCount !== plan.saveCount ||
+      chunk.watchCount !== plan.watches.length ||
+      chunk.probeCount !== plan.probeTimes.length
+    ) {
       throw new RangeError('a chunk does not belong to this plan (its sizes differ)');
     }
-    if (chunk.firstPath !== expectedFirst) throw new RangeError(`chunks must be given in path order without gaps; expected a chunk starting at path ${expectedFirst}, got ${chunk.firstPath}`);
+    if (chunk.firstPath !== expectedFirst)
+      throw new RangeError(
+        `chunks must be given in path order without gaps; expected a chunk starting at path ${expectedFirst}, got ${chunk.firstPath}`,
+      );
     expectedFirst = chunk.firstPath + chunk.pathCount;
   }
 }
 
 /** Copies column `column` (of `rows` rows of chunk.pathCount) of each chunk's done paths into one array. */
-function gather(chunks: ChunkResult[], pick: (chunk: ChunkResult) => Float64Array, column: number, paths: number, into?: Float64Array, at = 0): Float64Array {
+function gather(
+  chunks: ChunkResult[],
+  pick: (chunk: ChunkResult) => Float64Array,
+  column: number,
+  paths: number,
+  into?: Float64Array,
+  at = 0,
+): Float64Array {
   const out = into ?? new Float64Array(paths);
   let offset = at;
   for (const chunk of chunks) {
@@ -32,7 +54,12 @@ function gather(chunks: ChunkResult[], pick: (chunk: ChunkResult) => Float64Arra
 /** Minimum, the five reported quantiles, maximum. */
 const SAVED_PROBABILITIES = [0, 0.05, 0.25, 0.5, 0.75, 0.95, 1] as const;
 
-function savedStats(values: Float64Array, paths: number, saveCount: number, scratch: Float64Array): SavedStats {
+function savedStats(
+  values: Float64Array,
+  paths: number,
+  saveCount: number,
+  scratch: Float64Array,
+): SavedStats {
   const stats: SavedStats = {
     mean: new Float64Array(saveCount),
     variance: new Float64Array(saveCount),
@@ -80,7 +107,10 @@ function blowupSummary(plan: SimulationPlan, blowupTime: Float64Array, h: number
     }
   }
   if (count === 0) return { count, firstTime: null, suggestion: null };
-  const bound = plan.blowupBound === null ? 'became infinite or not a number' : `left [−${plan.blowupBound}, ${plan.blowupBound}] or became infinite`;
+  const bound =
+    plan.blowupBound === null
+      ? 'became infinite or not a number'
+      : `left [−${plan.blowupBound}, ${plan.blowupBound}] or became infinite`;
   const suggestion =
     `${count} of ${blowupTime.length} paths ${bound} (first at t = ${firstTime.toPrecision(4)}); they are left out of the statistics. ` +
     `Try a smaller step: h = ${(h / 4).toPrecision(3)} (${plan.steps * 4} steps) instead of ${h.toPrecision(3)}. ` +
@@ -104,7 +134,12 @@ function extinctionSummaries(plan: SimulationPlan, absorptionTime: Float64Array[
         if (time < firstTime) firstTime = time;
       }
     }
-    summaries.push({ state, count, firstTime: count > 0 ? firstTime : null, meanTime: count > 0 ? sum / count : null });
+    summaries.push({
+      state,
+      count,
+      firstTime: count > 0 ? firstTime : null,
+      meanTime: count > 0 ? sum / count : null,
+    });
   });
   return summaries;
 }
@@ -145,14 +180,17 @@ export function mergeChunks(plan: SimulationPlan, chunks: ChunkResult[]): Simula
   const runningMax = Array.from({ length: d }, (_, i) => gather(chunks, (c) => c.runningMax, i, paths));
   const runningMin = Array.from({ length: d }, (_, i) => gather(chunks, (c) => c.runningMin, i, paths));
   const firstPassage = plan.watches.map((_, w) => gather(chunks, (c) => c.firstPassage, w, paths));
-  const absorptionTime = Array.from({ length: d }, (_, i) => gather(chunks, (c) => c.absorptionTime, i, paths));
+  const absorptionTime = Array.from({ length: d }, (_, i) =>
+    gather(chunks, (c) => c.absorptionTime, i, paths),
+  );
   const blowupTime = gather(chunks, (c) => c.blowupTime, 0, paths);
   const blowups = blowupSummary(plan, blowupTime, layout.h);
 
   const digest = new Fnv1a64().addNumber(paths).addNumber(blowups.count).addNumbers(layout.savedTimes);
   for (let i = 0; i < d; i++) {
     const s = stats[i]!;
-    for (const column of [s.mean, s.variance, s.q05, s.q25, s.q50, s.q75, s.q95, s.min, s.max, s.live]) digest.addNumbers(column);
+    for (const column of [s.mean, s.variance, s.q05, s.q25, s.q50, s.q75, s.q95, s.min, s.max, s.live])
+      digest.addNumbers(column);
     digest.addNumbers(finalValues[i]!);
   }
 

@@ -40,17 +40,26 @@ function joinNotes(...notes: (string | undefined)[]): string | undefined {
 }
 
 /** Path values of one state at `time` (t1 by default): from the probe times, else the saved grid. */
-export function valuesAt(result: SimulationResult, state: number, time: number | undefined): { time: number; values: Float64Array } {
-  if (time === undefined || Math.abs(time - result.t1) <= result.h / 2) return { time: result.t1, values: result.finalValues[state]! };
+export function valuesAt(
+  result: SimulationResult,
+  state: number,
+  time: number | undefined,
+): { time: number; values: Float64Array } {
+  if (time === undefined || Math.abs(time - result.t1) <= result.h / 2)
+    return { time: result.t1, values: result.finalValues[state]! };
   for (const probe of result.probes) {
-    if (probe.requested === time || Math.abs(probe.time - time) <= result.h / 2) return { time: probe.time, values: probe.values[state]! };
+    if (probe.requested === time || Math.abs(probe.time - time) <= result.h / 2)
+      return { time: probe.time, values: probe.values[state]! };
   }
   let nearest = 0;
   result.savedTimes.forEach((saved, k) => {
     if (Math.abs(saved - time) < Math.abs(result.savedTimes[nearest]! - time)) nearest = k;
   });
   if (Math.abs(result.savedTimes[nearest]! - time) <= result.h / 2) {
-    return { time: result.savedTimes[nearest]!, values: result.savedValues[state]!.subarray(nearest * result.paths, (nearest + 1) * result.paths) };
+    return {
+      time: result.savedTimes[nearest]!,
+      values: result.savedValues[state]!.subarray(nearest * result.paths, (nearest + 1) * result.paths),
+    };
   }
   throw new RangeError(
     `no path values were kept at t = ${time}; the nearest saved time is ${result.savedTimes[nearest]}. Ask for this time in a probe before the run, or read the probe at a saved time.`,
@@ -62,14 +71,21 @@ function blownUp(result: SimulationResult, path: number): boolean {
 }
 
 function requireLevel(probe: ProbeRequest): number {
-  if (probe.level === undefined || !Number.isFinite(probe.level)) throw new RangeError(`the ${probe.quantity} probe needs a level`);
+  if (probe.level === undefined || !Number.isFinite(probe.level))
+    throw new RangeError(`the ${probe.quantity} probe needs a level`);
   return probe.level;
 }
 
 function mean(values: ArrayLike<number>, note: string | undefined): ProbeEstimate {
   const m = moments(values);
   const standardError = Math.sqrt(m.variance / m.count);
-  return { estimate: m.mean, standardError, ci: [m.mean - Z95 * standardError, m.mean + Z95 * standardError], paths: m.count, ...(note ? { note } : {}) };
+  return {
+    estimate: m.mean,
+    standardError,
+    ci: [m.mean - Z95 * standardError, m.mean + Z95 * standardError],
+    paths: m.count,
+    ...(note ? { note } : {}),
+  };
 }
 
 /**
@@ -81,7 +97,13 @@ function variance(values: ArrayLike<number>, note: string | undefined): ProbeEst
   const n = m.count;
   const s2 = m.variance;
   const standardError = Math.sqrt(Math.max(0, m.fourthCentral - (s2 * s2 * (n - 3)) / (n - 1)) / n);
-  return { estimate: s2, standardError, ci: [s2 - Z95 * standardError, s2 + Z95 * standardError], paths: n, ...(note ? { note } : {}) };
+  return {
+    estimate: s2,
+    standardError,
+    ci: [s2 - Z95 * standardError, s2 + Z95 * standardError],
+    paths: n,
+    ...(note ? { note } : {}),
+  };
 }
 
 /**
@@ -89,11 +111,23 @@ function variance(values: ArrayLike<number>, note: string | undefined): ProbeEst
  * ⌊np − z√(np(1−p))⌋ and ⌈np + z√(np(1−p))⌉ (normal approximation to the binomial; Conover 1999,
  * Practical Nonparametric Statistics, §3.2). The standard error is the interval's width / 2z.
  */
-export function quantileEstimate(values: ArrayLike<number>, probability: number, note?: string): ProbeEstimate {
-  if (!(probability > 0 && probability < 1)) throw new RangeError(`a quantile's probability lies strictly between 0 and 1, got ${probability}`);
+export function quantileEstimate(
+  values: ArrayLike<number>,
+  probability: number,
+  note?: string,
+): ProbeEstimate {
+  if (!(probability > 0 && probability < 1))
+    throw new RangeError(`a quantile's probability lies strictly between 0 and 1, got ${probability}`);
   const scratch = new Float64Array(values.length);
   const n = sortFinite(values, scratch);
-  if (n === 0) return { estimate: NaN, standardError: NaN, ci: [NaN, NaN], paths: 0, note: joinNotes(note, 'no live paths') };
+  if (n === 0)
+    return {
+      estimate: NaN,
+      standardError: NaN,
+      ci: [NaN, NaN],
+      paths: 0,
+      note: joinNotes(note, 'no live paths'),
+    };
   const estimate = quantileSorted(scratch, n, probability);
   const spread = Z95 * Math.sqrt(n * probability * (1 - probability));
   const lowerRank = Math.max(1, Math.floor(n * probability - spread));
@@ -102,19 +136,33 @@ export function quantileEstimate(values: ArrayLike<number>, probability: number,
   return { estimate, standardError: (ci[1] - ci[0]) / (2 * Z95), ci, paths: n, ...(note ? { note } : {}) };
 }
 
-function watchIndex(result: SimulationResult, state: number, level: number, direction: 'above' | 'below'): number {
-  return result.watches.findIndex((watch) => watch.state === state && watch.level === level && watch.direction === direction);
+function watchIndex(
+  result: SimulationResult,
+  state: number,
+  level: number,
+  direction: 'above' | 'below',
+): number {
+  return result.watches.findIndex(
+    (watch) => watch.state === state && watch.level === level && watch.direction === direction,
+  );
 }
 
 /** Hit indicator per live path: reached `level` from `direction` by `time`. */
-function hits(result: SimulationResult, probe: ProbeRequest, level: number, direction: 'above' | 'below'): { hit: Uint8Array; live: Uint8Array } {
+function hits(
+  result: SimulationResult,
+  probe: ProbeRequest,
+  level: number,
+  direction: 'above' | 'below',
+): { hit: Uint8Array; live: Uint8Array } {
   const time = probe.time ?? result.t1;
   const watch = watchIndex(result, probe.state, level, direction);
   const hit = new Uint8Array(result.paths);
   const live = new Uint8Array(result.paths);
   const atEnd = Math.abs(time - result.t1) <= result.h / 2;
   if (watch < 0 && !atEnd) {
-    throw new RangeError(`P(hit ${level} before t = ${time}) needs the level to be watched during the run; only t1 = ${result.t1} can be read from the running extremes`);
+    throw new RangeError(
+      `P(hit ${level} before t = ${time}) needs the level to be watched during the run; only t1 = ${result.t1} can be read from the running extremes`,
+    );
   }
   for (let p = 0; p < result.paths; p++) {
     if (blownUp(result, p)) continue;
@@ -135,7 +183,10 @@ function firstPassage(result: SimulationResult, probe: ProbeRequest): ProbeEstim
   const level = requireLevel(probe);
   const direction = probe.direction ?? 'above';
   const watch = watchIndex(result, probe.state, level, direction);
-  if (watch < 0) throw new RangeError(`first-passage times to ${level} (${direction}) were not recorded: the level must be watched during the run`);
+  if (watch < 0)
+    throw new RangeError(
+      `first-passage times to ${level} (${direction}) were not recorded: the level must be watched during the run`,
+    );
   const time = probe.time ?? result.t1;
   const reached: number[] = [];
   let live = 0;
@@ -145,10 +196,20 @@ function firstPassage(result: SimulationResult, probe: ProbeRequest): ProbeEstim
     const passage = result.firstPassage[watch]![p]!;
     if (passage <= time + result.h / 2) reached.push(passage);
   }
-  const note = joinNotes(`${reached.length} of ${live} paths reached ${level} by t = ${time}`, blowupNote(result));
+  const note = joinNotes(
+    `${reached.length} of ${live} paths reached ${level} by t = ${time}`,
+    blowupNote(result),
+  );
   const times = Float64Array.from(reached);
   if (probe.probability !== undefined) return quantileEstimate(times, probe.probability, note);
-  if (times.length < 2) return { estimate: times.length === 1 ? times[0]! : NaN, standardError: NaN, ci: [NaN, NaN], paths: times.length, ...(note ? { note } : {}) };
+  if (times.length < 2)
+    return {
+      estimate: times.length === 1 ? times[0]! : NaN,
+      standardError: NaN,
+      ci: [NaN, NaN],
+      paths: times.length,
+      ...(note ? { note } : {}),
+    };
   return mean(times, note);
 }
 
@@ -156,7 +217,9 @@ function extinction(result: SimulationResult, probe: ProbeRequest): ProbeEstimat
   const time = probe.time ?? result.t1;
   const absorbing = result.extinctions.some((summary) => summary.state === probe.state);
   if (!absorbing && probe.level === undefined) {
-    throw new RangeError(`extinction of ${result.stateNames[probe.state]} needs an absorbing boundary on it or a level`);
+    throw new RangeError(
+      `extinction of ${result.stateNames[probe.state]} needs an absorbing boundary on it or a level`,
+    );
   }
   const fromLevel = probe.level === undefined ? null : hits(result, probe, probe.level, 'below');
   const absorbed = result.absorptionTime[probe.state]!;

@@ -142,7 +142,15 @@ export interface SimulationResult {
 }
 
 export interface ProbeRequest {
-  quantity: 'mean' | 'variance' | 'quantile' | 'exceedance' | 'subceedance' | 'hit-before' | 'first-passage' | 'extinction';
+  quantity:
+    | 'mean'
+    | 'variance'
+    | 'quantile'
+    | 'exceedance'
+    | 'subceedance'
+    | 'hit-before'
+    | 'first-passage'
+    | 'extinction';
   state: number;
   /** Default t1. */
   time?: number;

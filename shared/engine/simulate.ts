@@ -23,7 +23,12 @@ export function chunkBytes(plan: SimulationPlan, pathCount: number): number {
 }
 
 /** Allocates the chunk's arrays (memory: pathCount · (saveCount + probeCount) · d doubles, plus per-path records). */
-export function allocateChunk(plan: SimulationPlan, layout: PlanLayout, firstPath: number, pathCount: number): ChunkResult {
+export function allocateChunk(
+  plan: SimulationPlan,
+  layout: PlanLayout,
+  firstPath: number,
+  pathCount: number,
+): ChunkResult {
   const d = layout.stateCount;
   const probeCount = layout.probeSteps.length;
   const watchCount = plan.watches.length;
@@ -52,9 +57,16 @@ export function allocateChunk(plan: SimulationPlan, layout: PlanLayout, firstPat
  * between batches of paths sized to about 15 ms of work; a stop leaves `pathsDone` < pathCount
  * and `cancelled` true.
  */
-export function simulateChunk(plan: SimulationPlan, firstPath: number, pathCount: number, hooks?: SimulationHooks): ChunkResult {
-  if (!Number.isInteger(firstPath) || firstPath < 0) throw new RangeError(`firstPath must be a non-negative integer, got ${firstPath}`);
-  if (!Number.isInteger(pathCount) || pathCount < 0) throw new RangeError(`pathCount must be a non-negative integer, got ${pathCount}`);
+export function simulateChunk(
+  plan: SimulationPlan,
+  firstPath: number,
+  pathCount: number,
+  hooks?: SimulationHooks,
+): ChunkResult {
+  if (!Number.isInteger(firstPath) || firstPath < 0)
+    throw new RangeError(`firstPath must be a non-negative integer, got ${firstPath}`);
+  if (!Number.isInteger(pathCount) || pathCount < 0)
+    throw new RangeError(`pathCount must be a non-negative integer, got ${pathCount}`);
   const layout = planLayout(plan);
   const kernel = compileKernel(plan, layout);
   const chunk = allocateChunk(plan, layout, firstPath, pathCount);

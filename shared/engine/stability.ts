@@ -30,13 +30,19 @@ function linearSlope(f: Scalar, times: number[]): number | null {
     if (Math.abs(f(t, 0)) > RELATIVE_TOLERANCE * Math.max(1, Math.abs(slope))) return null;
     for (const x of PROBE_STATES) {
       const value = f(t, x);
-      if (!(Math.abs(value - slope * x) <= RELATIVE_TOLERANCE * Math.max(1, Math.abs(slope * x)))) return null;
+      if (!(Math.abs(value - slope * x) <= RELATIVE_TOLERANCE * Math.max(1, Math.abs(slope * x))))
+        return null;
     }
   }
   return slope;
 }
 
-export function amplification(scheme: StabilityReport['scheme'], lambda: number, mu: number, h: number): number {
+export function amplification(
+  scheme: StabilityReport['scheme'],
+  lambda: number,
+  mu: number,
+  h: number,
+): number {
   if (scheme === 'euler-maruyama') return (1 + h * lambda) ** 2 + h * mu * mu;
   if (scheme === 'milstein') {
     const c = 0.5 * mu * mu * h + 0.5 * mu * lambda * h ** 1.5;

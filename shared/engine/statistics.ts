@@ -109,7 +109,12 @@ export function selectInPlace(values: Float64Array, lo: number, hi: number, k: n
  * finite, without a full sort: selects the needed order statistics in increasing order, each
  * search confined to the part not yet fixed. Reorders `values`. `probabilities` ascending.
  */
-export function quantilesInPlace(values: Float64Array, count: number, probabilities: readonly number[], out: Float64Array): void {
+export function quantilesInPlace(
+  values: Float64Array,
+  count: number,
+  probabilities: readonly number[],
+  out: Float64Array,
+): void {
   if (count === 0) {
     out.fill(NaN, 0, probabilities.length);
     return;

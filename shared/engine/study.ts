@@ -24,12 +24,19 @@ function compileExact(plan: SimulationPlan, state: number): ExactSolution {
 
 function checkOptions(plan: SimulationPlan, options: StudyOptions): void {
   const d = plan.model.stateNames.length;
-  if (!Number.isInteger(options.levels) || options.levels < 2 || options.levels > 16) throw new RangeError(`a study needs 2 to 16 levels, got ${options.levels}`);
-  if (!Number.isInteger(options.coarsestSteps) || options.coarsestSteps < 1) throw new RangeError(`the coarsest level needs at least one step, got ${options.coarsestSteps}`);
-  if (!Number.isInteger(options.paths) || options.paths < 2) throw new RangeError(`a study needs at least 2 paths, got ${options.paths}`);
-  if (!Number.isInteger(options.state) || options.state < 0 || options.state >= d) throw new RangeError(`the study names state ${options.state}, which does not exist`);
+  if (!Number.isInteger(options.levels) || options.levels < 2 || options.levels > 16)
+    throw new RangeError(`a study needs 2 to 16 levels, got ${options.levels}`);
+  if (!Number.isInteger(options.coarsestSteps) || options.coarsestSteps < 1)
+    throw new RangeError(`the coarsest level needs at least one step, got ${options.coarsestSteps}`);
+  if (!Number.isInteger(options.paths) || options.paths < 2)
+    throw new RangeError(`a study needs at least 2 paths, got ${options.paths}`);
+  if (!Number.isInteger(options.state) || options.state < 0 || options.state >= d)
+    throw new RangeError(`the study names state ${options.state}, which does not exist`);
   const finest = options.coarsestSteps * 2 ** (options.levels - 1);
-  if (finest > 10_000_000) throw new RangeError(`the finest level would have ${finest} steps; use fewer levels or fewer coarsest steps`);
+  if (finest > 10_000_000)
+    throw new RangeError(
+      `the finest level would have ${finest} steps; use fewer levels or fewer coarsest steps`,
+    );
 }
 
 /** Mean and standard error of the mean of the first n entries. */
@@ -58,7 +65,9 @@ export function runStudy(plan: SimulationPlan, options: StudyOptions): StudyResu
   const { state, levels, coarsestSteps, paths } = options;
   const hasExact = plan.model.exact[state] !== null && plan.model.exact[state] !== undefined;
   if (options.reference === 'exact' && !hasExact) {
-    throw new RangeError(`the study asks for the exact solution, but ${plan.model.stateNames[state]} has none; use the finest level as reference`);
+    throw new RangeError(
+      `the study asks for the exact solution, but ${plan.model.stateNames[state]} has none; use the finest level as reference`,
+    );
   }
   const reference = options.reference === 'finest' || !hasExact ? 'finest' : 'exact';
   const exact = reference === 'exact' ? compileExact(plan, state) : null;
@@ -115,12 +124,16 @@ export function runStudy(plan: SimulationPlan, options: StudyOptions): StudyResu
       blown = kernel(ctx) === 1 || !Number.isFinite(ctx.out[state]!);
       values[level * paths + kept] = ctx.out[state]!;
     }
-    const referenceValue = exact === null ? values[(levels - 1) * paths + kept]! : exact(plan.t1, initial, brownian);
+    const referenceValue =
+      exact === null ? values[(levels - 1) * paths + kept]! : exact(plan.t1, initial, brownian);
     if (blown || !Number.isFinite(referenceValue)) continue;
     referenceValues[kept] = referenceValue;
     kept++;
   }
-  if (kept < 2) throw new RangeError('fewer than two samples stayed finite at every level; the study cannot estimate errors (try smaller steps)');
+  if (kept < 2)
+    throw new RangeError(
+      'fewer than two samples stayed finite at every level; the study cannot estimate errors (try smaller steps)',
+    );
 
   const fittedLevels = reference === 'finest' ? levels - 1 : levels;
   const difference = new Float64Array(kept);
@@ -134,7 +147,14 @@ export function runStudy(plan: SimulationPlan, options: StudyOptions): StudyResu
     const [strongError, strongSE] = meanAndSE(absolute, kept);
     const [meanDifference, weakSE] = meanAndSE(difference, kept);
     const steps = coarsestSteps * 2 ** level;
-    results.push({ steps, h: horizon / steps, strongError, strongSE, weakError: Math.abs(meanDifference), weakSE });
+    results.push({
+      steps,
+      h: horizon / steps,
+      strongError,
+      strongSE,
+      weakError: Math.abs(meanDifference),
+      weakSE,
+    });
   }
 
   const fit = (pick: (level: StudyLevel) => number) => {
@@ -148,8 +168,12 @@ export function runStudy(plan: SimulationPlan, options: StudyOptions): StudyResu
   const weak = fit((level) => level.weakError);
   const noisy = results.filter((level) => level.weakError < 2 * level.weakSE).map((level) => level.steps);
   const notes = [
-    noisy.length > 0 ? `the weak error at ${noisy.join(', ')} steps is within twice its standard error (Monte Carlo noise); the weak order is uncertain` : '',
-    reference === 'finest' ? `errors are measured against the finest level (${finestSteps} steps), which is not fitted` : '',
+    noisy.length > 0
+      ? `the weak error at ${noisy.join(', ')} steps is within twice its standard error (Monte Carlo noise); the weak order is uncertain`
+      : '',
+    reference === 'finest'
+      ? `errors are measured against the finest level (${finestSteps} steps), which is not fitted`
+      : '',
     kept < paths ? `${paths - kept} samples blew up at some level and are left out` : '',
   ].filter((note) => note !== '');
 

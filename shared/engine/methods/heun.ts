@@ -29,7 +29,10 @@ export function heunStep(model: ModelSpec): StepSource {
   for (let i = 0; i < d; i++) {
     const driftAtPredictor = wrap(renameStateAndTime(model.drift[i]!, 'u', 'tn'));
     const noise = Array.from({ length: m }, (_, j) => j).filter((j) => nonZero(i, j));
-    const noiseTerms = noise.map((j) => ` + 0.5 * (b${i}_${j} + ${wrap(renameStateAndTime(model.diffusion[i]![j]!, 'u', 'tn'))}) * dw${j}`);
+    const noiseTerms = noise.map(
+      (j) =>
+        ` + 0.5 * (b${i}_${j} + ${wrap(renameStateAndTime(model.diffusion[i]![j]!, 'u', 'tn'))}) * dw${j}`,
+    );
     lines.push(`n${i} = s${i} + 0.5 * (a${i} + ${driftAtPredictor}) * h${noiseTerms.join('')};`);
   }
   return { temporaries, body: lines.join('\n') };

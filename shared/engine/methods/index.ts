@@ -18,13 +18,17 @@ export function stepSourceFor(model: ModelSpec, method: Method): StepSource {
   const additive = hasAdditiveNoise(model);
   if (method === 'heun') {
     if (model.calculus !== 'stratonovich' && !additive) {
-      throw new RangeError('stochastic Heun solves Stratonovich models; this model is in Itô form (use Euler–Maruyama or Milstein, or switch the model to Stratonovich)');
+      throw new RangeError(
+        'stochastic Heun solves Stratonovich models; this model is in Itô form (use Euler–Maruyama or Milstein, or switch the model to Stratonovich)',
+      );
     }
     return heunStep(model);
   }
   if (model.calculus === 'stratonovich' && !additive) {
     const name = method === 'milstein' ? 'Milstein' : 'Euler–Maruyama';
-    throw new RangeError(`${name} solves Itô models; this model is in Stratonovich form (use stochastic Heun)`);
+    throw new RangeError(
+      `${name} solves Itô models; this model is in Stratonovich form (use stochastic Heun)`,
+    );
   }
   return method === 'milstein' ? milsteinStep(model) : eulerMaruyamaStep(model);
 }

@@ -1,5 +1,12 @@
 import type { ModelSpec } from '../plan';
-import { isZeroSource, noiseShape, renameStateAndTime, statesMentioned, wrap, type StepSource } from './source-tools';
+import {
+  isZeroSource,
+  noiseShape,
+  renameStateAndTime,
+  statesMentioned,
+  wrap,
+  type StepSource,
+} from './source-tools';
 
 /**
  * Derivative-free Milstein scheme for scalar and diagonal noise (Kloeden & Platen 1992, §11.1,
@@ -16,8 +23,13 @@ export function checkMilstein(model: ModelSpec): void {
     );
   }
   if (shape === 'diagonal') {
-    if (model.correlation !== null && model.correlation.some((row, i) => row.some((c, j) => i !== j && c !== 0))) {
-      throw new RangeError('Milstein with diagonal noise needs independent noise sources; use Euler–Maruyama for correlated noise');
+    if (
+      model.correlation !== null &&
+      model.correlation.some((row, i) => row.some((c, j) => i !== j && c !== 0))
+    ) {
+      throw new RangeError(
+        'Milstein with diagonal noise needs independent noise sources; use Euler–Maruyama for correlated noise',
+      );
     }
     model.diffusion.forEach((row, i) => {
       const others = statesMentioned(row[i]!).filter((k) => k !== i);
@@ -55,7 +67,9 @@ export function milsteinStep(model: ModelSpec): StepSource {
       lines.push(`n${i} = s${i} + a${i} * h;`);
     } else {
       const atSupport = wrap(renameStateAndTime(source, 'u', 't'));
-      lines.push(`n${i} = s${i} + a${i} * h + b${i} * dw${j} + (${atSupport} - b${i}) * (dw${j} * dw${j} - h) * halfInvSqh;`);
+      lines.push(
+        `n${i} = s${i} + a${i} * h + b${i} * dw${j} + (${atSupport} - b${i}) * (dw${j} * dw${j} - h) * halfInvSqh;`,
+      );
     }
   }
   return { temporaries, body: lines.join('\n') };

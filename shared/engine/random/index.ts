@@ -1,3 +1,9 @@
 export { streamSeed } from './stream-seed';
 export { Xoshiro128, XOSHIRO_NEXT_SOURCE } from './xoshiro128';
-export { buildZigguratTables, normalFrom, normalDrawSource, ZIGGURAT_TABLES, type ZigguratTables } from './ziggurat';
+export {
+  buildZigguratTables,
+  normalFrom,
+  normalDrawSource,
+  ZIGGURAT_TABLES,
+  type ZigguratTables,
+} from './ziggurat';

@@ -14,7 +14,8 @@ export class Xoshiro128 {
     this.s1 = state[1]! | 0;
     this.s2 = state[2]! | 0;
     this.s3 = state[3]! | 0;
-    if ((this.s0 | this.s1 | this.s2 | this.s3) === 0) throw new RangeError('xoshiro128** needs a state that is not all zero');
+    if ((this.s0 | this.s1 | this.s2 | this.s3) === 0)
+      throw new RangeError('xoshiro128** needs a state that is not all zero');
   }
 
   /** Next output as an unsigned 32-bit integer. */

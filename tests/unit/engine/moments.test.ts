@@ -64,7 +64,15 @@ describe('geometric Brownian motion', () => {
   const steps = 500;
   const paths = 20_000;
   const h = 1 / steps;
-  const plan = makePlan({ drift: [`${a} * s0`], diffusion: [[`${b} * s0`]], initial: [x0], t1: 1, steps, paths, saveCount: 2 });
+  const plan = makePlan({
+    drift: [`${a} * s0`],
+    diffusion: [[`${b} * s0`]],
+    initial: [x0],
+    t1: 1,
+    steps,
+    paths,
+    saveCount: 2,
+  });
   const result = simulate(plan);
   const values = result.finalValues[0]!;
 
@@ -81,7 +89,9 @@ describe('geometric Brownian motion', () => {
     const mu4 = x0 ** 4 * Math.exp(4 * a) * (s2 ** 6 - 4 * s2 ** 3 + 6 * s2 - 3);
     const varianceSE = Math.sqrt((mu4 - variance ** 2 * ((paths - 3) / (paths - 1))) / paths);
     expect(Math.abs(result.stats[0]!.mean[1]! - mean)).toBeLessThan(5 * meanSE + Math.abs(schemeMean - mean));
-    expect(Math.abs(result.stats[0]!.variance[1]! - variance)).toBeLessThan(5 * varianceSE + Math.abs(schemeVariance - variance));
+    expect(Math.abs(result.stats[0]!.variance[1]! - variance)).toBeLessThan(
+      5 * varianceSE + Math.abs(schemeVariance - variance),
+    );
   });
 
   it('follows the lognormal law (Kolmogorov–Smirnov at 5 %)', () => {

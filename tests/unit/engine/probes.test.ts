@@ -78,15 +78,22 @@ describe('probes on a run', () => {
 
   it('reads values at a probe time and at a saved time, and refuses other times', () => {
     expect(evaluateProbe(result, { quantity: 'mean', state: 0, time: 0.75 }).paths).toBe(n);
-    expect(evaluateProbe(result, { quantity: 'mean', state: 0, time: 1 }).estimate).toBeCloseTo(result.stats[0]!.mean[10]!, 12);
-    expect(() => evaluateProbe(result, { quantity: 'mean', state: 0, time: 0.33 })).toThrow(/no path values were kept/);
+    expect(evaluateProbe(result, { quantity: 'mean', state: 0, time: 1 }).estimate).toBeCloseTo(
+      result.stats[0]!.mean[10]!,
+      12,
+    );
+    expect(() => evaluateProbe(result, { quantity: 'mean', state: 0, time: 0.33 })).toThrow(
+      /no path values were kept/,
+    );
   });
 
   it('gives a quantile with an order-statistic interval that covers it', () => {
     const estimate = evaluateProbe(result, { quantity: 'quantile', state: 0, probability: 0.9 });
     // jstat's percentile interpolates linearly between order statistics (type 7) as we do.
     expect(estimate.estimate).toBeCloseTo(jStat.percentile(final, 0.9), 12);
-    expect(evaluateProbe(result, { quantity: 'quantile', state: 0, probability: 0.95 }).estimate).toBe(result.stats[0]!.q95[20]);
+    expect(evaluateProbe(result, { quantity: 'quantile', state: 0, probability: 0.95 }).estimate).toBe(
+      result.stats[0]!.q95[20],
+    );
     expect(estimate.ci[0]).toBeLessThanOrEqual(estimate.estimate);
     expect(estimate.ci[1]).toBeGreaterThanOrEqual(estimate.estimate);
     // Type 7 on 1..5: p = 0.3 → 1 + 0.3·4 = 2.2 (Hyndman & Fan 1996).
@@ -94,29 +101,60 @@ describe('probes on a run', () => {
   });
 
   it('gives P(hit before t) from the watch and from the running minimum, consistently', () => {
-    const fromWatch = evaluateProbe(result, { quantity: 'hit-before', state: 0, level: -0.4, direction: 'below' });
-    const fromExtremes = evaluateProbe(result, { quantity: 'hit-before', state: 0, level: -0.4000001, direction: 'below' });
+    const fromWatch = evaluateProbe(result, {
+      quantity: 'hit-before',
+      state: 0,
+      level: -0.4,
+      direction: 'below',
+    });
+    const fromExtremes = evaluateProbe(result, {
+      quantity: 'hit-before',
+      state: 0,
+      level: -0.4000001,
+      direction: 'below',
+    });
     expect(Math.abs(fromWatch.estimate - fromExtremes.estimate)).toBeLessThan(2 / n);
-    const early = evaluateProbe(result, { quantity: 'hit-before', state: 0, level: -0.4, direction: 'below', time: 0.5 });
+    const early = evaluateProbe(result, {
+      quantity: 'hit-before',
+      state: 0,
+      level: -0.4,
+      direction: 'below',
+      time: 0.5,
+    });
     expect(early.estimate).toBeLessThan(fromWatch.estimate);
-    expect(() => evaluateProbe(result, { quantity: 'hit-before', state: 0, level: -0.9, direction: 'below', time: 0.5 })).toThrow(/watched/);
+    expect(() =>
+      evaluateProbe(result, { quantity: 'hit-before', state: 0, level: -0.9, direction: 'below', time: 0.5 }),
+    ).toThrow(/watched/);
   });
 
   it('summarises first-passage times among the paths that reach the level', () => {
     const hit = evaluateProbe(result, { quantity: 'hit-before', state: 0, level: -0.4, direction: 'below' });
-    const passage = evaluateProbe(result, { quantity: 'first-passage', state: 0, level: -0.4, direction: 'below' });
+    const passage = evaluateProbe(result, {
+      quantity: 'first-passage',
+      state: 0,
+      level: -0.4,
+      direction: 'below',
+    });
     expect(passage.paths).toBe(Math.round(hit.estimate * n));
     expect(passage.estimate).toBeGreaterThan(0);
     expect(passage.estimate).toBeLessThan(2);
     expect(passage.note).toMatch(/reached -0.4/);
-    const median = evaluateProbe(result, { quantity: 'first-passage', state: 0, level: -0.4, direction: 'below', probability: 0.5 });
+    const median = evaluateProbe(result, {
+      quantity: 'first-passage',
+      state: 0,
+      level: -0.4,
+      direction: 'below',
+      probability: 0.5,
+    });
     expect(median.ci[0]).toBeLessThanOrEqual(median.estimate);
   });
 
   it('needs an absorbing boundary or a level for extinction', () => {
     expect(() => evaluateProbe(result, { quantity: 'extinction', state: 0 })).toThrow(/absorbing boundary/);
     const byLevel = evaluateProbe(result, { quantity: 'extinction', state: 0, level: -0.4 });
-    expect(byLevel.estimate).toBe(evaluateProbe(result, { quantity: 'hit-before', state: 0, level: -0.4, direction: 'below' }).estimate);
+    expect(byLevel.estimate).toBe(
+      evaluateProbe(result, { quantity: 'hit-before', state: 0, level: -0.4, direction: 'below' }).estimate,
+    );
   });
 });
 
@@ -139,7 +177,15 @@ describe('extinction and blow-ups in probes', () => {
   });
 
   it('leaves blown-up paths out and says so', () => {
-    const plan = makePlan({ drift: ['s0 * s0'], diffusion: [['0.5']], initial: [0.4], t1: 2, steps: 100, paths: 400, blowupBound: 100 });
+    const plan = makePlan({
+      drift: ['s0 * s0'],
+      diffusion: [['0.5']],
+      initial: [0.4],
+      t1: 2,
+      steps: 100,
+      paths: 400,
+      blowupBound: 100,
+    });
     const result = simulate(plan);
     expect(result.blowups.count).toBeGreaterThan(0);
     expect(result.blowups.count).toBeLessThan(400);

@@ -21,7 +21,12 @@ function referenceStreamSeed(seed: number, path: number): number[] {
   const key = splitmixMix((BigInt(seed) << 32n) | BigInt(path));
   const first = splitmixMix((key + golden) & MASK64);
   const second = splitmixMix((key + 2n * golden) & MASK64);
-  return [Number(first >> 32n), Number(first & 0xffffffffn), Number(second >> 32n), Number(second & 0xffffffffn)];
+  return [
+    Number(first >> 32n),
+    Number(first & 0xffffffffn),
+    Number(second >> 32n),
+    Number(second & 0xffffffffn),
+  ];
 }
 
 /** xoshiro128** from Blackman & Vigna's xoshiro128starstar.c, in unsigned BigInt arithmetic. */
@@ -116,7 +121,16 @@ describe('ziggurat normal sampler (Marsaglia & Tsang 2000)', () => {
 
   it('draws the same numbers inside the generated kernel as normalFrom does on the same stream', () => {
     // dX = dW over one step of length 1: X_1 = z, the first normal draw of each path's stream.
-    const plan = makePlan({ drift: ['0'], diffusion: [['1']], initial: [0], t1: 1, steps: 1, paths: 2000, saveCount: 2, seed: 5 });
+    const plan = makePlan({
+      drift: ['0'],
+      diffusion: [['1']],
+      initial: [0],
+      t1: 1,
+      steps: 1,
+      paths: 2000,
+      saveCount: 2,
+      seed: 5,
+    });
     const result = simulate(plan);
     const seedState = new Uint32Array(4);
     for (let p = 0; p < plan.paths; p++) {
@@ -129,7 +143,16 @@ describe('ziggurat normal sampler (Marsaglia & Tsang 2000)', () => {
     // A 5 % test fails for 5 % of seeds by design. Seed 11 happened to fail (√n·D = 1.43); over 60
     // seeds 4 exceeded 1.36 (expected 3), so the first draws of the per-path streams look normal.
     // The seed below is fixed, so this check is deterministic.
-    const plan = makePlan({ drift: ['0'], diffusion: [['1']], initial: [0], t1: 1, steps: 1, paths: 100_000, saveCount: 2, seed: 12 });
+    const plan = makePlan({
+      drift: ['0'],
+      diffusion: [['1']],
+      initial: [0],
+      t1: 1,
+      steps: 1,
+      paths: 100_000,
+      saveCount: 2,
+      seed: 12,
+    });
     const values = simulate(plan).finalValues[0]!;
     expect(ksStatistic(values, (x) => jStat.normal.cdf(x, 0, 1))).toBeLessThan(ksCritical5(values.length));
   });

@@ -19,7 +19,11 @@ const ou = makePlan({
 describe('reproducibility and chunking', () => {
   it('gives bit-identical results however the paths are split into chunks', () => {
     const whole = mergeChunks(ou, [simulateChunk(ou, 0, ou.paths)]);
-    const split = mergeChunks(ou, [simulateChunk(ou, 0, 137), simulateChunk(ou, 137, 500), simulateChunk(ou, 637, 363)]);
+    const split = mergeChunks(ou, [
+      simulateChunk(ou, 0, 137),
+      simulateChunk(ou, 137, 500),
+      simulateChunk(ou, 637, 363),
+    ]);
     expect(split.digest).toBe(whole.digest);
     expect(split.savedValues[0]).toEqual(whole.savedValues[0]);
     expect(split.firstPassage[0]).toEqual(whole.firstPassage[0]);
@@ -42,7 +46,15 @@ describe('reproducibility and chunking', () => {
 describe('saved grid, probe times and sample paths', () => {
   it('snaps saved times to the nearest step when the grid does not divide the steps', () => {
     // 10 steps, 4 saved times: grid 0, 10/3, 20/3, 10 → steps 0, 3, 7, 10.
-    const plan = makePlan({ drift: ['1'], diffusion: [['0']], initial: [0], t1: 10, steps: 10, paths: 2, saveCount: 4 });
+    const plan = makePlan({
+      drift: ['1'],
+      diffusion: [['0']],
+      initial: [0],
+      t1: 10,
+      steps: 10,
+      paths: 2,
+      saveCount: 4,
+    });
     const result = simulate(plan);
     expect(Array.from(result.savedSteps)).toEqual([0, 3, 7, 10]);
     expect(Array.from(result.savedTimes)).toEqual([0, 3, 7, 10]);
@@ -51,7 +63,15 @@ describe('saved grid, probe times and sample paths', () => {
   });
 
   it('saves a step twice when there are more saved times than steps', () => {
-    const plan = makePlan({ drift: ['1'], diffusion: [['0']], initial: [0], t1: 2, steps: 2, paths: 1, saveCount: 5 });
+    const plan = makePlan({
+      drift: ['1'],
+      diffusion: [['0']],
+      initial: [0],
+      t1: 2,
+      steps: 2,
+      paths: 1,
+      saveCount: 5,
+    });
     const result = simulate(plan);
     // Grid 0, 0.5, 1, 1.5, 2 → nearest steps 0, 1, 1, 2, 2 (Math.round rounds halves up).
     expect(Array.from(result.savedSteps)).toEqual([0, 1, 1, 2, 2]);
@@ -59,7 +79,15 @@ describe('saved grid, probe times and sample paths', () => {
   });
 
   it('refuses a run whose saved values would not fit in memory, before any work', () => {
-    const plan = makePlan({ drift: ['0'], diffusion: [['1']], initial: [0], t1: 1, steps: 10, paths: 10_000_000, saveCount: 101 });
+    const plan = makePlan({
+      drift: ['0'],
+      diffusion: [['1']],
+      initial: [0],
+      t1: 1,
+      steps: 10,
+      paths: 10_000_000,
+      saveCount: 101,
+    });
     expect(() => simulateChunk(plan, 0, 10)).toThrow(/lower the number of paths or saved times/);
   });
 
@@ -93,14 +121,24 @@ describe('saved grid, probe times and sample paths', () => {
 
 describe('memory', () => {
   it('grows with paths × saved times, never with steps', () => {
-    const big = makePlan({ drift: ['0'], diffusion: [['1']], initial: [0], t1: 1, steps: 10_000, paths: 100_000, saveCount: 200 });
+    const big = makePlan({
+      drift: ['0'],
+      diffusion: [['1']],
+      initial: [0],
+      t1: 1,
+      steps: 10_000,
+      paths: 100_000,
+      saveCount: 200,
+    });
     // 8 bytes · 100 000 paths · (200 saved + 3 per-state records + 1 blow-up time) = 163.2 MB.
     expect(chunkBytes(big, 100_000)).toBe(8 * 100_000 * 204);
     expect(chunkBytes({ ...big, steps: 1_000_000 }, 100_000)).toBe(chunkBytes(big, 100_000));
     // A scaled-down run (1000 paths × 10 000 steps × 200 saved times) allocates just that.
     const chunk = simulateChunk({ ...big, paths: 1000 }, 0, 1000);
     expect(chunk.saved.length).toBe(1000 * 200);
-    expect(chunk.saved.byteLength + chunk.runningMax.byteLength * 3 + chunk.blowupTime.byteLength).toBe(chunkBytes(big, 1000));
+    expect(chunk.saved.byteLength + chunk.runningMax.byteLength * 3 + chunk.blowupTime.byteLength).toBe(
+      chunkBytes(big, 1000),
+    );
   });
 });
 
@@ -127,7 +165,11 @@ describe('correlated noise', () => {
     const x = result.finalValues[0]!;
     const y = result.finalValues[1]!;
     const n = x.length;
-    let sx = 0, sy = 0, sxx = 0, syy = 0, sxy = 0;
+    let sx = 0,
+      sy = 0,
+      sxx = 0,
+      syy = 0,
+      sxy = 0;
     for (let p = 0; p < n; p++) {
       sx += x[p]!;
       sy += y[p]!;
@@ -203,7 +245,8 @@ describe('boundaries', () => {
     // as the expected value, with the shift's effect added to the tolerance.
     const phi = (x: number) => 0.5 * (1 + erf(x / Math.SQRT2));
     const crossing = (start: number) =>
-      phi((-start - drift) / vol) + Math.exp((-2 * drift * start) / (vol * vol)) * phi((-start + drift) / vol);
+      phi((-start - drift) / vol) +
+      Math.exp((-2 * drift * start) / (vol * vol)) * phi((-start + drift) / vol);
     const corrected = crossing(x0 + 0.5826 * vol * Math.sqrt(1 / steps));
     const p = extinction.count / result.paths;
     const standardError = Math.sqrt((corrected * (1 - corrected)) / result.paths);
@@ -211,7 +254,10 @@ describe('boundaries', () => {
   });
 
   it('reflects at the level: paths stay on one side', () => {
-    const plan = { ...absorbing, boundaries: [{ rule: 'reflect' as const, level: 0, side: 'below' as const }] };
+    const plan = {
+      ...absorbing,
+      boundaries: [{ rule: 'reflect' as const, level: 0, side: 'below' as const }],
+    };
     const result = simulate(plan);
     expect(result.extinctions).toEqual([]);
     expect(Math.min(...result.runningMin[0]!)).toBeGreaterThanOrEqual(0);
@@ -222,7 +268,15 @@ describe('boundaries', () => {
   });
 
   it('reflects from above too', () => {
-    const plan = makePlan({ drift: ['1'], diffusion: [['0.3']], initial: [0], t1: 2, steps: 200, paths: 500, boundaries: [{ rule: 'reflect', level: 0.5, side: 'above' }] });
+    const plan = makePlan({
+      drift: ['1'],
+      diffusion: [['0.3']],
+      initial: [0],
+      t1: 2,
+      steps: 200,
+      paths: 500,
+      boundaries: [{ rule: 'reflect', level: 0.5, side: 'above' }],
+    });
     const result = simulate(plan);
     expect(Math.max(...result.runningMax[0]!)).toBeLessThanOrEqual(0.5);
   });
@@ -233,13 +287,25 @@ function erf(x: number): number {
   const sign = Math.sign(x);
   const a = Math.abs(x);
   const t = 1 / (1 + 0.3275911 * a);
-  const y = 1 - ((((1.061405429 * t - 1.453152027) * t + 1.421413741) * t - 0.284496736) * t + 0.254829592) * t * Math.exp(-a * a);
+  const y =
+    1 -
+    ((((1.061405429 * t - 1.453152027) * t + 1.421413741) * t - 0.284496736) * t + 0.254829592) *
+      t *
+      Math.exp(-a * a);
   return sign * y;
 }
 
 describe('blow-ups', () => {
   // dX = X² dt from X0 = 1 explodes at t = 1 (X = 1/(1 − t)).
-  const plan = makePlan({ drift: ['s0 * s0'], diffusion: [['0.01']], initial: [1], t1: 2, steps: 200, paths: 50, blowupBound: 1e6 });
+  const plan = makePlan({
+    drift: ['s0 * s0'],
+    diffusion: [['0.01']],
+    initial: [1],
+    t1: 2,
+    steps: 200,
+    paths: 50,
+    blowupBound: 1e6,
+  });
 
   it('counts paths that leave the bound, with their time, and suggests a smaller step', () => {
     const result = simulate(plan);
@@ -267,7 +333,15 @@ describe('mean-square stability (Higham 2000, SIAM J. Numer. Anal. 38(3))', () =
   const mu = Math.sqrt(3);
   const paths = 50_000;
   const build = (steps: number) =>
-    makePlan({ drift: [`${lambda} * s0`], diffusion: [[`${mu} * s0`]], initial: [1], t1: 2, steps, paths, saveCount: 2 });
+    makePlan({
+      drift: [`${lambda} * s0`],
+      diffusion: [[`${mu} * s0`]],
+      initial: [1],
+      t1: 2,
+      steps,
+      paths,
+      saveCount: 2,
+    });
 
   function secondMoment(values: Float64Array): number {
     let sum = 0;
@@ -310,12 +384,30 @@ describe('mean-square stability (Higham 2000, SIAM J. Numer. Anal. 38(3))', () =
 
   it('reports nothing for a model that is not scalar and linear', () => {
     expect(simulate({ ...build(8), paths: 10 }).stability).not.toBeNull();
-    expect(simulate(makePlan({ drift: ['-s0 * s0 * s0'], diffusion: [['0.2']], initial: [1], t1: 1, steps: 10, paths: 10 })).stability).toBeNull();
+    expect(
+      simulate(
+        makePlan({
+          drift: ['-s0 * s0 * s0'],
+          diffusion: [['0.2']],
+          initial: [1],
+          t1: 1,
+          steps: 10,
+          paths: 10,
+        }),
+      ).stability,
+    ).toBeNull();
   });
 });
 
 describe('progress and cancel', () => {
-  const plan = makePlan({ drift: ['-s0'], diffusion: [['1']], initial: [0], t1: 1, steps: 1000, paths: 3000 });
+  const plan = makePlan({
+    drift: ['-s0'],
+    diffusion: [['1']],
+    initial: [0],
+    t1: 1,
+    steps: 1000,
+    paths: 3000,
+  });
 
   it('reports progress up to the chunk size', () => {
     const reports: number[] = [];
@@ -342,7 +434,15 @@ describe('progress and cancel', () => {
 
 describe('cancel inside long paths', () => {
   it('polls shouldStop within a path of many steps and drops the unfinished path', () => {
-    const plan = makePlan({ drift: ['-s0'], diffusion: [['1']], initial: [0], t1: 1, steps: 300_000, paths: 3, saveCount: 3 });
+    const plan = makePlan({
+      drift: ['-s0'],
+      diffusion: [['1']],
+      initial: [0],
+      t1: 1,
+      steps: 300_000,
+      paths: 3,
+      saveCount: 3,
+    });
     let polls = 0;
     const chunk = simulateChunk(plan, 0, plan.paths, { shouldStop: () => ++polls > 2 });
     // One poll before the first batch, then every 65 536 steps inside the path: the third poll
@@ -355,12 +455,31 @@ describe('cancel inside long paths', () => {
 
 describe('plan checks', () => {
   it('rejects Milstein for non-diagonal noise and names the alternative', () => {
-    const plan = makePlan({ drift: ['0', '0'], diffusion: [['1', 's1'], ['0', '1']], initial: [0, 0], t1: 1, steps: 10, paths: 10, method: 'milstein' });
+    const plan = makePlan({
+      drift: ['0', '0'],
+      diffusion: [
+        ['1', 's1'],
+        ['0', '1'],
+      ],
+      initial: [0, 0],
+      t1: 1,
+      steps: 10,
+      paths: 10,
+      method: 'milstein',
+    });
     expect(() => simulate(plan)).toThrow(/Milstein needs scalar noise.*Euler–Maruyama/);
   });
 
   it('rejects stochastic Heun for an Itô model with state-dependent noise', () => {
-    const plan = makePlan({ drift: ['0'], diffusion: [['s0']], initial: [1], t1: 1, steps: 10, paths: 10, method: 'heun' });
+    const plan = makePlan({
+      drift: ['0'],
+      diffusion: [['s0']],
+      initial: [1],
+      t1: 1,
+      steps: 10,
+      paths: 10,
+      method: 'heun',
+    });
     expect(() => simulate(plan)).toThrow(/Stratonovich/);
   });
 

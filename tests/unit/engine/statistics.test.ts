@@ -6,7 +6,9 @@ const probabilities = [0, 0.05, 0.25, 0.5, 0.75, 0.95, 1];
 
 function sample(n: number, ties: boolean): Float64Array {
   const generator = new Xoshiro128([1, 2, 3, n]);
-  return Float64Array.from({ length: n }, () => (ties ? generator.nextUint32() % 7 : generator.nextOpenUnit() - 0.3));
+  return Float64Array.from({ length: n }, () =>
+    ties ? generator.nextUint32() % 7 : generator.nextOpenUnit() - 0.3,
+  );
 }
 
 describe('order statistics', () => {

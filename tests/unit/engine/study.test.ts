@@ -38,7 +38,8 @@ describe('step-size study on the Higham (2001) experiment', () => {
     expect(study.strongOrderCI[0]).toBeLessThan(study.strongOrder);
     expect(study.strongOrderCI[1]).toBeGreaterThan(study.strongOrder);
     // Errors shrink as h does.
-    for (let i = 1; i < study.levels.length; i++) expect(study.levels[i]!.strongError).toBeLessThan(study.levels[i - 1]!.strongError);
+    for (let i = 1; i < study.levels.length; i++)
+      expect(study.levels[i]!.strongError).toBeLessThan(study.levels[i - 1]!.strongError);
   });
 
   it('finds Milstein strong order 1', () => {

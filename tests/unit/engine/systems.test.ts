@@ -84,8 +84,30 @@ describe('systems of several states', () => {
       method: 'milstein' as const,
     };
     expect(() =>
-      simulate(makePlan({ ...base, diffusion: [['s0', '0'], ['0', 's1']], correlation: [[1, 0.3], [0.3, 1]] })),
+      simulate(
+        makePlan({
+          ...base,
+          diffusion: [
+            ['s0', '0'],
+            ['0', 's1'],
+          ],
+          correlation: [
+            [1, 0.3],
+            [0.3, 1],
+          ],
+        }),
+      ),
     ).toThrow(/independent noise sources/);
-    expect(() => simulate(makePlan({ ...base, diffusion: [['s1', '0'], ['0', 's1']] }))).toThrow(/depend on its own state only/);
+    expect(() =>
+      simulate(
+        makePlan({
+          ...base,
+          diffusion: [
+            ['s1', '0'],
+            ['0', 's1'],
+          ],
+        }),
+      ),
+    ).toThrow(/depend on its own state only/);
   });
 });
