@@ -382,6 +382,25 @@ describe('mean-square stability (Higham 2000, SIAM J. Numer. Anal. 38(3))', () =
     expect(observed).toBeGreaterThan(1 + 5 * standardError);
   });
 
+  it('reports the Milstein and Heun amplification factors that the simulation shows', () => {
+    // Our derived E[R²] for the derivative-free Milstein and the stochastic Heun steps (see
+    // stability.ts, same computation as Higham 2000): E[X_N²] = E[R²]^N for the scheme, checked
+    // against the sample second moment within 5 sample standard errors.
+    for (const [method, calculus] of [
+      ['milstein', 'ito'],
+      ['heun', 'stratonovich'],
+    ] as const) {
+      const plan = { ...build(8), method, model: { ...build(8).model, calculus } };
+      const result = simulate(plan);
+      const factor = result.stability!.amplification;
+      const squares = Array.from(result.finalValues[0]!, (x) => x * x);
+      const mean = squares.reduce((a, b) => a + b, 0) / paths;
+      const sd = Math.sqrt(squares.reduce((a, b) => a + (b - mean) ** 2, 0) / (paths - 1));
+      expect(Math.abs(mean - factor ** 8)).toBeLessThan((5 * sd) / Math.sqrt(paths));
+      expect(result.stability!.scheme).toBe(method);
+    }
+  });
+
   it('reports nothing for a model that is not scalar and linear', () => {
     expect(simulate({ ...build(8), paths: 10 }).stability).not.toBeNull();
     expect(
