@@ -111,7 +111,7 @@ const crossingScratch = new Int32Array(1);
 
 /**
  * Rearranges values[lo..hi] so that values[k] holds the k-th smallest of them, everything before
- * it is ≤ and everything after it is ≥. Expected linear time; no allocation.
+ * it is ≤ and everything after it is ≥. Expected linear time.
  */
 export function selectInPlace(values: Float64Array, lo: number, hi: number, k: number): void {
   const ranks = Int32Array.of(k);
