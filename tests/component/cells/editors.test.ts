@@ -5,6 +5,7 @@ import ParamsCell from '@/components/cells/ParamsCell.vue';
 import ModelCell from '@/components/cells/ModelCell.vue';
 import SimulationCell from '@/components/cells/SimulationCell.vue';
 import type { Cell } from '@shared/sheet/document';
+import { forgetPendingText } from '@/components/cells/useFieldDraft';
 import { cellOf, editorProps, reservoirSheet } from './fixtures';
 
 // CodeMirror is exercised through its diagnostics function (expressionDiagnostics.test.ts); here
@@ -16,6 +17,8 @@ vi.mock('@/components/cells/expressionEditor', () => ({
 const mounted: VueWrapper[] = [];
 afterEach(() => {
   while (mounted.length) mounted.pop()!.unmount();
+  // Typed-but-unstored text outlives a component on purpose; tests start without any.
+  forgetPendingText('');
 });
 
 function input(wrapper: VueWrapper, label: string) {
