@@ -3,6 +3,7 @@ import { toCsv, fileNameFor } from './chartCsv';
 import { plural, stateIndex, unitOf, type ChartBuild, type ChartInput } from './chartSpec';
 
 export const DEFAULT_PATH_COUNT = 20;
+const WEBGL_POINT_THRESHOLD = 200_000;
 
 /** A few whole paths of one state against time. */
 export function buildPathsChart({ chart, result, plan }: ChartInput): ChartBuild {
@@ -17,8 +18,11 @@ export function buildPathsChart({ chart, result, plan }: ChartInput): ChartBuild
   const count = Math.min(chart.pathCount ?? DEFAULT_PATH_COUNT, available.length);
   const times = Array.from(result.savedTimes);
   const paths = available.slice(0, count);
+  // SVG lines draw everywhere (also without a GPU) and export as real SVG; only very large
+  // charts fall back to WebGL.
+  const traceType = count * times.length > WEBGL_POINT_THRESHOLD ? 'scattergl' : 'scatter';
   const traces = paths.map((path, p) => ({
-    type: 'scattergl',
+    type: traceType,
     mode: 'lines',
     x: times,
     y: Array.from(path),

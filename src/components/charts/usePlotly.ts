@@ -15,6 +15,18 @@ function loadPlotly(): Promise<PlotlyStatic> {
 }
 
 /**
+ * Starts loading Plotly once the page is idle, so a sheet with charts has it ready before its
+ * first run ends: evaluating a 4.6 MB script is one long main-thread task, and it should not land
+ * in the middle of a run.
+ */
+export function preloadPlotlyWhenIdle(): void {
+  if (loading) return;
+  const start = () => void loadPlotly().catch(() => undefined);
+  if (typeof requestIdleCallback === 'function') requestIdleCallback(start, { timeout: 3000 });
+  else setTimeout(start, 500);
+}
+
+/**
  * Plotly for one chart: `plotly` is null until loaded, `error` says why it could not load. The
  * element given to `track` is purged when the component's scope ends, so no listeners leak.
  */
