@@ -12,11 +12,24 @@ const alias = {
 export default defineConfig({
   test: {
     projects: [
-      { resolve: { alias }, test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], environment: 'node', testTimeout: 60_000 } },
+      {
+        resolve: { alias },
+        test: {
+          name: 'unit',
+          include: ['tests/unit/**/*.test.ts'],
+          environment: 'node',
+          testTimeout: 60_000,
+        },
+      },
       {
         plugins: [vue()],
         resolve: { alias },
-        test: { name: 'component', include: ['tests/component/**/*.test.ts'], environment: 'jsdom', testTimeout: 20_000 },
+        test: {
+          name: 'component',
+          include: ['tests/component/**/*.test.ts'],
+          environment: 'jsdom',
+          testTimeout: 20_000,
+        },
       },
       {
         resolve: { alias },

@@ -38,7 +38,9 @@ export interface AppDeps {
 }
 
 const defaultReport: ErrorReporter = (error) => {
-  process.stderr.write(`[meander] ${error instanceof Error ? (error.stack ?? error.message) : String(error)}\n`);
+  process.stderr.write(
+    `[meander] ${error instanceof Error ? (error.stack ?? error.message) : String(error)}\n`,
+  );
 };
 
 /** Builds the Express app from its dependencies; listening is the caller's business. */

@@ -12,11 +12,16 @@ export const envSchema = z.object({
   HOST: z.string().min(1).default('127.0.0.1'),
   API_PORT: port.default(3001),
   /** When unset, `npm start` runs its own PostgreSQL under .data/pg. */
-  DATABASE_URL: z.url({ protocol: /^postgres(ql)?$/, error: 'DATABASE_URL must be a postgres:// URL' }).optional(),
+  DATABASE_URL: z
+    .url({ protocol: /^postgres(ql)?$/, error: 'DATABASE_URL must be a postgres:// URL' })
+    .optional(),
   PGPORT_MEANDER: port.default(54329),
   /** The public origin (scheme://host:port); reset links and the Origin check use it. */
   APP_ORIGIN: z
-    .url({ protocol: /^https?$/, error: 'APP_ORIGIN must be an http(s) origin such as http://localhost:3000' })
+    .url({
+      protocol: /^https?$/,
+      error: 'APP_ORIGIN must be an http(s) origin such as http://localhost:3000',
+    })
     .transform((value) => new URL(value).origin)
     .optional(),
   SMTP_HOST: z.string().min(1).default('127.0.0.1'),
@@ -41,7 +46,9 @@ export interface AppConfig {
 export function loadEnv(source: NodeJS.ProcessEnv = process.env): Env {
   const result = envSchema.safeParse(source);
   if (result.success) return result.data;
-  const problems = result.error.issues.map((issue) => `  ${issue.path.join('.')}: ${issue.message}`).join('\n');
+  const problems = result.error.issues
+    .map((issue) => `  ${issue.path.join('.')}: ${issue.message}`)
+    .join('\n');
   throw new Error(`The environment is not valid:\n${problems}`);
 }
 

@@ -11,10 +11,16 @@ async function main() {
   const services = await startServices(env, log);
   if (services.seed.seeded) {
     log('first run: demo accounts created (demo-only credentials, also in the README):');
-    for (const account of services.seed.accounts) log(`  ${account.role.padEnd(6)} ${account.email}  password: ${account.password}`);
+    for (const account of services.seed.accounts)
+      log(`  ${account.role.padEnd(6)} ${account.email}  password: ${account.password}`);
   }
   const api = await listen(
-    { db: services.database.db, mailer: services.mailer, mailbox: services.mailFake, config: appConfigFromEnv(env) },
+    {
+      db: services.database.db,
+      mailer: services.mailer,
+      mailbox: services.mailFake,
+      config: appConfigFromEnv(env),
+    },
     { port: env.API_PORT, host: '127.0.0.1' },
   ).catch(async (error: unknown) => {
     await services.stop();
@@ -46,6 +52,8 @@ async function main() {
 }
 
 main().catch((error: unknown) => {
-  process.stderr.write(`[meander] could not start: ${error instanceof Error ? error.message : String(error)}\n`);
+  process.stderr.write(
+    `[meander] could not start: ${error instanceof Error ? error.message : String(error)}\n`,
+  );
   process.exit(1);
 });

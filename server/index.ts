@@ -10,7 +10,10 @@ export interface ListeningServer {
 }
 
 /** Builds the app from ready dependencies and listens; close() stops taking connections and waits. */
-export async function listen(deps: AppDeps, { port, host = '127.0.0.1' }: { port: number; host?: string }): Promise<ListeningServer> {
+export async function listen(
+  deps: AppDeps,
+  { port, host = '127.0.0.1' }: { port: number; host?: string },
+): Promise<ListeningServer> {
   const app = createApp(deps);
   const server = await new Promise<Server>((resolve, reject) => {
     const started = app.listen(port, host, (error?: Error) => (error ? reject(error) : resolve(started)));

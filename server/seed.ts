@@ -20,7 +20,12 @@ export interface DemoAccount {
  */
 export const DEMO_ACCOUNTS: readonly DemoAccount[] = [
   { email: 'admin@example.test', name: 'Site Admin', password: 'meander-admin-demo', role: 'admin' },
-  { email: 'maren.lindqvist@example.test', name: 'Maren Lindqvist', password: 'meander-member-demo', role: 'member' },
+  {
+    email: 'maren.lindqvist@example.test',
+    name: 'Maren Lindqvist',
+    password: 'meander-member-demo',
+    role: 'member',
+  },
   { email: 'tomas.abara@example.test', name: 'Tomás Abara', password: 'meander-member-demo', role: 'member' },
 ];
 

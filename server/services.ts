@@ -27,7 +27,8 @@ const LOOPBACK = new Set(['127.0.0.1', 'localhost', '::1']);
 export async function startServices(env: Env, log: (line: string) => void): Promise<RunningServices> {
   const stops: (() => Promise<void>)[] = [];
   const stopAll = async () => {
-    for (const stop of stops.reverse()) await stop().catch((error: unknown) => log(`while stopping: ${String(error)}`));
+    for (const stop of stops.reverse())
+      await stop().catch((error: unknown) => log(`while stopping: ${String(error)}`));
   };
   try {
     let url = env.DATABASE_URL;
@@ -51,7 +52,11 @@ export async function startServices(env: Env, log: (line: string) => void): Prom
       mailFake = await startMailFake({ port: env.SMTP_PORT });
       stops.push(() => mailFake!.stop());
     }
-    const mailer = createMailer({ host: env.SMTP_HOST, port: mailFake?.port ?? env.SMTP_PORT, from: env.MAIL_FROM });
+    const mailer = createMailer({
+      host: env.SMTP_HOST,
+      port: mailFake?.port ?? env.SMTP_PORT,
+      from: env.MAIL_FROM,
+    });
     stops.push(async () => mailer.close());
     return { database, mailer, mailFake, seed, stop: stopAll };
   } catch (error) {

@@ -10,7 +10,8 @@ async function main() {
   const services = await startServices(env, log);
   if (services.seed.seeded) {
     log('first run: demo accounts created (demo-only credentials, also in the README):');
-    for (const account of services.seed.accounts) log(`  ${account.role.padEnd(6)} ${account.email}  password: ${account.password}`);
+    for (const account of services.seed.accounts)
+      log(`  ${account.role.padEnd(6)} ${account.email}  password: ${account.password}`);
   }
   const server = await listen(
     {
@@ -24,7 +25,8 @@ async function main() {
     await services.stop();
     throw error;
   });
-  if (services.mailFake) log(`mail goes to the local fake on port ${services.mailFake.port}; read it at ${server.url}/mailbox`);
+  if (services.mailFake)
+    log(`mail goes to the local fake on port ${services.mailFake.port}; read it at ${server.url}/mailbox`);
   log(`Meander is running at ${server.url}`);
   onShutdown(async () => {
     await server.close();

@@ -46,7 +46,11 @@ export function sharedMailbox(): MailboxReader | undefined {
 /** Migrates, seeds the demo site (when empty) and serves the app on 127.0.0.1, for end-to-end tests. */
 export async function startTestServer(options: TestServerOptions): Promise<TestServer> {
   const database = connectDatabase(options.databaseUrl);
-  const mailer = createMailer({ host: '127.0.0.1', port: options.smtpPort, from: 'Meander <no-reply@meander.example.test>' });
+  const mailer = createMailer({
+    host: '127.0.0.1',
+    port: options.smtpPort,
+    from: 'Meander <no-reply@meander.example.test>',
+  });
   try {
     await migrate(database.db);
     await seedDemo(database.db);

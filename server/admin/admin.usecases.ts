@@ -6,7 +6,13 @@ import type { UserRow } from '../users/users.table';
 import { lastAdmin, userNotFound } from './admin.errors';
 
 function toAdminUser(row: Pick<UserRow, 'id' | 'email' | 'name' | 'role' | 'createdAt'>): AdminUser {
-  return { id: row.id, email: row.email, name: row.name, role: row.role, createdAt: row.createdAt.toISOString() };
+  return {
+    id: row.id,
+    email: row.email,
+    name: row.name,
+    role: row.role,
+    createdAt: row.createdAt.toISOString(),
+  };
 }
 
 /** Site administration. Callers are checked for the admin role by the routes. */

@@ -1,16 +1,22 @@
 import { API_ERROR_CODES } from '@shared/api/errors';
 import { AppError } from '../http/app-error';
 
-export const unauthenticated = () => new AppError(401, API_ERROR_CODES.unauthenticated, 'Sign in to continue.');
+export const unauthenticated = () =>
+  new AppError(401, API_ERROR_CODES.unauthenticated, 'Sign in to continue.');
 
 /** One answer for an unknown e-mail and a wrong password, so neither reveals which accounts exist. */
 export const badCredentials = () =>
   new AppError(401, API_ERROR_CODES.badCredentials, 'That e-mail and password do not match an account.');
 
 export const emailTaken = () =>
-  new AppError(409, API_ERROR_CODES.emailTaken, 'An account with this e-mail already exists. Sign in, or reset its password.', {
-    path: ['email'],
-  });
+  new AppError(
+    409,
+    API_ERROR_CODES.emailTaken,
+    'An account with this e-mail already exists. Sign in, or reset its password.',
+    {
+      path: ['email'],
+    },
+  );
 
 export const rateLimited = (retryAfterSeconds: number) =>
   new AppError(
@@ -30,6 +36,9 @@ export const badResetToken = () =>
   );
 
 export const wrongPassword = () =>
-  new AppError(400, API_ERROR_CODES.wrongPassword, 'The current password is not correct.', { path: ['currentPassword'] });
+  new AppError(400, API_ERROR_CODES.wrongPassword, 'The current password is not correct.', {
+    path: ['currentPassword'],
+  });
 
-export const forbidden = () => new AppError(403, API_ERROR_CODES.forbidden, 'You do not have the rights for this.');
+export const forbidden = () =>
+  new AppError(403, API_ERROR_CODES.forbidden, 'You do not have the rights for this.');

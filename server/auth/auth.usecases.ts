@@ -61,7 +61,13 @@ export function createAuthUsecases(deps: AuthUsecaseDeps) {
       if (await users.findByEmail(input.email)) throw emailTaken();
       const passwordHash = await hasher.hash(input.password);
       const user = await users
-        .insert({ id: generateIdFromEntropySize(10), email: input.email, name: input.name, passwordHash, role })
+        .insert({
+          id: generateIdFromEntropySize(10),
+          email: input.email,
+          name: input.name,
+          passwordHash,
+          role,
+        })
         .catch((error: unknown) => {
           throw isUniqueViolation(error) ? emailTaken() : error;
         });
@@ -73,7 +79,9 @@ export function createAuthUsecases(deps: AuthUsecaseDeps) {
       const decision = signInLimiter.consume(limiterKey);
       if (!decision.allowed) throw rateLimited(decision.retryAfterSeconds);
       const user = await users.findByEmail(input.email);
-      const valid = user ? await hasher.verify(user.passwordHash, input.password) : await hasher.verifyDummy(input.password);
+      const valid = user
+        ? await hasher.verify(user.passwordHash, input.password)
+        : await hasher.verifyDummy(input.password);
       if (!user || !valid) throw badCredentials();
       signInLimiter.reset(limiterKey);
       return startSession(user);
@@ -116,7 +124,8 @@ export function createAuthUsecases(deps: AuthUsecaseDeps) {
     },
 
     async updateAccount(userId: string, input: UpdateAccountRequest): Promise<CurrentUser> {
-      const user = input.name === undefined ? await users.findById(userId) : await users.updateName(userId, input.name);
+      const user =
+        input.name === undefined ? await users.findById(userId) : await users.updateName(userId, input.name);
       if (!user) throw badCredentials();
       return toCurrentUser(user);
     },

@@ -13,7 +13,11 @@ export function createLucia({ db, secureCookies }: { db: Db; secureCookies: bool
   return new Lucia(adapter, {
     sessionCookie: { name: SESSION_COOKIE_NAME, attributes: { secure: secureCookies, sameSite: 'lax' } },
     // Only what a request needs: never the password hash.
-    getUserAttributes: (attributes) => ({ email: attributes.email, name: attributes.name, role: attributes.role }),
+    getUserAttributes: (attributes) => ({
+      email: attributes.email,
+      name: attributes.name,
+      role: attributes.role,
+    }),
   });
 }
 

@@ -16,7 +16,13 @@ export function createPasswordResetsRepository({ db }: { db: DbExecutor }) {
       const [row] = await db
         .update(passwordResets)
         .set({ usedAt: now })
-        .where(and(eq(passwordResets.tokenHash, tokenHash), isNull(passwordResets.usedAt), gt(passwordResets.expiresAt, now)))
+        .where(
+          and(
+            eq(passwordResets.tokenHash, tokenHash),
+            isNull(passwordResets.usedAt),
+            gt(passwordResets.expiresAt, now),
+          ),
+        )
         .returning({ userId: passwordResets.userId });
       return row?.userId ?? null;
     },

@@ -60,12 +60,23 @@ export async function ensurePostgres(options: EnsurePostgresOptions): Promise<Lo
   const startedHere = !(await isRunning(dataDir, exec));
   if (startedHere) {
     log(`starting PostgreSQL on 127.0.0.1:${options.port}`);
-    await exec('pg_ctl', ['start', '-w', '-t', '60', '-D', dataDir, '-l', logFile, '-o', serverOptions]).catch(
-      async (error: unknown) => {
-        const tail = await readFile(logFile, 'utf8').catch(() => '');
-        throw new Error(`PostgreSQL did not start (${errorText(error)}).\n${tail.split('\n').slice(-15).join('\n')}`);
-      },
-    );
+    await exec('pg_ctl', [
+      'start',
+      '-w',
+      '-t',
+      '60',
+      '-D',
+      dataDir,
+      '-l',
+      logFile,
+      '-o',
+      serverOptions,
+    ]).catch(async (error: unknown) => {
+      const tail = await readFile(logFile, 'utf8').catch(() => '');
+      throw new Error(
+        `PostgreSQL did not start (${errorText(error)}).\n${tail.split('\n').slice(-15).join('\n')}`,
+      );
+    });
   }
   // A server that was already running may listen elsewhere; postmaster.pid says where.
   const running = await readPostmasterPid(dataDir);
@@ -76,7 +87,8 @@ export async function ensurePostgres(options: EnsurePostgresOptions): Promise<Lo
   return {
     url: `postgres://${SUPERUSER}@127.0.0.1:${port}/${options.database}`,
     async stop() {
-      if (startedHere && (await isRunning(dataDir, exec))) await exec('pg_ctl', ['stop', '-m', 'fast', '-w', '-D', dataDir]);
+      if (startedHere && (await isRunning(dataDir, exec)))
+        await exec('pg_ctl', ['stop', '-m', 'fast', '-w', '-D', dataDir]);
     },
   };
 }
@@ -96,7 +108,8 @@ async function findPostgresBinaries(log: (line: string) => void): Promise<string
   await run('apt-get', ['update'], { env });
   await run('apt-get', ['install', '-y', 'postgresql'], { env, maxBuffer: 64 * 1024 * 1024 });
   const installed = await highestVersionBin();
-  if (!installed) throw new Error('apt-get installed postgresql but no initdb was found under /usr/lib/postgresql');
+  if (!installed)
+    throw new Error('apt-get installed postgresql but no initdb was found under /usr/lib/postgresql');
   return installed;
 }
 
@@ -114,7 +127,9 @@ async function highestVersionBin(): Promise<string | null> {
 type Exec = (binary: string, args: string[]) => Promise<{ stdout: string; stderr: string }>;
 
 async function runAs(asRoot: boolean, binary: string, args: string[]) {
-  const [command, commandArgs] = asRoot ? ['runuser', ['-u', SERVICE_ACCOUNT, '--', binary, ...args]] : [binary, args];
+  const [command, commandArgs] = asRoot
+    ? ['runuser', ['-u', SERVICE_ACCOUNT, '--', binary, ...args]]
+    : [binary, args];
   try {
     // cwd '/' so the service account never needs access to the caller's working directory.
     return await run(command, commandArgs, { cwd: '/', maxBuffer: 16 * 1024 * 1024 });
@@ -124,7 +139,13 @@ async function runAs(asRoot: boolean, binary: string, args: string[]) {
 }
 
 function errorText(error: unknown): string {
-  if (error && typeof error === 'object' && 'stderr' in error && typeof error.stderr === 'string' && error.stderr.trim()) {
+  if (
+    error &&
+    typeof error === 'object' &&
+    'stderr' in error &&
+    typeof error.stderr === 'string' &&
+    error.stderr.trim()
+  ) {
     return error.stderr.trim();
   }
   return error instanceof Error ? error.message : String(error);
@@ -198,7 +219,11 @@ function isAlive(pid: number): boolean {
   }
 }
 
-async function createDatabaseIfMissing(options: EnsurePostgresOptions, socketDir: string, exec: Exec): Promise<void> {
+async function createDatabaseIfMissing(
+  options: EnsurePostgresOptions,
+  socketDir: string,
+  exec: Exec,
+): Promise<void> {
   const psql = ['-h', socketDir, '-p', String(options.port), '-U', SUPERUSER, '-d', 'postgres', '-tA'];
   const { stdout } = await exec('psql', [
     ...psql,

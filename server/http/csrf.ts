@@ -19,7 +19,13 @@ export function requireSameOrigin(appOrigin: string | undefined): RequestHandler
     const origin = req.get('origin');
     const allowed = appOrigin ?? (req.get('host') ? `http://${req.get('host')}` : undefined);
     if (!origin || !allowed || !verifyRequestOrigin(origin, [allowed])) {
-      next(new AppError(403, API_ERROR_CODES.badOrigin, 'This request did not come from a Meander page (bad or missing Origin).'));
+      next(
+        new AppError(
+          403,
+          API_ERROR_CODES.badOrigin,
+          'This request did not come from a Meander page (bad or missing Origin).',
+        ),
+      );
       return;
     }
     next();

@@ -5,7 +5,11 @@ import { badRequest } from './http.errors';
  * Parses a request part with its zod schema, once, at the edge. The first issue becomes a 400
  * with its path and message, so a form can point at the field.
  */
-export function parseOr400<Schema extends z.ZodType>(schema: Schema, value: unknown, where?: string): z.infer<Schema> {
+export function parseOr400<Schema extends z.ZodType>(
+  schema: Schema,
+  value: unknown,
+  where?: string,
+): z.infer<Schema> {
   const result = schema.safeParse(value);
   if (result.success) return result.data;
   throw zodIssueToBadRequest(result.error, where);

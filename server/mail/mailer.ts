@@ -11,7 +11,15 @@ export interface Mailer {
 }
 
 /** SMTP through nodemailer. The local fake speaks plain SMTP, so no STARTTLS is attempted. */
-export function createMailer({ host, port, from }: { host: string; port: number; from: string }): Mailer & { close(): void } {
+export function createMailer({
+  host,
+  port,
+  from,
+}: {
+  host: string;
+  port: number;
+  from: string;
+}): Mailer & { close(): void } {
   const transport = nodemailer.createTransport({ host, port, secure: false, ignoreTLS: true });
   return {
     async send(mail) {

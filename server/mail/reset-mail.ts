@@ -1,6 +1,14 @@
 import type { OutgoingMail } from './mailer';
 
-export function passwordResetMail({ to, name, link }: { to: string; name: string; link: string }): OutgoingMail {
+export function passwordResetMail({
+  to,
+  name,
+  link,
+}: {
+  to: string;
+  name: string;
+  link: string;
+}): OutgoingMail {
   return {
     to,
     subject: 'Choose a new Meander password',

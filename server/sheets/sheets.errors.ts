@@ -2,9 +2,11 @@ import { API_ERROR_CODES } from '@shared/api/errors';
 import { AppError } from '../http/app-error';
 
 /** Also what a sheet the caller may not see answers: its existence is not revealed. */
-export const sheetNotFound = () => new AppError(404, API_ERROR_CODES.sheetNotFound, 'There is no such sheet, or it is not shared with you.');
+export const sheetNotFound = () =>
+  new AppError(404, API_ERROR_CODES.sheetNotFound, 'There is no such sheet, or it is not shared with you.');
 
-export const versionNotFound = () => new AppError(404, API_ERROR_CODES.versionNotFound, 'This sheet has no such version.');
+export const versionNotFound = () =>
+  new AppError(404, API_ERROR_CODES.versionNotFound, 'This sheet has no such version.');
 
 export const versionConflict = (currentVersion: number) =>
   new AppError(

@@ -93,7 +93,11 @@ export function createSheetsRepository({ db }: { db: DbExecutor }) {
 
     async findVersion(sheetId: string, number: number) {
       const [row] = await db
-        .select({ ...versionSummaryColumns, document: sheetVersions.document, digests: sheetVersions.digests })
+        .select({
+          ...versionSummaryColumns,
+          document: sheetVersions.document,
+          digests: sheetVersions.digests,
+        })
         .from(sheetVersions)
         .innerJoin(users, eq(users.id, sheetVersions.authorId))
         .where(and(eq(sheetVersions.sheetId, sheetId), eq(sheetVersions.number, number)));

@@ -1,6 +1,11 @@
 import { Router } from 'express';
 import { z } from 'zod';
-import { createSheetRequestSchema, renameSheetRequestSchema, saveVersionRequestSchema, sheetIdSchema } from '@shared/api/sheets';
+import {
+  createSheetRequestSchema,
+  renameSheetRequestSchema,
+  saveVersionRequestSchema,
+  sheetIdSchema,
+} from '@shared/api/sheets';
 import { currentUser, requireSignedIn } from '../auth/session-middleware';
 import { parseOr400 } from '../http/validate';
 import { sheetNotFound, versionNotFound } from './sheets.errors';

@@ -1,4 +1,13 @@
-import { type AnyPgColumn, index, integer, jsonb, pgTable, primaryKey, text, timestamp } from 'drizzle-orm/pg-core';
+import {
+  type AnyPgColumn,
+  index,
+  integer,
+  jsonb,
+  pgTable,
+  primaryKey,
+  text,
+  timestamp,
+} from 'drizzle-orm/pg-core';
 import type { VersionDigests } from '@shared/api/sheets';
 import { users } from '../users/users.table';
 

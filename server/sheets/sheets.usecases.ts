@@ -13,7 +13,13 @@ import { emptySheetDocument, sheetDocumentSchema, type SheetDocument } from '@sh
 import type { Db } from '../db/client';
 import { zodIssueToBadRequest } from '../http/validate';
 import { createSheetsRepository, type SheetRecord, type SheetsRepository } from './sheets.repository';
-import { invalidDocument, sheetForbidden, sheetNotFound, versionConflict, versionNotFound } from './sheets.errors';
+import {
+  invalidDocument,
+  sheetForbidden,
+  sheetNotFound,
+  versionConflict,
+  versionNotFound,
+} from './sheets.errors';
 
 /** Roles on a sheet, weakest first. */
 export const SHEET_ROLES = ['viewer', 'commenter', 'editor', 'owner'] as const;
@@ -32,7 +38,11 @@ export function sheetRoleOf(sheet: Pick<SheetRecord, 'ownerId'>, user: SheetActo
  * The one place that decides who may do what with a sheet. A caller without any role gets 404,
  * as if the sheet did not exist; one who may see it but needs a stronger role gets 403.
  */
-export function requireSheetRole(sheet: SheetRecord | null, user: SheetActor, needed: SheetRole): SheetRecord {
+export function requireSheetRole(
+  sheet: SheetRecord | null,
+  user: SheetActor,
+  needed: SheetRole,
+): SheetRecord {
   if (!sheet) throw sheetNotFound();
   const role = sheetRoleOf(sheet, user);
   if (!role) throw sheetNotFound();
@@ -46,14 +56,22 @@ export function parseSheetDocument(document: unknown): SheetDocument {
   if (result.success) return result.data;
   const generic = zodIssueToBadRequest(result.error, 'document');
   const path = ['document', ...((generic.details.path as (string | number)[] | undefined) ?? [])];
-  throw invalidDocument(`${path.join('.')}: ${result.error.issues[0]?.message ?? 'not a valid sheet document'}`, path);
+  throw invalidDocument(
+    `${path.join('.')}: ${result.error.issues[0]?.message ?? 'not a valid sheet document'}`,
+    path,
+  );
 }
 
 function checkDigests(document: SheetDocument, digests: Record<string, string>) {
-  const simulationIds = new Set(document.cells.filter((cell) => cell.kind === 'simulation').map((cell) => cell.id));
+  const simulationIds = new Set(
+    document.cells.filter((cell) => cell.kind === 'simulation').map((cell) => cell.id),
+  );
   for (const cellId of Object.keys(digests)) {
     if (!simulationIds.has(cellId)) {
-      throw invalidDocument(`digests.${cellId}: there is no simulation cell with this id`, ['digests', cellId]);
+      throw invalidDocument(`digests.${cellId}: there is no simulation cell with this id`, [
+        'digests',
+        cellId,
+      ]);
     }
   }
 }
@@ -71,14 +89,24 @@ export interface SheetsUsecaseDeps {
 export function createSheetsUsecases({ db, sheets, now = () => new Date() }: SheetsUsecaseDeps) {
   return {
     /** A new sheet with its version 1; the document's title follows the sheet's. */
-    async createSheet(user: SheetActor, input: CreateSheetRequest & { forkedFrom?: string }): Promise<CreatedSheet> {
+    async createSheet(
+      user: SheetActor,
+      input: CreateSheetRequest & { forkedFrom?: string },
+    ): Promise<CreatedSheet> {
       const document = parseSheetDocument(
-        input.document === undefined ? emptySheetDocument(input.title) : withTitle(input.document, input.title),
+        input.document === undefined
+          ? emptySheetDocument(input.title)
+          : withTitle(input.document, input.title),
       );
       const id = generateIdFromEntropySize(10);
       await db.transaction(async (tx) => {
         const txSheets = createSheetsRepository({ db: tx });
-        await txSheets.insertSheet({ id, ownerId: user.id, title: input.title, forkedFrom: input.forkedFrom ?? null });
+        await txSheets.insertSheet({
+          id,
+          ownerId: user.id,
+          title: input.title,
+          forkedFrom: input.forkedFrom ?? null,
+        });
         await txSheets.insertVersion({
           sheetId: id,
           number: 1,
@@ -124,7 +152,11 @@ export function createSheetsUsecases({ db, sheets, now = () => new Date() }: She
       };
     },
 
-    async renameSheet(user: SheetActor, sheetId: string, title: string): Promise<{ id: string; title: string }> {
+    async renameSheet(
+      user: SheetActor,
+      sheetId: string,
+      title: string,
+    ): Promise<{ id: string; title: string }> {
       const sheet = requireSheetRole(await sheets.findById(sheetId), user, 'editor');
       await sheets.rename(sheet.id, title, now());
       return { id: sheet.id, title };

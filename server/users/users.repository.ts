@@ -7,7 +7,10 @@ import { type NewUserRow, users } from './users.table';
 export function createUsersRepository({ db }: { db: DbExecutor }) {
   return {
     async findByEmail(email: string) {
-      const [row] = await db.select().from(users).where(eq(sql`lower(${users.email})`, email.toLowerCase()));
+      const [row] = await db
+        .select()
+        .from(users)
+        .where(eq(sql`lower(${users.email})`, email.toLowerCase()));
       return row ?? null;
     },
 
@@ -54,7 +57,13 @@ export function createUsersRepository({ db }: { db: DbExecutor }) {
       const where = search ? or(ilike(users.email, pattern), ilike(users.name, pattern)) : undefined;
       const [rows, [totalRow]] = await Promise.all([
         db
-          .select({ id: users.id, email: users.email, name: users.name, role: users.role, createdAt: users.createdAt })
+          .select({
+            id: users.id,
+            email: users.email,
+            name: users.name,
+            role: users.role,
+            createdAt: users.createdAt,
+          })
           .from(users)
           .where(where)
           .orderBy(desc(users.createdAt), users.id)

@@ -15,7 +15,10 @@ export const cellIdSchema = z
 /** A name usable inside expressions: a parameter, a state variable or a noise source. */
 export const symbolNameSchema = z
   .string()
-  .regex(/^[A-Za-z_][A-Za-z0-9_]{0,31}$/, 'a name starts with a letter or "_" and has only letters, digits and "_"');
+  .regex(
+    /^[A-Za-z_][A-Za-z0-9_]{0,31}$/,
+    'a name starts with a letter or "_" and has only letters, digits and "_"',
+  );
 
 /** Text of a restricted expression (checked by the expression compiler, not here). */
 export const expressionSchema = z.string().max(2000, 'an expression is at most 2000 characters');

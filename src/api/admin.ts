@@ -20,9 +20,14 @@ export interface AdminUserQuery {
 }
 
 export async function listUsers(query: AdminUserQuery = {}): Promise<AdminUserPage> {
-  const raw = await request('/api/admin/users', { query: { search: query.search?.trim(), page: query.page, pageSize: query.pageSize } });
+  const raw = await request('/api/admin/users', {
+    query: { search: query.search?.trim(), page: query.page, pageSize: query.pageSize },
+  });
   const answer = parseAnswer(adminUserListSchema, raw, 'the user list');
-  return { total: answer.total, users: answer.users.map((user) => ({ ...user, createdAt: toDate(user.createdAt) })) };
+  return {
+    total: answer.total,
+    users: answer.users.map((user) => ({ ...user, createdAt: toDate(user.createdAt) })),
+  };
 }
 
 export async function setUserRole(userId: string, role: SiteRole): Promise<void> {

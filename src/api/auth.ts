@@ -1,4 +1,10 @@
-import { currentUserSchema, type ChangePasswordRequest, type CurrentUser, type SignInRequest, type SignUpRequest } from '@shared/api/auth';
+import {
+  currentUserSchema,
+  type ChangePasswordRequest,
+  type CurrentUser,
+  type SignInRequest,
+  type SignUpRequest,
+} from '@shared/api/auth';
 import { ApiError, request } from './http';
 import { parseAnswer } from './parse';
 
@@ -17,11 +23,19 @@ export async function fetchCurrentUser(): Promise<CurrentUser | null> {
 }
 
 export async function signUp(body: SignUpRequest): Promise<CurrentUser> {
-  return parseAnswer(currentUserSchema, await request('/api/auth/sign-up', { method: 'POST', body }), 'sign-up');
+  return parseAnswer(
+    currentUserSchema,
+    await request('/api/auth/sign-up', { method: 'POST', body }),
+    'sign-up',
+  );
 }
 
 export async function signIn(body: SignInRequest): Promise<CurrentUser> {
-  return parseAnswer(currentUserSchema, await request('/api/auth/sign-in', { method: 'POST', body }), 'sign-in');
+  return parseAnswer(
+    currentUserSchema,
+    await request('/api/auth/sign-in', { method: 'POST', body }),
+    'sign-in',
+  );
 }
 
 export async function signOut(): Promise<void> {

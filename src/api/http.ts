@@ -15,7 +15,13 @@ export class ApiError extends Error {
   /** Every other field of the error object (e.g. `currentVersion` on a version conflict). */
   readonly details: Record<string, unknown>;
 
-  constructor(init: { status: number; code: string; message: string; path?: (string | number)[]; details?: Record<string, unknown> }) {
+  constructor(init: {
+    status: number;
+    code: string;
+    message: string;
+    path?: (string | number)[];
+    details?: Record<string, unknown>;
+  }) {
     super(init.message);
     this.name = 'ApiError';
     this.status = init.status;
@@ -62,8 +68,10 @@ export function buildUrl(path: string, query?: Record<string, QueryValue>): stri
 }
 
 function normalisePath(raw: unknown): (string | number)[] | undefined {
-  if (Array.isArray(raw)) return raw.filter((p): p is string | number => typeof p === 'string' || typeof p === 'number');
-  if (typeof raw === 'string' && raw !== '') return raw.split('.').map((p) => (/^\d+$/.test(p) ? Number(p) : p));
+  if (Array.isArray(raw))
+    return raw.filter((p): p is string | number => typeof p === 'string' || typeof p === 'number');
+  if (typeof raw === 'string' && raw !== '')
+    return raw.split('.').map((p) => (/^\d+$/.test(p) ? Number(p) : p));
   return undefined;
 }
 
@@ -87,7 +95,12 @@ export async function errorFromResponse(response: Response, path: string): Promi
       details,
     });
   }
-  return new ApiError({ status: response.status, code: `http.${response.status}`, message: fallbackMessage(response), details: { url: path } });
+  return new ApiError({
+    status: response.status,
+    code: `http.${response.status}`,
+    message: fallbackMessage(response),
+    details: { url: path },
+  });
 }
 
 function fallbackMessage(response: Response): string {
@@ -120,7 +133,8 @@ export async function request<T>(path: string, options: RequestOptions = {}): Pr
 
   if (!response.ok) {
     const error = await errorFromResponse(response, path);
-    if (error.status === 401 && !path.startsWith('/api/auth/') && unauthorizedListener) unauthorizedListener(error);
+    if (error.status === 401 && !path.startsWith('/api/auth/') && unauthorizedListener)
+      unauthorizedListener(error);
     throw error;
   }
   if (response.status === 204) return undefined as T;
@@ -129,7 +143,11 @@ export async function request<T>(path: string, options: RequestOptions = {}): Pr
   try {
     return JSON.parse(text) as T;
   } catch {
-    throw new ApiError({ status: response.status, code: 'http.bad_json', message: 'The server sent an answer Meander cannot read.' });
+    throw new ApiError({
+      status: response.status,
+      code: 'http.bad_json',
+      message: 'The server sent an answer Meander cannot read.',
+    });
   }
 }
 
@@ -137,7 +155,12 @@ export async function request<T>(path: string, options: RequestOptions = {}): Pr
 export function toDate(value: string | Date): Date {
   if (value instanceof Date) return value;
   const date = new Date(value);
-  if (Number.isNaN(date.getTime())) throw new ApiError({ status: 0, code: 'http.bad_date', message: `The server sent an unreadable date: ${value}` });
+  if (Number.isNaN(date.getTime()))
+    throw new ApiError({
+      status: 0,
+      code: 'http.bad_date',
+      message: `The server sent an unreadable date: ${value}`,
+    });
   return date;
 }
 

@@ -22,14 +22,20 @@ import { parseAnswer } from './parse';
 
 export type { CreatedSheet, SavedVersion, VersionDigests } from '@shared/api/sheets';
 
-export type SheetSummary = Omit<SheetSummaryWire, 'createdAt' | 'updatedAt'> & { createdAt: Date; updatedAt: Date };
+export type SheetSummary = Omit<SheetSummaryWire, 'createdAt' | 'updatedAt'> & {
+  createdAt: Date;
+  updatedAt: Date;
+};
 export type SheetDetail = Omit<SheetDetailWire, 'document' | 'createdAt' | 'updatedAt'> & {
   document: SheetDocument;
   createdAt: Date;
   updatedAt: Date;
 };
 export type VersionSummary = Omit<VersionSummaryWire, 'createdAt'> & { createdAt: Date };
-export type VersionDetail = Omit<VersionDetailWire, 'document' | 'createdAt'> & { document: SheetDocument; createdAt: Date };
+export type VersionDetail = Omit<VersionDetailWire, 'document' | 'createdAt'> & {
+  document: SheetDocument;
+  createdAt: Date;
+};
 
 export interface SaveVersionBody {
   /** The version the edits started from; a newer current version answers 409. */
@@ -57,12 +63,23 @@ function readDocument(raw: unknown, what: string): SheetDocument {
 /** The signed-in user's sheets, newest first. */
 export async function listSheets(): Promise<SheetSummary[]> {
   const answer = parseAnswer(sheetListSchema, await request('/api/sheets'), 'the sheet list');
-  return answer.sheets.map((sheet) => ({ ...sheet, createdAt: toDate(sheet.createdAt), updatedAt: toDate(sheet.updatedAt) }));
+  return answer.sheets.map((sheet) => ({
+    ...sheet,
+    createdAt: toDate(sheet.createdAt),
+    updatedAt: toDate(sheet.updatedAt),
+  }));
 }
 
 /** Creates a sheet at version 1; without a document the server starts an empty one. */
-export async function createSheet(body: { title: string; document?: SheetDocumentInput }): Promise<CreatedSheet> {
-  return parseAnswer(createdSheetSchema, await request('/api/sheets', { method: 'POST', body }), 'the new sheet');
+export async function createSheet(body: {
+  title: string;
+  document?: SheetDocumentInput;
+}): Promise<CreatedSheet> {
+  return parseAnswer(
+    createdSheetSchema,
+    await request('/api/sheets', { method: 'POST', body }),
+    'the new sheet',
+  );
 }
 
 export async function getSheet(id: string): Promise<SheetDetail> {
@@ -94,13 +111,25 @@ export async function saveVersion(id: string, body: SaveVersionBody): Promise<Sa
 
 /** Versions of a sheet (as the server orders them), without their documents. */
 export async function listVersions(id: string): Promise<VersionSummary[]> {
-  const answer = parseAnswer(versionListSchema, await request(`${sheetPath(id)}/versions`), 'the version list');
+  const answer = parseAnswer(
+    versionListSchema,
+    await request(`${sheetPath(id)}/versions`),
+    'the version list',
+  );
   return answer.versions.map((version) => ({ ...version, createdAt: toDate(version.createdAt) }));
 }
 
 export async function getVersion(id: string, number: number): Promise<VersionDetail> {
-  const answer = parseAnswer(versionDetailSchema, await request(`${sheetPath(id)}/versions/${number}`), `version ${number}`);
-  return { ...answer, document: readDocument(answer.document, `version ${number}`), createdAt: toDate(answer.createdAt) };
+  const answer = parseAnswer(
+    versionDetailSchema,
+    await request(`${sheetPath(id)}/versions/${number}`),
+    `version ${number}`,
+  );
+  return {
+    ...answer,
+    document: readDocument(answer.document, `version ${number}`),
+    createdAt: toDate(answer.createdAt),
+  };
 }
 
 /** The current version number when `error` is a save conflict (409), else null. */

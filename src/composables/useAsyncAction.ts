@@ -9,7 +9,9 @@ export function useAsyncAction() {
   const busy = ref(false);
   const error = ref<string | null>(null);
 
-  async function run<T>(action: () => Promise<T>): Promise<{ ok: true; value: T } | { ok: false; error: unknown }> {
+  async function run<T>(
+    action: () => Promise<T>,
+  ): Promise<{ ok: true; value: T } | { ok: false; error: unknown }> {
     if (busy.value) return { ok: false, error: new Error('busy') };
     busy.value = true;
     error.value = null;

@@ -13,7 +13,10 @@ export function safeRedirect(value: unknown, fallback = '/sheets'): string {
  * people go to sign-in with the page they wanted in `redirect`; members asking for an admin page
  * go to the "admins only" page.
  */
-export function accessDecision(to: RouteLocationNormalized, user: CurrentUser | null): true | RouteLocationRaw {
+export function accessDecision(
+  to: RouteLocationNormalized,
+  user: CurrentUser | null,
+): true | RouteLocationRaw {
   if (to.meta.guestOnly && user) return safeRedirect(to.query.redirect);
   if (to.meta.public) return true;
   if (!user) return { name: 'sign-in', query: { redirect: to.fullPath } };

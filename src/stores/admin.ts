@@ -23,7 +23,11 @@ export const useAdminStore = defineStore('admin', () => {
     const requestNumber = ++latestRequest;
     loading.value = true;
     try {
-      const answer = await adminApi.listUsers({ search: search.value, page: page.value, pageSize: pageSize.value });
+      const answer = await adminApi.listUsers({
+        search: search.value,
+        page: page.value,
+        pageSize: pageSize.value,
+      });
       if (requestNumber !== latestRequest) return;
       users.value = answer.users;
       total.value = answer.total;
@@ -63,5 +67,19 @@ export const useAdminStore = defineStore('admin', () => {
     }
   }
 
-  return { users, total, search, page, pageSize, loading, error, savingRoleFor, fetchUsers, setSearch, setPage, setPageSize, setRole };
+  return {
+    users,
+    total,
+    search,
+    page,
+    pageSize,
+    loading,
+    error,
+    savingRoleFor,
+    fetchUsers,
+    setSearch,
+    setPage,
+    setPageSize,
+    setRole,
+  };
 });

@@ -66,5 +66,19 @@ export const useSessionStore = defineStore('session', () => {
     me.value = null;
   }
 
-  return { me, loaded, loadError, isSignedIn, isAdmin, load, ensureLoaded, signIn, signUp, signOut, updateName, changePassword, clear };
+  return {
+    me,
+    loaded,
+    loadError,
+    isSignedIn,
+    isAdmin,
+    load,
+    ensureLoaded,
+    signIn,
+    signUp,
+    signOut,
+    updateName,
+    changePassword,
+    clear,
+  };
 });

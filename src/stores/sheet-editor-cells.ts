@@ -26,7 +26,15 @@ export const CELL_KIND_WORDS: Record<CellKind, string> = {
   study: 'step-size study',
 };
 
-export const CELL_KINDS: readonly CellKind[] = ['note', 'params', 'model', 'simulation', 'chart', 'probe', 'study'];
+export const CELL_KINDS: readonly CellKind[] = [
+  'note',
+  'params',
+  'model',
+  'simulation',
+  'chart',
+  'probe',
+  'study',
+];
 
 function randomHex(): string {
   const uuid = globalThis.crypto?.randomUUID?.();
@@ -78,7 +86,9 @@ export function nearestCell<K extends CellKind>(
 }
 
 function firstStateOf(doc: SheetDocument, simulation: SimulationCell | undefined): string {
-  const model = doc.cells.find((cell): cell is ModelCell => cell.kind === 'model' && cell.id === simulation?.model);
+  const model = doc.cells.find(
+    (cell): cell is ModelCell => cell.kind === 'model' && cell.id === simulation?.model,
+  );
   return model?.states[0]?.name ?? 'x';
 }
 
@@ -102,7 +112,11 @@ export function defaultCell(kind: CellKind, doc: SheetDocument, index: number): 
     case 'note':
       return { id, kind, text: 'Write what this part of the sheet is for.' };
     case 'params':
-      return { id, kind, params: [{ name: freshName('k', taken), value: 1, description: 'a new parameter' }] };
+      return {
+        id,
+        kind,
+        params: [{ name: freshName('k', taken), value: 1, description: 'a new parameter' }],
+      };
     case 'model': {
       const state = freshName('x', taken);
       const noise = freshName('W', new Set([...taken, state]));
@@ -136,11 +150,23 @@ export function defaultCell(kind: CellKind, doc: SheetDocument, index: number): 
     }
     case 'chart': {
       const simulation = nearestCell(doc, 'simulation', index);
-      return { id, kind, simulation: simulation?.id ?? 'simulation', view: 'fan', state: firstStateOf(doc, simulation) };
+      return {
+        id,
+        kind,
+        simulation: simulation?.id ?? 'simulation',
+        view: 'fan',
+        state: firstStateOf(doc, simulation),
+      };
     }
     case 'probe': {
       const simulation = nearestCell(doc, 'simulation', index);
-      return { id, kind, simulation: simulation?.id ?? 'simulation', quantity: 'mean', state: firstStateOf(doc, simulation) };
+      return {
+        id,
+        kind,
+        simulation: simulation?.id ?? 'simulation',
+        quantity: 'mean',
+        state: firstStateOf(doc, simulation),
+      };
     }
     case 'study': {
       const simulation = nearestCell(doc, 'simulation', index);
@@ -185,7 +211,10 @@ export function duplicateCell(doc: SheetDocument, cellId: string): { doc: SheetD
   if (index < 0) return { doc, copy: null };
   const original = doc.cells[index]!;
   // JSON copy: the document is plain JSON, and reactive proxies cannot go through structuredClone.
-  const copy = { ...(JSON.parse(JSON.stringify(original)) as Cell), id: newCellId(original.kind, doc) } as Cell;
+  const copy = {
+    ...(JSON.parse(JSON.stringify(original)) as Cell),
+    id: newCellId(original.kind, doc),
+  } as Cell;
   return { doc: insertCell(doc, index + 1, copy), copy };
 }
 
@@ -194,8 +223,14 @@ export interface RemovedCell {
   index: number;
 }
 
-export function removeCell(doc: SheetDocument, cellId: string): { doc: SheetDocument; removed: RemovedCell | null } {
+export function removeCell(
+  doc: SheetDocument,
+  cellId: string,
+): { doc: SheetDocument; removed: RemovedCell | null } {
   const index = doc.cells.findIndex((cell) => cell.id === cellId);
   if (index < 0) return { doc, removed: null };
-  return { doc: { ...doc, cells: doc.cells.filter((cell) => cell.id !== cellId) }, removed: { cell: doc.cells[index]!, index } };
+  return {
+    doc: { ...doc, cells: doc.cells.filter((cell) => cell.id !== cellId) },
+    removed: { cell: doc.cells[index]!, index },
+  };
 }

@@ -34,7 +34,11 @@ export function writeDraft(slot: DraftSlot, userId: string, sheetId: string, dra
   try {
     store.setItem(
       draftKey(slot, userId, sheetId),
-      JSON.stringify({ document: draft.document, baseVersion: draft.baseVersion, savedAt: draft.savedAt.toISOString() }),
+      JSON.stringify({
+        document: draft.document,
+        baseVersion: draft.baseVersion,
+        savedAt: draft.savedAt.toISOString(),
+      }),
     );
     return true;
   } catch {
@@ -51,7 +55,12 @@ export function readDraft(slot: DraftSlot, userId: string, sheetId: string): She
     const frame = sheetDocumentSchema.pick({ schemaVersion: true }).safeParse(raw.document);
     const savedAt = new Date(String(raw.savedAt));
     const cells = (raw.document as { cells?: unknown } | undefined)?.cells;
-    if (!frame.success || !Array.isArray(cells) || typeof raw.baseVersion !== 'number' || Number.isNaN(savedAt.getTime())) {
+    if (
+      !frame.success ||
+      !Array.isArray(cells) ||
+      typeof raw.baseVersion !== 'number' ||
+      Number.isNaN(savedAt.getTime())
+    ) {
       return null;
     }
     return { document: raw.document as SheetDocument, baseVersion: raw.baseVersion, savedAt };

@@ -33,7 +33,10 @@ export function hashText(text: string): string {
 }
 
 /** Every cell id `cellId` reads, directly or indirectly, without itself. */
-export function transitiveDependencies(cellId: string, dependencies: ReadonlyMap<string, readonly string[]>): string[] {
+export function transitiveDependencies(
+  cellId: string,
+  dependencies: ReadonlyMap<string, readonly string[]>,
+): string[] {
   const seen = new Set<string>();
   const pending = [...(dependencies.get(cellId) ?? [])];
   while (pending.length > 0) {
@@ -51,7 +54,9 @@ export function cellFingerprint(
   dependencies: ReadonlyMap<string, readonly string[]>,
 ): string {
   const byId = new Map(doc.cells.map((cell) => [cell.id, cell]));
-  const inputs = [cellId, ...transitiveDependencies(cellId, dependencies)].map((id) => byId.get(id) ?? { missing: id });
+  const inputs = [cellId, ...transitiveDependencies(cellId, dependencies)].map(
+    (id) => byId.get(id) ?? { missing: id },
+  );
   return hashText(stableStringify(inputs));
 }
 

@@ -24,7 +24,10 @@ function push(target: Record<string, CellIssue[]>, cellId: string, issue: CellIs
   (target[cellId] ??= []).push(issue);
 }
 
-export function collectIssues(doc: SheetDocument, checkSheet: (doc: SheetDocument) => SheetIssueLike[]): CollectedIssues {
+export function collectIssues(
+  doc: SheetDocument,
+  checkSheet: (doc: SheetDocument) => SheetIssueLike[],
+): CollectedIssues {
   const byCell: Record<string, CellIssue[]> = {};
   const sheet: string[] = [];
   const shape = sheetDocumentSchema.safeParse(doc);
@@ -32,7 +35,11 @@ export function collectIssues(doc: SheetDocument, checkSheet: (doc: SheetDocumen
     for (const issue of shape.error.issues) {
       const [head, index, ...rest] = issue.path;
       const cell = head === 'cells' && typeof index === 'number' ? doc.cells[index] : undefined;
-      if (cell) push(byCell, cell.id, { path: rest.map((part) => (typeof part === 'symbol' ? String(part) : part)), message: issue.message });
+      if (cell)
+        push(byCell, cell.id, {
+          path: rest.map((part) => (typeof part === 'symbol' ? String(part) : part)),
+          message: issue.message,
+        });
       else sheet.push(issue.path.length > 0 ? `${issue.path.join('.')}: ${issue.message}` : issue.message);
     }
     // The checker expects a well-formed document; the shape problems come first anyway.

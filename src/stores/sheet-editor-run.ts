@@ -1,6 +1,12 @@
 import type { Cell, ProbeCell, SheetDocument, StudyCell } from '@shared/sheet/document';
 import type { SimulationPlan } from '@shared/engine/plan';
-import type { ProbeEstimate, ProbeRequest, SimulationResult, StudyOptions, StudyResult } from '@shared/engine/result';
+import type {
+  ProbeEstimate,
+  ProbeRequest,
+  SimulationResult,
+  StudyOptions,
+  StudyResult,
+} from '@shared/engine/result';
 import type { CellOutput } from '@/components/cells/contract';
 import { stableStringify, transitiveDependencies } from './sheet-editor-fingerprint';
 
@@ -21,7 +27,11 @@ export interface RunProgress {
 
 export interface SheetRunBackend {
   runSimulation(plan: SimulationPlan, onProgress: (progress: RunProgress) => void): Promise<SimulationResult>;
-  runStudy(plan: SimulationPlan, options: StudyOptions, onProgress: (progress: RunProgress) => void): Promise<StudyResult>;
+  runStudy(
+    plan: SimulationPlan,
+    options: StudyOptions,
+    onProgress: (progress: RunProgress) => void,
+  ): Promise<StudyResult>;
   cancel(): void;
 }
 
@@ -65,7 +75,8 @@ export function planRunSteps(
     if (!target) return [];
     if (target.kind === 'params' || target.kind === 'model') {
       for (const cell of doc.cells) {
-        if (NUMERICAL.has(cell.kind) && transitiveDependencies(cell.id, dependencies).includes(targetId)) want(cell.id, true);
+        if (NUMERICAL.has(cell.kind) && transitiveDependencies(cell.id, dependencies).includes(targetId))
+          want(cell.id, true);
       }
     } else if (target.kind === 'chart') {
       want(target.simulation, true);
@@ -82,7 +93,11 @@ export function planRunSteps(
   return doc.cells
     .filter((cell) => wanted.has(cell.id) && NUMERICAL.has(cell.kind))
     .sort((a, b) => rank(a.kind) - rank(b.kind))
-    .map((cell) => ({ cellId: cell.id, kind: cell.kind as RunStepKind, force: wanted.get(cell.id) ?? false }));
+    .map((cell) => ({
+      cellId: cell.id,
+      kind: cell.kind as RunStepKind,
+      force: wanted.get(cell.id) ?? false,
+    }));
 }
 
 export interface RunContext {
@@ -109,7 +124,9 @@ function stateIndex(plan: SimulationPlan, state: string | undefined, cellKind: s
   if (state === undefined) return 0;
   const index = plan.model.stateNames.indexOf(state);
   if (index < 0) {
-    throw new Error(`the ${cellKind} names state '${state}', which the model does not have (it has ${plan.model.stateNames.join(', ')})`);
+    throw new Error(
+      `the ${cellKind} names state '${state}', which the model does not have (it has ${plan.model.stateNames.join(', ')})`,
+    );
   }
   return index;
 }
@@ -150,7 +167,13 @@ async function runSimulationStep(ctx: RunContext, step: RunStep): Promise<void> 
   const result = await ctx.backend.runSimulation(plan, (progress) => ctx.onProgress(step.cellId, progress));
   ctx.setOutput(
     step.cellId,
-    { kind: 'simulation', plan, result, finishedAt: new Date(), seconds: (performance.now() - started) / 1000 },
+    {
+      kind: 'simulation',
+      plan,
+      result,
+      finishedAt: new Date(),
+      seconds: (performance.now() - started) / 1000,
+    },
     ctx.fingerprints[step.cellId] ?? '',
   );
 }
@@ -158,11 +181,18 @@ async function runSimulationStep(ctx: RunContext, step: RunStep): Promise<void> 
 function runProbeStep(ctx: RunContext, probe: ProbeCell): void {
   const kept = ctx.outputOf(probe.simulation);
   if (!kept || kept.output.kind !== 'simulation') {
-    const reason = kept?.output.kind === 'error' ? `its simulation failed: ${kept.output.message}` : 'its simulation has no result';
+    const reason =
+      kept?.output.kind === 'error'
+        ? `its simulation failed: ${kept.output.message}`
+        : 'its simulation has no result';
     throw new Error(`cannot read this probe: ${reason}`);
   }
   const estimate = ctx.tools.evaluateProbe(kept.output.result, probeRequest(probe, kept.output.plan));
-  ctx.setOutput(probe.id, { kind: 'probe', estimate, finishedAt: new Date() }, ctx.fingerprints[probe.id] ?? '');
+  ctx.setOutput(
+    probe.id,
+    { kind: 'probe', estimate, finishedAt: new Date() },
+    ctx.fingerprints[probe.id] ?? '',
+  );
 }
 
 async function runStudyStep(ctx: RunContext, study: StudyCell): Promise<void> {

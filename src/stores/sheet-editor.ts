@@ -8,7 +8,13 @@ import { sheetFingerprints, stableStringify } from './sheet-editor-fingerprint';
 import * as cells from './sheet-editor-cells';
 import { clearDraft, readDraft, writeDraft, type SheetDraft } from './sheet-editor-drafts';
 import { collectIssues } from './sheet-editor-issues';
-import { currentDigests, executeRunSteps, planRunSteps, type RunProgress, type SheetRunBackend } from './sheet-editor-run';
+import {
+  currentDigests,
+  executeRunSteps,
+  planRunSteps,
+  type RunProgress,
+  type SheetRunBackend,
+} from './sheet-editor-run';
 import { createRunBackend, sheetTools } from './sheet-editor-backend';
 
 /**
@@ -67,9 +73,14 @@ export const useSheetEditorStore = defineStore('sheet-editor', () => {
       return new Map();
     }
   });
-  const fingerprints = computed(() => (document.value ? sheetFingerprints(document.value, dependencies.value) : {}));
+  const fingerprints = computed(() =>
+    document.value ? sheetFingerprints(document.value, dependencies.value) : {},
+  );
   const dirty = computed(
-    () => !readonly.value && document.value !== null && stableStringify(document.value) !== stableStringify(serverDocument.value),
+    () =>
+      !readonly.value &&
+      document.value !== null &&
+      stableStringify(document.value) !== stableStringify(serverDocument.value),
   );
 
   /** Ids of cells whose output (or, for a chart, whose simulation's output) predates their inputs. */
@@ -161,7 +172,11 @@ export const useSheetEditorStore = defineStore('sheet-editor', () => {
     if (readonly.value || !sheetId.value) return;
     document.value = next;
     if (dirty.value) {
-      const written = writeDraft('draft', userId.value, sheetId.value, { document: next, baseVersion: baseVersion.value, savedAt: new Date() });
+      const written = writeDraft('draft', userId.value, sheetId.value, {
+        document: next,
+        baseVersion: baseVersion.value,
+        savedAt: new Date(),
+      });
       draftStorageFailed.value = !written;
     } else {
       clearDraft('draft', userId.value, sheetId.value);
@@ -210,7 +225,9 @@ export const useSheetEditorStore = defineStore('sheet-editor', () => {
     lastDeleted.value = null;
     // A cell added since with the same id would clash: keep both by giving the restored one a new id.
     const clash = document.value.cells.some((cell) => cell.id === removed.cell.id);
-    const cell = clash ? ({ ...removed.cell, id: cells.newCellId(removed.cell.kind, document.value) } as Cell) : removed.cell;
+    const cell = clash
+      ? ({ ...removed.cell, id: cells.newCellId(removed.cell.kind, document.value) } as Cell)
+      : removed.cell;
     commit(cells.insertCell(document.value, removed.index, cell));
     return cell.id;
   }
@@ -229,7 +246,10 @@ export const useSheetEditorStore = defineStore('sheet-editor', () => {
     const doc = JSON.parse(JSON.stringify(document.value)) as SheetDocument;
     const steps = planRunSteps(doc, targetId, dependencies.value);
     if (steps.length === 0) {
-      runNotice.value = targetId === null ? 'Nothing to run: the sheet has no simulation, probe or study.' : 'Nothing to run for this cell.';
+      runNotice.value =
+        targetId === null
+          ? 'Nothing to run: the sheet has no simulation, probe or study.'
+          : 'Nothing to run for this cell.';
       return;
     }
     running.value = true;
@@ -290,7 +310,12 @@ export const useSheetEditorStore = defineStore('sheet-editor', () => {
     saveError.value = null;
     try {
       const digests = currentDigests(doc, outputs.value, outputFingerprints.value, fingerprints.value);
-      const saved = await saveVersion(id, { baseVersion: baseVersion.value, message, document: doc, digests });
+      const saved = await saveVersion(id, {
+        baseVersion: baseVersion.value,
+        message,
+        document: doc,
+        digests,
+      });
       baseVersion.value = saved.number;
       latestVersion.value = Math.max(latestVersion.value, saved.number);
       serverDocument.value = doc;

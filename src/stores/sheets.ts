@@ -27,14 +27,26 @@ export const useSheetsStore = defineStore('sheets', () => {
   async function create(title: string): Promise<CreatedSheet> {
     const created = await sheetsApi.createSheet({ title: title.trim() });
     const now = new Date();
-    items.value = [{ id: created.id, title: created.title, version: created.version, forkedFrom: null, createdAt: now, updatedAt: now }, ...items.value];
+    items.value = [
+      {
+        id: created.id,
+        title: created.title,
+        version: created.version,
+        forkedFrom: null,
+        createdAt: now,
+        updatedAt: now,
+      },
+      ...items.value,
+    ];
     return created;
   }
 
   async function rename(id: string, title: string): Promise<void> {
     const trimmed = title.trim();
     await sheetsApi.renameSheet(id, trimmed);
-    items.value = items.value.map((sheet) => (sheet.id === id ? { ...sheet, title: trimmed, updatedAt: new Date() } : sheet));
+    items.value = items.value.map((sheet) =>
+      sheet.id === id ? { ...sheet, title: trimmed, updatedAt: new Date() } : sheet,
+    );
   }
 
   async function remove(id: string): Promise<void> {

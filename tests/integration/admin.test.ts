@@ -18,7 +18,10 @@ beforeAll(async () => {
   await makeAdmin(admin);
   member = await signUp(context, { name: 'Milo Member', email: 'milo.member@example.test' });
   for (let index = 0; index < 23; index += 1) {
-    await signUp(context, { name: `Field Worker ${String(index).padStart(2, '0')}`, email: `field.worker${index}@example.test` });
+    await signUp(context, {
+      name: `Field Worker ${String(index).padStart(2, '0')}`,
+      email: `field.worker${index}@example.test`,
+    });
   }
 });
 afterAll(async () => {
@@ -105,7 +108,9 @@ describe('admin routes', () => {
 
   it('answer 404 for an unknown user and 400 for an unknown role', async () => {
     const current = (await admin.agent.get('/api/auth/me')).body.role === 'admin' ? admin : member;
-    expect((await current.agent.patch('/api/admin/users/nosuchuser').send({ role: 'admin' })).status).toBe(404);
+    expect((await current.agent.patch('/api/admin/users/nosuchuser').send({ role: 'admin' })).status).toBe(
+      404,
+    );
     const badRole = await current.agent.patch(`/api/admin/users/${member.id}`).send({ role: 'owner' });
     expect(badRole.status).toBe(400);
     expect(badRole.body.error.path).toEqual(['role']);

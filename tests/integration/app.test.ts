@@ -11,9 +11,15 @@ let clientDir: string;
 beforeAll(async () => {
   clientDir = await mkdtemp(path.join(os.tmpdir(), 'meander-client-'));
   await mkdir(path.join(clientDir, 'assets'));
-  await writeFile(path.join(clientDir, 'index.html'), '<!doctype html><title>Meander</title><div id="app"></div>');
+  await writeFile(
+    path.join(clientDir, 'index.html'),
+    '<!doctype html><title>Meander</title><div id="app"></div>',
+  );
   await writeFile(path.join(clientDir, 'assets', 'index-abc123.js'), 'export {};');
-  await writeFile(path.join(clientDir, 'assets', 'simulation.worker-def456.js'), 'self.onmessage = () => {};');
+  await writeFile(
+    path.join(clientDir, 'assets', 'simulation.worker-def456.js'),
+    'self.onmessage = () => {};',
+  );
   context = await createTestContext({ config: { clientDir } });
 });
 afterAll(async () => {
@@ -31,7 +37,11 @@ describe('health', () => {
 
 describe('request handling', () => {
   it('answers malformed JSON with 400 request.bad_json', async () => {
-    const response = await context.agent().post('/api/auth/sign-in').set('Content-Type', 'application/json').send('{"email": ');
+    const response = await context
+      .agent()
+      .post('/api/auth/sign-in')
+      .set('Content-Type', 'application/json')
+      .send('{"email": ');
     expect(response.status).toBe(400);
     expect(response.body.error.code).toBe('request.bad_json');
   });

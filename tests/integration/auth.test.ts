@@ -2,12 +2,21 @@ import { sql } from 'drizzle-orm';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createRateLimiter } from '../../server/auth/rate-limiter';
-import { createTestContext, DEFAULT_PASSWORD, signUp, TEST_ORIGIN, type TestContext, uniqueEmail } from './helpers';
+import {
+  createTestContext,
+  DEFAULT_PASSWORD,
+  signUp,
+  TEST_ORIGIN,
+  type TestContext,
+  uniqueEmail,
+} from './helpers';
 
 let context: TestContext;
 beforeAll(async () => {
   // A small limit keeps the rate-limit test short; the production default is 10 per 15 minutes.
-  context = await createTestContext({ signInLimiter: createRateLimiter({ limit: 5, windowMs: 15 * 60 * 1000 }) });
+  context = await createTestContext({
+    signInLimiter: createRateLimiter({ limit: 5, windowMs: 15 * 60 * 1000 }),
+  });
 });
 afterAll(async () => {
   await context.close();
@@ -21,9 +30,17 @@ function sessionCookie(setCookie: string[] | string | undefined): string | undef
 describe('sign-up', () => {
   it('creates a member, answers 201 with the user and sets an httpOnly SameSite=Lax session cookie', async () => {
     const email = uniqueEmail('Estuary.Modeller');
-    const response = await context.agent().post('/api/auth/sign-up').send({ email, name: 'Rhea Castell', password: DEFAULT_PASSWORD });
+    const response = await context
+      .agent()
+      .post('/api/auth/sign-up')
+      .send({ email, name: 'Rhea Castell', password: DEFAULT_PASSWORD });
     expect(response.status).toBe(201);
-    expect(response.body).toEqual({ id: expect.any(String), email: email.toLowerCase(), name: 'Rhea Castell', role: 'member' });
+    expect(response.body).toEqual({
+      id: expect.any(String),
+      email: email.toLowerCase(),
+      name: 'Rhea Castell',
+      role: 'member',
+    });
     const cookie = sessionCookie(response.headers['set-cookie']);
     expect(cookie).toBeDefined();
     expect(cookie).toMatch(/HttpOnly/i);
@@ -34,14 +51,19 @@ describe('sign-up', () => {
 
   it('stores an argon2id hash, never the password', async () => {
     const user = await signUp(context);
-    const result = await context.database.db.execute(sql`select password_hash from users where id = ${user.id}`);
+    const result = await context.database.db.execute(
+      sql`select password_hash from users where id = ${user.id}`,
+    );
     const hash = String(result.rows[0]?.password_hash);
     expect(hash.startsWith('$argon2id$')).toBe(true);
     expect(hash).not.toContain(user.password);
   });
 
   it('rejects a password shorter than 10 characters with 400 and the field path', async () => {
-    const response = await context.agent().post('/api/auth/sign-up').send({ email: uniqueEmail(), name: 'Short Pass', password: 'nine-char' });
+    const response = await context
+      .agent()
+      .post('/api/auth/sign-up')
+      .send({ email: uniqueEmail(), name: 'Short Pass', password: 'nine-char' });
     expect(response.status).toBe(400);
     expect(response.body.error.code).toBe('request.invalid');
     expect(response.body.error.path).toEqual(['password']);
@@ -63,9 +85,16 @@ describe('sign-in, me and sign-out', () => {
   it('signs in with the right password (e-mail case ignored) and /me returns the user', async () => {
     const user = await signUp(context, { name: 'Ansel Varga' });
     const agent = context.agent();
-    const signIn = await agent.post('/api/auth/sign-in').send({ email: user.email.toUpperCase(), password: user.password });
+    const signIn = await agent
+      .post('/api/auth/sign-in')
+      .send({ email: user.email.toUpperCase(), password: user.password });
     expect(signIn.status).toBe(200);
-    expect(signIn.body).toMatchObject({ id: user.id, email: user.email, name: 'Ansel Varga', role: 'member' });
+    expect(signIn.body).toMatchObject({
+      id: user.id,
+      email: user.email,
+      name: 'Ansel Varga',
+      role: 'member',
+    });
     const me = await agent.get('/api/auth/me');
     expect(me.status).toBe(200);
     expect(me.body).toEqual({ id: user.id, email: user.email, name: 'Ansel Varga', role: 'member' });
@@ -79,8 +108,14 @@ describe('sign-in, me and sign-out', () => {
 
   it('gives the same 401 for an unknown e-mail and for a wrong password', async () => {
     const user = await signUp(context);
-    const wrongPassword = await context.agent().post('/api/auth/sign-in').send({ email: user.email, password: 'not-the-password' });
-    const unknownEmail = await context.agent().post('/api/auth/sign-in').send({ email: uniqueEmail('nobody'), password: 'not-the-password' });
+    const wrongPassword = await context
+      .agent()
+      .post('/api/auth/sign-in')
+      .send({ email: user.email, password: 'not-the-password' });
+    const unknownEmail = await context
+      .agent()
+      .post('/api/auth/sign-in')
+      .send({ email: uniqueEmail('nobody'), password: 'not-the-password' });
     expect(wrongPassword.status).toBe(401);
     expect(unknownEmail.status).toBe(401);
     expect(unknownEmail.body).toEqual(wrongPassword.body);
@@ -101,18 +136,24 @@ describe('sign-in, me and sign-out', () => {
     const user = await signUp(context);
     const agent = context.agent();
     for (let attempt = 1; attempt <= 5; attempt += 1) {
-      const response = await agent.post('/api/auth/sign-in').send({ email: user.email, password: `wrong-${attempt}` });
+      const response = await agent
+        .post('/api/auth/sign-in')
+        .send({ email: user.email, password: `wrong-${attempt}` });
       expect(response.status).toBe(401);
     }
     // Even the right password is refused once the limit is reached.
-    const limited = await agent.post('/api/auth/sign-in').send({ email: user.email, password: user.password });
+    const limited = await agent
+      .post('/api/auth/sign-in')
+      .send({ email: user.email, password: user.password });
     expect(limited.status).toBe(429);
     expect(limited.body.error.code).toBe('auth.rate_limited');
     expect(Number(limited.headers['retry-after'])).toBeGreaterThan(0);
     expect(Number(limited.headers['retry-after'])).toBeLessThanOrEqual(15 * 60);
     // Another e-mail from the same address is not affected.
     const other = await signUp(context);
-    expect((await agent.post('/api/auth/sign-in').send({ email: other.email, password: other.password })).status).toBe(200);
+    expect(
+      (await agent.post('/api/auth/sign-in').send({ email: other.email, password: other.password })).status,
+    ).toBe(200);
   });
 });
 
@@ -127,7 +168,10 @@ describe('cross-site request guard', () => {
 
   it('refuses a request from another origin, even with a valid session', async () => {
     const user = await signUp(context);
-    const response = await user.agent.post('/api/sheets').set('Origin', 'http://elsewhere.example.test').send({ title: 'Forged' });
+    const response = await user.agent
+      .post('/api/sheets')
+      .set('Origin', 'http://elsewhere.example.test')
+      .send({ title: 'Forged' });
     expect(response.status).toBe(403);
     expect(response.body.error.code).toBe('auth.bad_origin');
     const list = await user.agent.get('/api/sheets');
@@ -172,17 +216,31 @@ describe('account', () => {
   it('changes the password only with the current one, and ends other sessions', async () => {
     const user = await signUp(context);
     const otherDevice = context.agent();
-    expect((await otherDevice.post('/api/auth/sign-in').send({ email: user.email, password: user.password })).status).toBe(200);
+    expect(
+      (await otherDevice.post('/api/auth/sign-in').send({ email: user.email, password: user.password }))
+        .status,
+    ).toBe(200);
 
-    const wrong = await user.agent.post('/api/account/password').send({ currentPassword: 'not-my-password', newPassword: 'tidal-prism-2024' });
+    const wrong = await user.agent
+      .post('/api/account/password')
+      .send({ currentPassword: 'not-my-password', newPassword: 'tidal-prism-2024' });
     expect(wrong.status).toBe(400);
     expect(wrong.body.error.code).toBe('auth.wrong_password');
 
-    const changed = await user.agent.post('/api/account/password').send({ currentPassword: user.password, newPassword: 'tidal-prism-2024' });
+    const changed = await user.agent
+      .post('/api/account/password')
+      .send({ currentPassword: user.password, newPassword: 'tidal-prism-2024' });
     expect(changed.status).toBe(204);
     expect((await user.agent.get('/api/auth/me')).status).toBe(200);
     expect((await otherDevice.get('/api/auth/me')).status).toBe(401);
-    expect((await context.agent().post('/api/auth/sign-in').send({ email: user.email, password: 'tidal-prism-2024' })).status).toBe(200);
+    expect(
+      (
+        await context
+          .agent()
+          .post('/api/auth/sign-in')
+          .send({ email: user.email, password: 'tidal-prism-2024' })
+      ).status,
+    ).toBe(200);
   });
 
   it('needs a session', async () => {

@@ -6,17 +6,27 @@ import { createTestContext, DEFAULT_PASSWORD, type TestContext, uniqueEmail } fr
 describe('loadEnv', () => {
   it('fills the documented defaults', () => {
     const env = loadEnv({});
-    expect(env).toMatchObject({ NODE_ENV: 'development', PORT: 3000, API_PORT: 3001, PGPORT_MEANDER: 54329, SMTP_PORT: 2525 });
+    expect(env).toMatchObject({
+      NODE_ENV: 'development',
+      PORT: 3000,
+      API_PORT: 3001,
+      PGPORT_MEANDER: 54329,
+      SMTP_PORT: 2525,
+    });
     expect(appConfigFromEnv(env).secureCookies).toBe(false);
   });
 
   it('turns on secure cookies in production unless SESSION_SECURE says otherwise', () => {
     expect(appConfigFromEnv(loadEnv({ NODE_ENV: 'production' })).secureCookies).toBe(true);
-    expect(appConfigFromEnv(loadEnv({ NODE_ENV: 'production', SESSION_SECURE: 'false' })).secureCookies).toBe(false);
+    expect(appConfigFromEnv(loadEnv({ NODE_ENV: 'production', SESSION_SECURE: 'false' })).secureCookies).toBe(
+      false,
+    );
   });
 
   it('keeps only the origin of APP_ORIGIN', () => {
-    expect(loadEnv({ APP_ORIGIN: 'https://meander.example.test/some/path' }).APP_ORIGIN).toBe('https://meander.example.test');
+    expect(loadEnv({ APP_ORIGIN: 'https://meander.example.test/some/path' }).APP_ORIGIN).toBe(
+      'https://meander.example.test',
+    );
   });
 
   it('fails fast with every problem named', () => {

@@ -61,7 +61,11 @@ export async function createTestContext(
   const database = connectDatabase(testDb.url, { max: 5 });
   // A mail fake in this worker, so the test can read what the app sent.
   const mailFake = await startMailFake({ port: 0 });
-  const mailer = createMailer({ host: '127.0.0.1', port: mailFake.port, from: 'Meander <no-reply@meander.example.test>' });
+  const mailer = createMailer({
+    host: '127.0.0.1',
+    port: mailFake.port,
+    from: 'Meander <no-reply@meander.example.test>',
+  });
   const signInLimiter = options.signInLimiter ?? createRateLimiter(SIGN_IN_LIMIT);
   const reported: unknown[] = [];
   const app = createApp({
@@ -116,7 +120,8 @@ export async function signUp(
   const name = fields.name ?? 'Hydrology Tester';
   const password = fields.password ?? DEFAULT_PASSWORD;
   const response = await agent.post('/api/auth/sign-up').send({ email, name, password });
-  if (response.status !== 201) throw new Error(`sign-up failed: ${response.status} ${JSON.stringify(response.body)}`);
+  if (response.status !== 201)
+    throw new Error(`sign-up failed: ${response.status} ${JSON.stringify(response.body)}`);
   return { agent, id: response.body.id as string, email: email.toLowerCase(), name, password };
 }
 

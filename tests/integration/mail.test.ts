@@ -8,7 +8,11 @@ let mailer: ReturnType<typeof createMailer>;
 
 beforeAll(async () => {
   fake = await startMailFake({ port: 0 });
-  mailer = createMailer({ host: '127.0.0.1', port: fake.port, from: 'Meander <no-reply@meander.example.test>' });
+  mailer = createMailer({
+    host: '127.0.0.1',
+    port: fake.port,
+    from: 'Meander <no-reply@meander.example.test>',
+  });
 });
 afterAll(async () => {
   mailer.close();
@@ -32,7 +36,12 @@ describe('mail fake and mailer', () => {
     const before = fake.messages().length;
     await mailer.send({ to: 'first@example.test', subject: 'one', text: 'one' });
     await mailer.send({ to: 'second@example.test', subject: 'two', text: 'two' });
-    expect(fake.messages().slice(before).map((message) => message.subject)).toEqual(['one', 'two']);
+    expect(
+      fake
+        .messages()
+        .slice(before)
+        .map((message) => message.subject),
+    ).toEqual(['one', 'two']);
   });
 });
 
@@ -61,6 +70,11 @@ describe('parseMail', () => {
       '--xyz--',
       '',
     ].join('\r\n');
-    expect(parseMail(raw)).toEqual({ from: 'a@example.test', to: ['b@example.test', 'c@example.test'], subject: 'Salinitä', text: 'plain body' });
+    expect(parseMail(raw)).toEqual({
+      from: 'a@example.test',
+      to: ['b@example.test', 'c@example.test'],
+      subject: 'Salinitä',
+      text: 'plain body',
+    });
   });
 });

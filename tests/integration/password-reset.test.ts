@@ -1,7 +1,14 @@
 import { sql } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { hashResetToken } from '../../server/auth/auth.usecases';
-import { createTestContext, signUp, TEST_ORIGIN, type TestContext, uniqueEmail, waitForMail } from './helpers';
+import {
+  createTestContext,
+  signUp,
+  TEST_ORIGIN,
+  type TestContext,
+  uniqueEmail,
+  waitForMail,
+} from './helpers';
 
 let context: TestContext;
 beforeAll(async () => {
@@ -48,22 +55,43 @@ describe('password reset', () => {
     expect(token).toMatch(/^[A-Za-z0-9_-]{43}$/);
 
     // Only the SHA-256 of the token is stored.
-    const stored = await context.database.db.execute(sql`select token_hash from password_resets where user_id = ${user.id}`);
+    const stored = await context.database.db.execute(
+      sql`select token_hash from password_resets where user_id = ${user.id}`,
+    );
     expect(stored.rows.map((row) => row.token_hash)).toEqual([hashResetToken(token)]);
 
-    const confirm = await context.agent().post('/api/auth/password-reset/confirm').send({ token, password: 'new-delta-password' });
+    const confirm = await context
+      .agent()
+      .post('/api/auth/password-reset/confirm')
+      .send({ token, password: 'new-delta-password' });
     expect(confirm.status).toBe(204);
 
     expect((await user.agent.get('/api/auth/me')).status).toBe(401);
-    const oldPassword = await context.agent().post('/api/auth/sign-in').send({ email: user.email, password: user.password });
+    const oldPassword = await context
+      .agent()
+      .post('/api/auth/sign-in')
+      .send({ email: user.email, password: user.password });
     expect(oldPassword.status).toBe(401);
-    const newPassword = await context.agent().post('/api/auth/sign-in').send({ email: user.email, password: 'new-delta-password' });
+    const newPassword = await context
+      .agent()
+      .post('/api/auth/sign-in')
+      .send({ email: user.email, password: 'new-delta-password' });
     expect(newPassword.status).toBe(200);
 
-    const again = await context.agent().post('/api/auth/password-reset/confirm').send({ token, password: 'third-password-here' });
+    const again = await context
+      .agent()
+      .post('/api/auth/password-reset/confirm')
+      .send({ token, password: 'third-password-here' });
     expect(again.status).toBe(400);
     expect(again.body.error.code).toBe('auth.bad_reset_token');
-    expect((await context.agent().post('/api/auth/sign-in').send({ email: user.email, password: 'third-password-here' })).status).toBe(401);
+    expect(
+      (
+        await context
+          .agent()
+          .post('/api/auth/sign-in')
+          .send({ email: user.email, password: 'third-password-here' })
+      ).status,
+    ).toBe(401);
   });
 
   it('rejects an expired token and keeps the old password', async () => {
@@ -73,10 +101,16 @@ describe('password reset', () => {
     await context.database.db.execute(
       sql`update password_resets set expires_at = now() - interval '1 minute' where token_hash = ${hashResetToken(token)}`,
     );
-    const confirm = await context.agent().post('/api/auth/password-reset/confirm').send({ token, password: 'too-late-password' });
+    const confirm = await context
+      .agent()
+      .post('/api/auth/password-reset/confirm')
+      .send({ token, password: 'too-late-password' });
     expect(confirm.status).toBe(400);
     expect(confirm.body.error.code).toBe('auth.bad_reset_token');
-    expect((await context.agent().post('/api/auth/sign-in').send({ email: user.email, password: user.password })).status).toBe(200);
+    expect(
+      (await context.agent().post('/api/auth/sign-in').send({ email: user.email, password: user.password }))
+        .status,
+    ).toBe(200);
   });
 
   it('sets the token to expire one hour after the request', async () => {
@@ -93,10 +127,16 @@ describe('password reset', () => {
   });
 
   it('rejects an unknown token and a too-short new password', async () => {
-    const unknown = await context.agent().post('/api/auth/password-reset/confirm').send({ token: 'made-up-token', password: 'long-enough-pass' });
+    const unknown = await context
+      .agent()
+      .post('/api/auth/password-reset/confirm')
+      .send({ token: 'made-up-token', password: 'long-enough-pass' });
     expect(unknown.status).toBe(400);
     expect(unknown.body.error.code).toBe('auth.bad_reset_token');
-    const short = await context.agent().post('/api/auth/password-reset/confirm').send({ token: 'made-up-token', password: 'short' });
+    const short = await context
+      .agent()
+      .post('/api/auth/password-reset/confirm')
+      .send({ token: 'made-up-token', password: 'short' });
     expect(short.status).toBe(400);
     expect(short.body.error.path).toEqual(['password']);
   });
@@ -108,6 +148,9 @@ describe('password reset', () => {
     const mailbox = await context.agent().get('/api/dev/mailbox');
     expect(mailbox.status).toBe(200);
     const message = mailbox.body.messages.find((entry: { to: string[] }) => entry.to.includes(user.email));
-    expect(message).toMatchObject({ subject: expect.stringMatching(/password/i), text: expect.stringContaining('/reset-password?token=') });
+    expect(message).toMatchObject({
+      subject: expect.stringMatching(/password/i),
+      text: expect.stringContaining('/reset-password?token='),
+    });
   });
 });

@@ -49,7 +49,8 @@ describe('ensurePostgres', () => {
     // Kill the server the hard way, as a crashed terminal would, leaving postmaster.pid behind.
     const pid = Number((await readFile(path.join(options.dataDir, 'postmaster.pid'), 'utf8')).split('\n')[0]);
     process.kill(pid, 'SIGKILL');
-    for (let waited = 0; alive(pid) && waited < 10_000; waited += 50) await new Promise((resolve) => setTimeout(resolve, 50));
+    for (let waited = 0; alive(pid) && waited < 10_000; waited += 50)
+      await new Promise((resolve) => setTimeout(resolve, 50));
     // Backends notice the dead postmaster and exit; give them a moment to release shared memory.
     await new Promise((resolve) => setTimeout(resolve, 1000));
 

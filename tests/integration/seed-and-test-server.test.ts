@@ -25,7 +25,9 @@ describe('seedDemo', () => {
     const second = await seedDemo(database.db);
     expect(second.seeded).toBe(false);
     const users = await database.db.query.users.findMany();
-    expect(users.map((user) => user.email).sort()).toEqual(DEMO_ACCOUNTS.map((account) => account.email).sort());
+    expect(users.map((user) => user.email).sort()).toEqual(
+      DEMO_ACCOUNTS.map((account) => account.email).sort(),
+    );
     expect(users.filter((user) => user.role === 'admin')).toHaveLength(1);
     const sheets = await database.db.query.sheets.findMany();
     expect(sheets).toHaveLength(exampleSheets.length);
@@ -48,7 +50,9 @@ describe('startTestServer', () => {
     expect(server.url).toMatch(/^http:\/\/127\.0\.0\.1:\d+$/);
     const admin = DEMO_ACCOUNTS.find((account) => account.role === 'admin')!;
     const agent = request.agent(server.url).set('Origin', server.url);
-    const signIn = await agent.post('/api/auth/sign-in').send({ email: admin.email, password: admin.password });
+    const signIn = await agent
+      .post('/api/auth/sign-in')
+      .send({ email: admin.email, password: admin.password });
     expect(signIn.status).toBe(200);
     expect(signIn.body.role).toBe('admin');
     const users = await agent.get('/api/admin/users');

@@ -24,7 +24,14 @@ function reservoirDocument(title: string, reversionRate = 0.8): SheetDocumentInp
     title,
     cells: [
       { id: 'intro', kind: 'note', text: 'Reservoir level anomaly around its seasonal mean.' },
-      { id: 'p', kind: 'params', params: [{ name: 'k', value: reversionRate }, { name: 'sigma', value: 0.35 }] },
+      {
+        id: 'p',
+        kind: 'params',
+        params: [
+          { name: 'k', value: reversionRate },
+          { name: 'sigma', value: 0.35 },
+        ],
+      },
       {
         id: 'm',
         kind: 'model',
@@ -37,13 +44,17 @@ function reservoirDocument(title: string, reversionRate = 0.8): SheetDocumentInp
 }
 
 async function createSheet(user: SignedUpUser, title: string, document?: unknown) {
-  const response = await user.agent.post('/api/sheets').send(document === undefined ? { title } : { title, document });
+  const response = await user.agent
+    .post('/api/sheets')
+    .send(document === undefined ? { title } : { title, document });
   expect(response.status).toBe(201);
   return response.body as { id: string; title: string; version: number };
 }
 
 async function countVersions(sheetId: string): Promise<number> {
-  const result = await context.database.db.execute(sql`select count(*)::int as n from sheet_versions where sheet_id = ${sheetId}`);
+  const result = await context.database.db.execute(
+    sql`select count(*)::int as n from sheet_versions where sheet_id = ${sheetId}`,
+  );
   return Number(result.rows[0]?.n);
 }
 
@@ -96,7 +107,9 @@ describe('creating and reading sheets', () => {
     const second = await createSheet(user, 'Second');
     await createSheet(stranger, 'Not yours');
     // Saving a version makes the first sheet the most recently changed.
-    await user.agent.post(`/api/sheets/${first.id}/versions`).send({ baseVersion: 1, message: 'touch', document: reservoirDocument('First') });
+    await user.agent
+      .post(`/api/sheets/${first.id}/versions`)
+      .send({ baseVersion: 1, message: 'touch', document: reservoirDocument('First') });
     const list = await user.agent.get('/api/sheets');
     expect(list.status).toBe(200);
     expect(list.body.sheets.map((sheet: { id: string }) => sheet.id)).toEqual([first.id, second.id]);
@@ -139,7 +152,9 @@ describe('who may see a sheet', () => {
       stranger.agent.delete(`/api/sheets/${created.id}`),
       stranger.agent.get(`/api/sheets/${created.id}/versions`),
       stranger.agent.get(`/api/sheets/${created.id}/versions/1`),
-      stranger.agent.post(`/api/sheets/${created.id}/versions`).send({ baseVersion: 1, message: 'sneaky', document: reservoirDocument('x') }),
+      stranger.agent
+        .post(`/api/sheets/${created.id}/versions`)
+        .send({ baseVersion: 1, message: 'sneaky', document: reservoirDocument('x') }),
     ];
     for (const response of await Promise.all(routes)) {
       expect(response.status).toBe(404);
@@ -168,9 +183,12 @@ describe('who may see a sheet', () => {
 describe('versions', () => {
   it('saves a version on the current base: 201 with the next number, the sheet moves on', async () => {
     const created = await createSheet(owner, 'Reservoir v', reservoirDocument('Reservoir v'));
-    const save = await owner.agent
-      .post(`/api/sheets/${created.id}/versions`)
-      .send({ baseVersion: 1, message: 'Faster reversion', document: reservoirDocument('Reservoir v', 1.4), digests: { run: 'sha256:abc123' } });
+    const save = await owner.agent.post(`/api/sheets/${created.id}/versions`).send({
+      baseVersion: 1,
+      message: 'Faster reversion',
+      document: reservoirDocument('Reservoir v', 1.4),
+      digests: { run: 'sha256:abc123' },
+    });
     expect(save.status).toBe(201);
     expect(save.body).toEqual({ number: 2 });
     const sheet = await owner.agent.get(`/api/sheets/${created.id}`);
@@ -210,7 +228,9 @@ describe('versions', () => {
     const created = await createSheet(owner, 'Race', reservoirDocument('Race'));
     const saves = await Promise.all(
       [0.3, 0.6, 0.9, 1.2].map((rate) =>
-        owner.agent.post(`/api/sheets/${created.id}/versions`).send({ baseVersion: 1, message: `rate ${rate}`, document: reservoirDocument('Race', rate) }),
+        owner.agent
+          .post(`/api/sheets/${created.id}/versions`)
+          .send({ baseVersion: 1, message: `rate ${rate}`, document: reservoirDocument('Race', rate) }),
       ),
     );
     expect(saves.map((response) => response.status).sort()).toEqual([201, 409, 409, 409]);
@@ -219,9 +239,11 @@ describe('versions', () => {
 
   it('rejects a bad document or message on save with 400 and writes nothing', async () => {
     const created = await createSheet(owner, 'Strict');
-    const badDocument = await owner.agent
-      .post(`/api/sheets/${created.id}/versions`)
-      .send({ baseVersion: 1, message: 'bad', document: { schemaVersion: 1, title: 'Strict', cells: [{ id: 'x', kind: 'spreadsheet' }] } });
+    const badDocument = await owner.agent.post(`/api/sheets/${created.id}/versions`).send({
+      baseVersion: 1,
+      message: 'bad',
+      document: { schemaVersion: 1, title: 'Strict', cells: [{ id: 'x', kind: 'spreadsheet' }] },
+    });
     expect(badDocument.status).toBe(400);
     expect(badDocument.body.error.path.slice(0, 3)).toEqual(['document', 'cells', 0]);
     const longMessage = await owner.agent
@@ -229,9 +251,12 @@ describe('versions', () => {
       .send({ baseVersion: 1, message: 'x'.repeat(201), document: reservoirDocument('Strict') });
     expect(longMessage.status).toBe(400);
     expect(longMessage.body.error.path).toEqual(['message']);
-    const unknownDigest = await owner.agent
-      .post(`/api/sheets/${created.id}/versions`)
-      .send({ baseVersion: 1, message: 'digest', document: reservoirDocument('Strict'), digests: { nosuchcell: 'abc' } });
+    const unknownDigest = await owner.agent.post(`/api/sheets/${created.id}/versions`).send({
+      baseVersion: 1,
+      message: 'digest',
+      document: reservoirDocument('Strict'),
+      digests: { nosuchcell: 'abc' },
+    });
     expect(unknownDigest.status).toBe(400);
     expect(unknownDigest.body.error.path).toEqual(['digests', 'nosuchcell']);
     expect(await countVersions(created.id)).toBe(1);
@@ -239,11 +264,21 @@ describe('versions', () => {
 
   it('lists versions newest first with message, author and parent, and returns one with its document', async () => {
     const created = await createSheet(owner, 'History', reservoirDocument('History'));
-    await owner.agent.post(`/api/sheets/${created.id}/versions`).send({ baseVersion: 1, message: 'Slower', document: reservoirDocument('History', 0.2) });
-    await owner.agent.post(`/api/sheets/${created.id}/versions`).send({ baseVersion: 2, message: 'Slower still', document: reservoirDocument('History', 0.1) });
+    await owner.agent
+      .post(`/api/sheets/${created.id}/versions`)
+      .send({ baseVersion: 1, message: 'Slower', document: reservoirDocument('History', 0.2) });
+    await owner.agent
+      .post(`/api/sheets/${created.id}/versions`)
+      .send({ baseVersion: 2, message: 'Slower still', document: reservoirDocument('History', 0.1) });
     const list = await owner.agent.get(`/api/sheets/${created.id}/versions`);
     expect(list.status).toBe(200);
-    expect(list.body.versions.map((version: { number: number; parent: number | null; message: string }) => [version.number, version.parent, version.message])).toEqual([
+    expect(
+      list.body.versions.map((version: { number: number; parent: number | null; message: string }) => [
+        version.number,
+        version.parent,
+        version.message,
+      ]),
+    ).toEqual([
       [3, 2, 'Slower still'],
       [2, 1, 'Slower'],
       [1, null, 'Created'],
@@ -260,7 +295,9 @@ describe('versions', () => {
   it('has no route that changes a saved version', async () => {
     const created = await createSheet(owner, 'Immutable');
     const put = await owner.agent.put(`/api/sheets/${created.id}/versions/1`).send({ message: 'rewritten' });
-    const patch = await owner.agent.patch(`/api/sheets/${created.id}/versions/1`).send({ message: 'rewritten' });
+    const patch = await owner.agent
+      .patch(`/api/sheets/${created.id}/versions/1`)
+      .send({ message: 'rewritten' });
     const del = await owner.agent.delete(`/api/sheets/${created.id}/versions/1`);
     expect([put.status, patch.status, del.status]).toEqual([404, 404, 404]);
     expect((await owner.agent.get(`/api/sheets/${created.id}/versions/1`)).body.message).toBe('Created');

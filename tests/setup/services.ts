@@ -39,7 +39,11 @@ export default async function setup(project: TestProject) {
   const root = await mkdtemp(path.join(os.tmpdir(), 'meander-test-'));
   // As root, PostgreSQL runs as `postgres`, which must be able to reach its data directory.
   await chmod(root, 0o755);
-  const postgres = await ensurePostgres({ dataDir: path.join(root, 'pg'), port: await freePort(), database: 'meander_test' });
+  const postgres = await ensurePostgres({
+    dataDir: path.join(root, 'pg'),
+    port: await freePort(),
+    database: 'meander_test',
+  });
   const mailFake = await startMailFake({ port: 0 }).catch(async (error: unknown) => {
     await postgres.stop();
     throw error;

@@ -16,9 +16,21 @@ export interface CellIssue {
 
 /** What a run left on a cell. Charts read the output of the simulation they name. */
 export type CellOutput =
-  | { kind: 'simulation'; plan: SimulationPlan; result: import('@shared/engine').SimulationResult; finishedAt: Date; seconds: number }
+  | {
+      kind: 'simulation';
+      plan: SimulationPlan;
+      result: import('@shared/engine').SimulationResult;
+      finishedAt: Date;
+      seconds: number;
+    }
   | { kind: 'probe'; estimate: import('@shared/engine').ProbeEstimate; finishedAt: Date }
-  | { kind: 'study'; plan: SimulationPlan; result: import('@shared/engine').StudyResult; finishedAt: Date; seconds: number }
+  | {
+      kind: 'study';
+      plan: SimulationPlan;
+      result: import('@shared/engine').StudyResult;
+      finishedAt: Date;
+      seconds: number;
+    }
   | { kind: 'error'; message: string; finishedAt: Date };
 
 export interface CellEditorProps<C extends Cell = Cell> {

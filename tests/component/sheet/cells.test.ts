@@ -45,7 +45,9 @@ afterEach(() => {
 
 async function addFromEndMenu(label: string): Promise<void> {
   await click(buttonNamed('Add cell'));
-  const item = [...document.querySelectorAll<HTMLButtonElement>('[role="menuitem"]')].find((b) => b.textContent?.trim() === label);
+  const item = [...document.querySelectorAll<HTMLButtonElement>('[role="menuitem"]')].find(
+    (b) => b.textContent?.trim() === label,
+  );
   expect(item, `menu item ${label}`).toBeDefined();
   expect(item!.disabled).toBe(false);
   await click(item!);
@@ -61,7 +63,15 @@ describe('adding cells from the "Add cell" menu', () => {
     for (const label of labels) await addFromEndMenu(label);
 
     const ids = shownCellIds();
-    expect(ids.map((id) => id.split('-')[0])).toEqual(['note', 'params', 'model', 'simulation', 'chart', 'probe', 'study']);
+    expect(ids.map((id) => id.split('-')[0])).toEqual([
+      'note',
+      'params',
+      'model',
+      'simulation',
+      'chart',
+      'probe',
+      'study',
+    ]);
     expect(new Set(ids).size).toBe(7);
     const doc = useSheetEditorStore().document!;
     // The defaults form a sheet that validates and that the checker finds nothing wrong with.
@@ -73,9 +83,15 @@ describe('adding cells from the "Add cell" menu', () => {
       expect('simulation' in reader && reader.simulation).toBe(ids[3]);
     }
     // Every card got the stub editor of its kind.
-    expect([...document.querySelectorAll('.stub-editor')].map((el) => el.getAttribute('data-kind'))).toEqual(
-      ['note', 'params', 'model', 'simulation', 'chart', 'probe', 'study'],
-    );
+    expect([...document.querySelectorAll('.stub-editor')].map((el) => el.getAttribute('data-kind'))).toEqual([
+      'note',
+      'params',
+      'model',
+      'simulation',
+      'chart',
+      'probe',
+      'study',
+    ]);
   });
 
   it('offers simulation, chart, probe and study only once there is something for them to read', async () => {
@@ -92,7 +108,9 @@ describe('adding cells from the "Add cell" menu', () => {
     serve(pondSheet());
     ({ wrapper } = await mountSheet());
     await click(buttonNamed('Add cell before cell 2'));
-    const note = [...document.querySelectorAll<HTMLButtonElement>('[role="menuitem"]')].find((b) => b.textContent?.trim() === 'Note')!;
+    const note = [...document.querySelectorAll<HTMLButtonElement>('[role="menuitem"]')].find(
+      (b) => b.textContent?.trim() === 'Note',
+    )!;
     await click(note);
     const ids = shownCellIds();
     expect(ids[0]).toBe('note-intro');
@@ -147,8 +165,16 @@ describe('moving, duplicating and deleting cells', () => {
   it('names each card button after the kind of its cell', async () => {
     serve(pondSheet());
     ({ wrapper } = await mountSheet());
-    const labels = [...cardOf('model-algae').querySelectorAll('button')].map((b) => b.getAttribute('aria-label'));
-    expect(labels).toEqual(['Run model cell', 'Move model cell up', 'Move model cell down', 'Duplicate model cell', 'Delete model cell']);
+    const labels = [...cardOf('model-algae').querySelectorAll('button')].map((b) =>
+      b.getAttribute('aria-label'),
+    );
+    expect(labels).toEqual([
+      'Run model cell',
+      'Move model cell up',
+      'Move model cell down',
+      'Duplicate model cell',
+      'Delete model cell',
+    ]);
     expect(cardOf('note-intro').querySelector('[aria-label="Run note cell"]')).toBeNull();
   });
 });

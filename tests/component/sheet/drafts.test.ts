@@ -142,7 +142,12 @@ describe('saving a version', () => {
   describe('when someone saved first (409)', () => {
     beforeEach(() => {
       api.saveVersion.mockRejectedValue(
-        new ApiError({ status: 409, code: 'sheets.version_conflict', message: 'version 4 was saved first', details: { currentVersion: 4 } }),
+        new ApiError({
+          status: 409,
+          code: 'sheets.version_conflict',
+          message: 'version 4 was saved first',
+          details: { currentVersion: 4 },
+        }),
       );
     });
 

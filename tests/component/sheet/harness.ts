@@ -10,7 +10,12 @@ import SheetView from '@/views/SheetView.vue';
 
 /** Mounting the sheet page in jsdom with a memory router, a signed-in user and stub editors. */
 
-export const USER = { id: 'u1', email: 'mira.okafor@example.test', name: 'Mira Okafor', role: 'member' as const };
+export const USER = {
+  id: 'u1',
+  email: 'mira.okafor@example.test',
+  name: 'Mira Okafor',
+  role: 'member' as const,
+};
 
 /** A small invented sheet: algae in a pond, logistic growth with noise, one simulation and a probe. */
 export function pondSheet(): SheetDocument {
@@ -31,7 +36,14 @@ export function pondSheet(): SheetDocument {
         id: 'model-algae',
         kind: 'model',
         name: 'Algae',
-        states: [{ name: 'A', initial: '5', drift: 'growth * A * (1 - A / capacity)', diffusion: { weather: '0.12 * A' } }],
+        states: [
+          {
+            name: 'A',
+            initial: '5',
+            drift: 'growth * A * (1 - A / capacity)',
+            diffusion: { weather: '0.12 * A' },
+          },
+        ],
         noises: [{ name: 'weather' }],
         calculus: 'ito',
       },
@@ -50,7 +62,14 @@ export function pondSheet(): SheetDocument {
         boundaries: {},
         overrides: {},
       },
-      { id: 'probe-bloom', kind: 'probe', simulation: 'simulation-season', quantity: 'exceedance', state: 'A', level: 50 },
+      {
+        id: 'probe-bloom',
+        kind: 'probe',
+        simulation: 'simulation-season',
+        quantity: 'exceedance',
+        state: 'A',
+        level: 50,
+      },
     ],
   };
 }
@@ -62,7 +81,12 @@ export function stubEditors(): CellEditorMap {
       props: ['cell', 'document', 'issues', 'outputs', 'stale', 'readonly'],
       emits: ['update'],
       setup(props) {
-        return () => h('div', { class: 'stub-editor', 'data-kind': kind }, `${kind} editor of ${(props.cell as { id: string }).id}`);
+        return () =>
+          h(
+            'div',
+            { class: 'stub-editor', 'data-kind': kind },
+            `${kind} editor of ${(props.cell as { id: string }).id}`,
+          );
       },
     });
   return {
@@ -82,7 +106,10 @@ export interface MountedSheet {
   pinia: Pinia;
 }
 
-export async function mountSheet(path = '/sheets/s1', editors: CellEditorMap = stubEditors()): Promise<MountedSheet> {
+export async function mountSheet(
+  path = '/sheets/s1',
+  editors: CellEditorMap = stubEditors(),
+): Promise<MountedSheet> {
   const pinia = createPinia();
   setActivePinia(pinia);
   useSessionStore().me = USER;
@@ -112,7 +139,9 @@ export async function settle(): Promise<void> {
 
 export function buttonNamed(name: string, root: ParentNode = document.body): HTMLButtonElement {
   const all = [...root.querySelectorAll<HTMLButtonElement>('button')];
-  const found = all.find((button) => (button.getAttribute('aria-label') ?? button.textContent?.trim()) === name);
+  const found = all.find(
+    (button) => (button.getAttribute('aria-label') ?? button.textContent?.trim()) === name,
+  );
   if (!found) {
     const names = all.map((button) => button.getAttribute('aria-label') ?? button.textContent?.trim());
     throw new Error(`no button named "${name}"; buttons: ${names.join(' | ')}`);
@@ -127,7 +156,9 @@ export async function click(element: HTMLElement): Promise<void> {
 
 /** Cell ids in the order the page shows them. */
 export function shownCellIds(): string[] {
-  return [...document.querySelectorAll<HTMLElement>('article[data-cell-id]')].map((card) => card.dataset.cellId!);
+  return [...document.querySelectorAll<HTMLElement>('article[data-cell-id]')].map(
+    (card) => card.dataset.cellId!,
+  );
 }
 
 export function cardOf(cellId: string): HTMLElement {

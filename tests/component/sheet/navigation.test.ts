@@ -74,7 +74,7 @@ describe('keyboard shortcuts', () => {
     expect(document.activeElement).toBe(cardOf('probe-bloom'));
   });
 
-  it('Ctrl+S opens the save dialog instead of the browser\'s', async () => {
+  it("Ctrl+S opens the save dialog instead of the browser's", async () => {
     ({ wrapper } = await mountSheet());
     const event = new KeyboardEvent('keydown', { key: 's', ctrlKey: true, bubbles: true, cancelable: true });
     document.body.dispatchEvent(event);
@@ -87,15 +87,28 @@ describe('keyboard shortcuts', () => {
     ({ wrapper } = await mountSheet());
     await click(buttonNamed('Keyboard shortcuts'));
     const text = document.body.textContent ?? '';
-    for (const keys of ['Ctrl/⌘ + Enter', 'Shift + Enter', 'Alt + ↑', 'Alt + ↓', 'Ctrl/⌘ + S']) expect(text).toContain(keys);
+    for (const keys of ['Ctrl/⌘ + Enter', 'Shift + Enter', 'Alt + ↑', 'Alt + ↓', 'Ctrl/⌘ + S'])
+      expect(text).toContain(keys);
   });
 });
 
 describe('older versions', () => {
   it('lists versions in the drawer and opens one read-only at ?version=N', async () => {
     api.listVersions.mockResolvedValue([
-      { number: 2, message: 'more paths', author: { id: 'u1', name: 'Mira Okafor' }, parent: 1, createdAt: new Date('2026-11-02T07:00:00Z') },
-      { number: 3, message: 'wetter summer', author: { id: 'u2', name: 'Jonas Pell' }, parent: 2, createdAt: new Date('2026-11-02T08:00:00Z') },
+      {
+        number: 2,
+        message: 'more paths',
+        author: { id: 'u1', name: 'Mira Okafor' },
+        parent: 1,
+        createdAt: new Date('2026-11-02T07:00:00Z'),
+      },
+      {
+        number: 3,
+        message: 'wetter summer',
+        author: { id: 'u2', name: 'Jonas Pell' },
+        parent: 2,
+        createdAt: new Date('2026-11-02T08:00:00Z'),
+      },
     ]);
     const oldDocument = { ...pondSheet(), title: 'Pond algae (first try)' };
     api.getVersion.mockResolvedValue({
@@ -110,7 +123,9 @@ describe('older versions', () => {
     const mounted = await mountSheet();
     wrapper = mounted.wrapper;
     await click(buttonNamed('Versions'));
-    const items = [...document.querySelectorAll('ol[aria-label="Saved versions"] li')].map((li) => li.textContent ?? '');
+    const items = [...document.querySelectorAll('ol[aria-label="Saved versions"] li')].map(
+      (li) => li.textContent ?? '',
+    );
     expect(items).toHaveLength(2);
     expect(items[0]).toContain('Version 3');
     expect(items[0]).toContain('wetter summer');
@@ -123,7 +138,9 @@ describe('older versions', () => {
     // Read-only: no editing controls and no draft.
     expect(document.querySelector('[aria-label="Delete model cell"]')).toBeNull();
     expect(document.querySelector('[aria-label="Add cell"]')).toBeNull();
-    expect([...document.querySelectorAll('button')].some((b) => b.textContent?.trim() === 'Run all')).toBe(false);
+    expect([...document.querySelectorAll('button')].some((b) => b.textContent?.trim() === 'Run all')).toBe(
+      false,
+    );
     expect(useSheetEditorStore().readonly).toBe(true);
   });
 });

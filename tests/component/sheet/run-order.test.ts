@@ -11,7 +11,15 @@ function withStudyAndChart(): SheetDocument {
     ...doc,
     cells: [
       ...doc.cells.slice(0, 3),
-      { id: 'study-steps', kind: 'study', simulation: 'simulation-season', levels: 4, coarsestSteps: 10, paths: 200, reference: 'finest' },
+      {
+        id: 'study-steps',
+        kind: 'study',
+        simulation: 'simulation-season',
+        levels: 4,
+        coarsestSteps: 10,
+        paths: 200,
+        reference: 'finest',
+      },
       { id: 'chart-fan', kind: 'chart', simulation: 'simulation-season', view: 'fan', state: 'A' },
       ...doc.cells.slice(3),
     ],
@@ -38,7 +46,9 @@ describe('planRunSteps', () => {
   it('runs the simulation a chart reads, and every numerical cell that reads a parameters cell', () => {
     const doc = withStudyAndChart();
     const dependencies = sheetCellDependencies(doc);
-    expect(planRunSteps(doc, 'chart-fan', dependencies).map((step) => step.cellId)).toEqual(['simulation-season']);
+    expect(planRunSteps(doc, 'chart-fan', dependencies).map((step) => step.cellId)).toEqual([
+      'simulation-season',
+    ]);
     expect(planRunSteps(doc, 'params-main', dependencies).map((step) => step.cellId)).toEqual([
       'simulation-season',
       'study-steps',
@@ -50,19 +60,28 @@ describe('planRunSteps', () => {
 
 describe('fingerprints', () => {
   it('do not depend on the order of object keys', () => {
-    expect(stableStringify({ b: 1, a: [{ d: 2, c: 3 }] })).toBe(stableStringify({ a: [{ c: 3, d: 2 }], b: 1 }));
+    expect(stableStringify({ b: 1, a: [{ d: 2, c: 3 }] })).toBe(
+      stableStringify({ a: [{ c: 3, d: 2 }], b: 1 }),
+    );
   });
 
   it('change when an input changes and stay put when an unrelated cell changes', () => {
     const doc = pondSheet();
     const dependencies = sheetCellDependencies(doc);
     const before = cellFingerprint(doc, 'simulation-season', dependencies);
-    const noteEdited = { ...doc, cells: doc.cells.map((cell) => (cell.kind === 'note' ? { ...cell, text: 'changed' } : cell)) };
+    const noteEdited = {
+      ...doc,
+      cells: doc.cells.map((cell) => (cell.kind === 'note' ? { ...cell, text: 'changed' } : cell)),
+    };
     expect(cellFingerprint(noteEdited, 'simulation-season', sheetCellDependencies(noteEdited))).toBe(before);
     const modelEdited = {
       ...doc,
-      cells: doc.cells.map((cell) => (cell.kind === 'model' ? { ...cell, calculus: 'stratonovich' as const } : cell)),
+      cells: doc.cells.map((cell) =>
+        cell.kind === 'model' ? { ...cell, calculus: 'stratonovich' as const } : cell,
+      ),
     };
-    expect(cellFingerprint(modelEdited, 'simulation-season', sheetCellDependencies(modelEdited))).not.toBe(before);
+    expect(cellFingerprint(modelEdited, 'simulation-season', sheetCellDependencies(modelEdited))).not.toBe(
+      before,
+    );
   });
 });

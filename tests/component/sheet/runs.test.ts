@@ -81,17 +81,33 @@ describe('running cells', () => {
     const { simulation: _simulationEditor, ...editors } = stubEditors();
     ({ wrapper } = await mountSheet('/sheets/s1', editors));
     await click(buttonNamed('Run simulation cell'));
-    expect(cardOf('simulation-season').querySelector('[role="alert"]')?.textContent).toContain('12 of 400 paths blew up before t = 3.1');
-    expect(useSheetEditorStore().outputs['simulation-season']).toMatchObject({ kind: 'error', message: '12 of 400 paths blew up before t = 3.1' });
+    expect(cardOf('simulation-season').querySelector('[role="alert"]')?.textContent).toContain(
+      '12 of 400 paths blew up before t = 3.1',
+    );
+    expect(useSheetEditorStore().outputs['simulation-season']).toMatchObject({
+      kind: 'error',
+      message: '12 of 400 paths blew up before t = 3.1',
+    });
   });
 
   it('marks the simulation and its probe stale after a parameter changes, and not before', async () => {
     ({ wrapper } = await mountSheet());
     const store = useSheetEditorStore();
     // Fake outputs computed from the sheet as it is now.
-    const estimate = { estimate: 0.25, standardError: 0.02, ci: [0.21, 0.29] as [number, number], paths: 400 };
+    const estimate = {
+      estimate: 0.25,
+      standardError: 0.02,
+      ci: [0.21, 0.29] as [number, number],
+      paths: 400,
+    };
     store.outputs = {
-      'simulation-season': { kind: 'simulation', plan: {} as SimulationPlan, result: fakeResult('ff'), finishedAt: new Date(), seconds: 1 },
+      'simulation-season': {
+        kind: 'simulation',
+        plan: {} as SimulationPlan,
+        result: fakeResult('ff'),
+        finishedAt: new Date(),
+        seconds: 1,
+      },
       'probe-bloom': { kind: 'probe', estimate, finishedAt: new Date() },
     };
     store.outputFingerprints = {
@@ -119,9 +135,20 @@ describe('running cells', () => {
   it('marks only the probe stale when only the probe changes', async () => {
     ({ wrapper } = await mountSheet());
     const store = useSheetEditorStore();
-    const estimate = { estimate: 0.25, standardError: 0.02, ci: [0.21, 0.29] as [number, number], paths: 400 };
+    const estimate = {
+      estimate: 0.25,
+      standardError: 0.02,
+      ci: [0.21, 0.29] as [number, number],
+      paths: 400,
+    };
     store.outputs = {
-      'simulation-season': { kind: 'simulation', plan: {} as SimulationPlan, result: fakeResult('ff'), finishedAt: new Date(), seconds: 1 },
+      'simulation-season': {
+        kind: 'simulation',
+        plan: {} as SimulationPlan,
+        result: fakeResult('ff'),
+        finishedAt: new Date(),
+        seconds: 1,
+      },
       'probe-bloom': { kind: 'probe', estimate, finishedAt: new Date() },
     };
     store.outputFingerprints = { ...store.fingerprints };

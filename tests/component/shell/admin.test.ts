@@ -12,8 +12,20 @@ const auth = vi.mocked(authApi);
 const api = vi.mocked(adminApi);
 const admin = { id: 'a1', email: 'june.delta@example.test', name: 'June Delta', role: 'admin' as const };
 const people = [
-  { id: 'a1', email: 'june.delta@example.test', name: 'June Delta', role: 'admin' as const, createdAt: new Date('2026-01-05T08:00:00Z') },
-  { id: 'm2', email: 'kai.weir@example.test', name: 'Kai Weir', role: 'member' as const, createdAt: new Date('2026-02-11T08:00:00Z') },
+  {
+    id: 'a1',
+    email: 'june.delta@example.test',
+    name: 'June Delta',
+    role: 'admin' as const,
+    createdAt: new Date('2026-01-05T08:00:00Z'),
+  },
+  {
+    id: 'm2',
+    email: 'kai.weir@example.test',
+    name: 'Kai Weir',
+    role: 'member' as const,
+    createdAt: new Date('2026-02-11T08:00:00Z'),
+  },
 ];
 let wrapper: VueWrapper | undefined;
 
@@ -47,20 +59,28 @@ describe('admin page', () => {
     select.value = 'admin';
     select.dispatchEvent(new Event('change'));
     await vi.waitFor(() => expect(api.setUserRole).toHaveBeenCalledWith('m2', 'admin'));
-    await vi.waitFor(() => expect(document.querySelector<HTMLSelectElement>('select[aria-label="Role of Kai Weir"]')!.value).toBe('admin'));
+    await vi.waitFor(() =>
+      expect(document.querySelector<HTMLSelectElement>('select[aria-label="Role of Kai Weir"]')!.value).toBe(
+        'admin',
+      ),
+    );
   });
 
   it('keeps the old role shown when the server refuses the change', async () => {
     auth.fetchCurrentUser.mockResolvedValue(admin);
     api.listUsers.mockResolvedValue({ users: people, total: 2 });
-    api.setUserRole.mockRejectedValue(new ApiError({ status: 409, code: 'admin.last_admin', message: 'The last admin cannot be demoted.' }));
+    api.setUserRole.mockRejectedValue(
+      new ApiError({ status: 409, code: 'admin.last_admin', message: 'The last admin cannot be demoted.' }),
+    );
     ({ wrapper } = await mountAt('/admin'));
     await vi.waitFor(() => expect(document.body.textContent).toContain('June Delta'));
     const select = document.querySelector<HTMLSelectElement>('select[aria-label="Role of June Delta"]')!;
     select.value = 'member';
     select.dispatchEvent(new Event('change'));
     await vi.waitFor(() => expect(document.body.textContent).toContain('The last admin cannot be demoted.'));
-    expect(document.querySelector<HTMLSelectElement>('select[aria-label="Role of June Delta"]')!.value).toBe('admin');
+    expect(document.querySelector<HTMLSelectElement>('select[aria-label="Role of June Delta"]')!.value).toBe(
+      'admin',
+    );
   });
 
   it('searches on the server as the admin types', async () => {
@@ -72,7 +92,10 @@ describe('admin page', () => {
     const search = document.querySelector<HTMLInputElement>('input[type="search"]')!;
     search.value = 'weir';
     search.dispatchEvent(new Event('input'));
-    await vi.waitFor(() => expect(api.listUsers).toHaveBeenLastCalledWith({ search: 'weir', page: 1, pageSize: 20 }), { timeout: 3000 });
+    await vi.waitFor(
+      () => expect(api.listUsers).toHaveBeenLastCalledWith({ search: 'weir', page: 1, pageSize: 20 }),
+      { timeout: 3000 },
+    );
     await vi.waitFor(() => expect(document.body.textContent).not.toContain('june.delta@example.test'));
   });
 });

@@ -14,7 +14,10 @@ export async function mountAt(path: string): Promise<{ wrapper: VueWrapper; rout
   setActivePinia(pinia);
   const router = createAppRouter(createMemoryHistory());
   const Root = defineComponent({
-    setup: () => () => h(NConfigProvider, null, () => h(NMessageProvider, null, () => h(NDialogProvider, null, () => h(RouterView)))),
+    setup: () => () =>
+      h(NConfigProvider, null, () =>
+        h(NMessageProvider, null, () => h(NDialogProvider, null, () => h(RouterView))),
+      ),
   });
   const wrapper = mount(Root, { global: { plugins: [pinia, router] }, attachTo: document.body });
   await router.push(path);
@@ -32,7 +35,9 @@ export async function fillByLabel(label: string, value: string): Promise<void> {
 }
 
 export function inputByLabel(label: string): HTMLInputElement {
-  const labelElement = [...document.querySelectorAll('label')].find((element) => element.textContent?.trim() === label);
+  const labelElement = [...document.querySelectorAll('label')].find(
+    (element) => element.textContent?.trim() === label,
+  );
   if (!labelElement) throw new Error(`no label "${label}"`);
   const input = document.getElementById(labelElement.htmlFor);
   if (!(input instanceof HTMLInputElement)) throw new Error(`label "${label}" is not tied to an input`);
@@ -40,7 +45,9 @@ export function inputByLabel(label: string): HTMLInputElement {
 }
 
 export function buttonByText(text: string): HTMLButtonElement {
-  const matches = [...document.querySelectorAll('button')].filter((button) => button.textContent?.trim() === text);
+  const matches = [...document.querySelectorAll('button')].filter(
+    (button) => button.textContent?.trim() === text,
+  );
   if (matches.length === 0) throw new Error(`no button "${text}"`);
   return matches[matches.length - 1] as HTMLButtonElement;
 }

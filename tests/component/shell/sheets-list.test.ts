@@ -46,9 +46,14 @@ describe('sheet list', () => {
   });
 
   it('lists each sheet with its title, version and a link to open it', async () => {
-    api.listSheets.mockResolvedValue([sheet('aq1', 'Aquifer recharge anomaly', 4), sheet('cp2', 'Copper price index', 1)]);
+    api.listSheets.mockResolvedValue([
+      sheet('aq1', 'Aquifer recharge anomaly', 4),
+      sheet('cp2', 'Copper price index', 1),
+    ]);
     ({ wrapper } = await mountAt('/sheets'));
-    await vi.waitFor(() => expect(document.querySelectorAll('ul[aria-label="Your sheets"] li')).toHaveLength(2));
+    await vi.waitFor(() =>
+      expect(document.querySelectorAll('ul[aria-label="Your sheets"] li')).toHaveLength(2),
+    );
     const rows = [...document.querySelectorAll('ul[aria-label="Your sheets"] li')];
     expect(rows[0]?.textContent).toContain('Aquifer recharge anomaly');
     expect(rows[0]?.textContent).toContain('version 4');
@@ -67,7 +72,9 @@ describe('sheet list', () => {
     await fillByLabel('Title', '  Reservoir inflow ');
     await click(buttonByText('Create'));
     expect(api.createSheet).toHaveBeenCalledWith({ title: 'Reservoir inflow' });
-    await vi.waitFor(() => expect(mounted.router.currentRoute.value.fullPath).toBe('/sheets/nw3'), { timeout: 10_000 });
+    await vi.waitFor(() => expect(mounted.router.currentRoute.value.fullPath).toBe('/sheets/nw3'), {
+      timeout: 10_000,
+    });
   });
 
   it('refuses an empty title without calling the server', async () => {
@@ -85,12 +92,16 @@ describe('sheet list', () => {
     api.listSheets.mockResolvedValue([sheet('aq1', 'Aquifer recharge anomaly', 4)]);
     api.deleteSheet.mockResolvedValue(undefined);
     ({ wrapper } = await mountAt('/sheets'));
-    await vi.waitFor(() => expect(document.querySelectorAll('ul[aria-label="Your sheets"] li')).toHaveLength(1));
+    await vi.waitFor(() =>
+      expect(document.querySelectorAll('ul[aria-label="Your sheets"] li')).toHaveLength(1),
+    );
     await click(document.querySelector<HTMLElement>('button[aria-label="Delete Aquifer recharge anomaly"]')!);
     expect(api.deleteSheet).not.toHaveBeenCalled();
     expect(document.body.textContent).toContain('cannot be undone');
     await click(buttonByText('Delete'));
     expect(api.deleteSheet).toHaveBeenCalledWith('aq1');
-    await vi.waitFor(() => expect(document.querySelectorAll('ul[aria-label="Your sheets"] li')).toHaveLength(0));
+    await vi.waitFor(() =>
+      expect(document.querySelectorAll('ul[aria-label="Your sheets"] li')).toHaveLength(0),
+    );
   });
 });

@@ -50,15 +50,24 @@ describe('sign-in page', () => {
 
   it('shows the server refusal of a sign-in and stays on the page', async () => {
     api.signIn.mockRejectedValue(
-      new ApiError({ status: 401, code: 'auth.bad_credentials', message: 'That e-mail and password do not match an account.' }),
+      new ApiError({
+        status: 401,
+        code: 'auth.bad_credentials',
+        message: 'That e-mail and password do not match an account.',
+      }),
     );
     const mounted = await mountAt('/sign-in');
     wrapper = mounted.wrapper;
     await fillByLabel('Email', 'lena.brook@example.test');
     await fillByLabel('Password', 'not-the-password');
     await click(buttonByText('Sign in'));
-    expect(api.signIn).toHaveBeenCalledWith({ email: 'lena.brook@example.test', password: 'not-the-password' });
-    expect(document.querySelector('[role="alert"]')?.textContent).toContain('That e-mail and password do not match an account.');
+    expect(api.signIn).toHaveBeenCalledWith({
+      email: 'lena.brook@example.test',
+      password: 'not-the-password',
+    });
+    expect(document.querySelector('[role="alert"]')?.textContent).toContain(
+      'That e-mail and password do not match an account.',
+    );
     expect(mounted.router.currentRoute.value.name).toBe('sign-in');
   });
 
@@ -70,8 +79,13 @@ describe('sign-in page', () => {
     await fillByLabel('Password', 'a-long-enough-password');
     await click(buttonByText('Sign in'));
     // The shared schema lower-cases the address before it is sent.
-    expect(api.signIn).toHaveBeenCalledWith({ email: 'lena.brook@example.test', password: 'a-long-enough-password' });
-    await vi.waitFor(() => expect(mounted.router.currentRoute.value.fullPath).toBe('/account'), { timeout: 10_000 });
+    expect(api.signIn).toHaveBeenCalledWith({
+      email: 'lena.brook@example.test',
+      password: 'a-long-enough-password',
+    });
+    await vi.waitFor(() => expect(mounted.router.currentRoute.value.fullPath).toBe('/account'), {
+      timeout: 10_000,
+    });
   });
 
   it('does not follow a redirect that leaves the site', async () => {
@@ -81,6 +95,8 @@ describe('sign-in page', () => {
     await fillByLabel('Email', 'lena.brook@example.test');
     await fillByLabel('Password', 'a-long-enough-password');
     await click(buttonByText('Sign in'));
-    await vi.waitFor(() => expect(mounted.router.currentRoute.value.fullPath).toBe('/sheets'), { timeout: 10_000 });
+    await vi.waitFor(() => expect(mounted.router.currentRoute.value.fullPath).toBe('/sheets'), {
+      timeout: 10_000,
+    });
   });
 });
