@@ -2,7 +2,7 @@ import { EXPRESSION_PRELUDE } from '../expr';
 import type { SimulationPlan } from './plan';
 import type { PlanLayout } from './layout';
 import { stepSourceFor } from './methods';
-import { normalDrawSource } from './random/ziggurat';
+import { fastNormalDrawSource, normalDrawSource, normalSlowPathSource } from './random/ziggurat';
 
 /**
  * Builds the source of the per-run kernel: ONE function holding the whole path loop, with drift
@@ -29,7 +29,8 @@ function range(count: number): number[] {
 
 interface Parts {
   declarations: string;
-  noiseDraws: string;
+  /** The increments dw0… from z0… (correlated through the Cholesky factor when needed). */
+  increments: string;
   stepAndBoundaries: string;
   blowupTest: string;
   initialBoundaries: string;
@@ -50,7 +51,6 @@ function parts(plan: SimulationPlan, layout: PlanLayout): Parts {
   ];
   const declarations = `let ${names.map((name) => `${name} = 0.0`).join(', ')};`;
 
-  const draws = range(m).map((j) => normalDrawSource(`z${j}`));
   const increments = range(m).map((j) => {
     if (layout.cholesky === null) return `dw${j} = sqh * z${j};`;
     const terms = range(j + 1)
@@ -84,7 +84,7 @@ function parts(plan: SimulationPlan, layout: PlanLayout): Parts {
 
   return {
     declarations,
-    noiseDraws: [...draws, ...increments].join('\n'),
+    increments: increments.join('\n'),
     stepAndBoundaries: `${step.body}\n${assign}\n${boundaryAt(END_OF_STEP)}`,
     blowupTest,
     initialBoundaries: boundaryAt('t0'),
@@ -118,13 +118,43 @@ const LONG_PATH_STEPS = 1 << 17;
 const STOP_CHECK_MASK = (1 << 16) - 1;
 
 /**
+ * The state every path starts from, after the boundary rules at t0 (the same arithmetic as the
+ * generated code), and whether all of it lies within the blow-up bound.
+ */
+function startsWithinBound(plan: SimulationPlan): boolean {
+  return plan.model.initial.every((value, i) => {
+    let s = value;
+    const rule = plan.boundaries[i];
+    if (rule !== undefined && rule.rule !== 'none') {
+      const level = rule.level;
+      if (rule.rule === 'absorb') {
+        if (rule.side === 'above' ? s >= level : s <= level) s = level;
+      } else if (rule.side === 'above' ? s > level : s < level) {
+        s = level + level - s;
+      }
+    }
+    return plan.blowupBound === null ? Math.abs(s) < Infinity : Math.abs(s) <= plan.blowupBound;
+  });
+}
+
+/**
  * Source of `kernel(ctx)`: simulates paths ctx.pStart … ctx.pEnd − 1 of a chunk (see
  * KernelContext in kernel.ts for what ctx holds), writes the chunk's arrays and returns ctx.pEnd,
  * or the index of the path it was working on when a long path was stopped (that path and the
  * later ones are not done).
+ *
+ * Shape, for speed (V8): one function per path (optimised as a plain function, not on-stack
+ * replacement), the steps in segments that end at the next saved or probe step, and inside a
+ * segment a loop whose only call-free exit besides its end is the ziggurat's rare branch: a draw
+ * that needs it leaves the loop, is finished outside (one call), and that step is completed there;
+ * then the loop resumes. With no call in the hot loop the generator state stays in registers.
+ * Running extremes and the blow-up test are checked only when a state leaves [min, max] seen so
+ * far: while it stays inside, neither can change (max and min start inside the blow-up bound, see
+ * startsWithinBound, else every step is tested).
  */
 export function buildKernelSource(plan: SimulationPlan, layout: PlanLayout): string {
   const d = layout.stateCount;
+  const m = layout.noiseCount;
   const p = parts(plan, layout);
   const states = range(d);
   const save = states.map((i) => `saved[(k * ${d} + ${i}) * pathCount + p] = s${i};`).join(' ');
@@ -135,53 +165,88 @@ export function buildKernelSource(plan: SimulationPlan, layout: PlanLayout): str
     .map((i) => `if (s${i} > mx${i}) mx${i} = s${i}; if (s${i} < mn${i}) mn${i} = s${i};`)
     .join('\n');
   const absorbing = plan.boundaries.map((rule, i) => (rule.rule === 'absorb' ? i : -1)).filter((i) => i >= 0);
+  const longPaths = plan.steps >= LONG_PATH_STEPS;
+
+  const blowupAndRunning = `if (${p.blowupTest}) { blown = true; break seg; }\n${running}`;
+  const outsideSeen = states.map((i) => `s${i} <= mx${i} && s${i} >= mn${i}`).join(' && ');
+  const checks = startsWithinBound(plan)
+    ? `if (!(${outsideSeen})) {\n${blowupAndRunning}\n}`
+    : blowupAndRunning;
+  /** The step after its draws: increments, scheme, boundaries, checks, watches. */
+  const stepTail = `${p.increments}\n${p.stepAndBoundaries}\n${checks}\n${watchUpdates(plan, END_OF_STEP)}`;
+  const fastDraws = range(m)
+    .map((j) => fastNormalDrawSource(`z${j}`, `slow = ${j}; break;`))
+    .join('\n');
+  // After the hot loop left at draw `slow`: finish that draw, make the later ones in full.
+  const finishDraws = range(m)
+    .map((j) => {
+      const finish = `if (slow === ${j}) { ${normalSlowPathSource(`z${j}`)} }`;
+      return j === 0 ? finish : `${finish} else if (slow < ${j}) { ${normalDrawSource(`z${j}`)} }`;
+    })
+    .join('\n');
+  const segmentSteps =
+    m === 0
+      ? `for (; n <= end; n++) {\n${p.timeUpdate}\n${stepTail}\n}`
+      : `while (n <= end) {
+      for (; n <= end; n++) {
+${p.timeUpdate}
+${fastDraws}
+${stepTail}
+      }
+      if (n > end) break;
+${finishDraws}
+${stepTail}
+      n++;
+    }`;
 
   return `"use strict";
 ${EXPRESSION_PRELUDE}
-const kn = ctx.kn, wn = ctx.wn, gen = ctx.gen, normalSlowPath = ctx.normalSlowPath, seedState = ctx.seedState, streamSeed = ctx.streamSeed;
-const saved = ctx.saved, probeValues = ctx.probeValues, runningMax = ctx.runningMax, runningMin = ctx.runningMin;
-const firstPassage = ctx.firstPassage, absorptionTime = ctx.absorptionTime, blowupTime = ctx.blowupTime;
-const saveSteps = ctx.saveSteps, probeSteps = ctx.probeStepsSorted, probeOrder = ctx.probeOrder;
-const seed = ctx.seed, firstPath = ctx.firstPath, pathCount = ctx.pathCount, pEnd = ctx.pEnd, shouldStop = ctx.shouldStop;
-const t0 = ${numberLiteral(plan.t0)}, h = ${numberLiteral(layout.h)}, steps = ${plan.steps};
-const sqh = Math.sqrt(h), halfInvSqh = 0.5 / sqh;
-let x0 = 0, x1 = 0, x2 = 0, x3 = 0, r = 0, xt = 0, iz = 0;
-let t = 0.0, tn = 0.0, n = 0, k = 0, q = 0, j = 0, nextSave = 0, nextProbe = 0, blown = false;
-${p.declarations}
-for (let p = ctx.pStart; p < pEnd; p++) {
-  streamSeed(seed, firstPath + p, seedState, 0);
+const K = ctx;
+function runPath(p) {
+  const zt = K.zt, gen = K.gen, normalSlowPath = K.normalSlowPath, seedState = K.seedState;
+  const saved = K.saved, probeValues = K.probeValues, saveSteps = K.saveSteps, probeSteps = K.probeStepsSorted, probeOrder = K.probeOrder;
+  const pathCount = K.pathCount;
+  const t0 = ${numberLiteral(plan.t0)}, h = ${numberLiteral(layout.h)}, steps = ${plan.steps};
+  const sqh = Math.sqrt(h), halfInvSqh = 0.5 / sqh;
+  let x0 = 0, x1 = 0, x2 = 0, x3 = 0, r = 0, xt = 0, iz = 0, rf = 0.0, slow = 0;
+  let t = t0, tn = t0, n = 0, k = 0, q = 0, j = 0, end = 0, nextSave = 0, nextProbe = 0, blown = false;
+  ${p.declarations}
+  K.streamSeed(K.seed, K.firstPath + p, seedState, 0);
   x0 = seedState[0] | 0; x1 = seedState[1] | 0; x2 = seedState[2] | 0; x3 = seedState[3] | 0;
   ${initialValues(plan)}
-  t = t0; tn = t0; blown = false;
   ${states.map((i) => `ab${i} = 0; abT${i} = NaN;`).join(' ')}
   ${plan.watches.map((_, w) => `hw${w} = 0; fp${w} = NaN;`).join(' ')}
   ${p.initialBoundaries}
   ${states.map((i) => `mx${i} = s${i}; mn${i} = s${i};`).join(' ')}
   ${watchUpdates(plan, 't0')}
-  k = 0; while (saveSteps[k] === 0) { ${save} k++; } nextSave = saveSteps[k];
-  q = 0; while (probeSteps[q] === 0) { j = probeOrder[q]; ${probe} q++; } nextProbe = probeSteps[q];
-  for (n = 1; n <= steps; n++) {
-    ${p.timeUpdate}
-    ${p.noiseDraws}
-    ${p.stepAndBoundaries}
-    if (${p.blowupTest}) { blown = true; break; }
-    ${plan.steps >= LONG_PATH_STEPS ? `if ((n & ${STOP_CHECK_MASK}) === 0 && shouldStop()) return p;` : ''}
-    ${running}
-    ${watchUpdates(plan, END_OF_STEP)}
-    if (n === nextSave) { do { ${save} k++; } while (saveSteps[k] === n); nextSave = saveSteps[k]; }
-    if (n === nextProbe) { do { j = probeOrder[q]; ${probe} q++; } while (probeSteps[q] === n); nextProbe = probeSteps[q]; }
+  while (saveSteps[k] === 0) { ${save} k++; }
+  while (probeSteps[q] === 0) { j = probeOrder[q]; ${probe} q++; }
+  n = 1;
+  seg: for (;;) {
+    nextSave = saveSteps[k]; nextProbe = probeSteps[q]; end = steps;
+    if (nextSave >= 0 && nextSave < end) end = nextSave;
+    if (nextProbe >= 0 && nextProbe < end) end = nextProbe;
+    ${longPaths ? `if (end > ((n + ${STOP_CHECK_MASK}) & ${~STOP_CHECK_MASK})) end = (n + ${STOP_CHECK_MASK}) & ${~STOP_CHECK_MASK};` : ''}
+    ${segmentSteps}
+    if (end === nextSave) { do { ${save} k++; } while (saveSteps[k] === end); }
+    if (end === nextProbe) { do { j = probeOrder[q]; ${probe} q++; } while (probeSteps[q] === end); }
+    if (end === steps) break;
+    ${longPaths ? `if ((end & ${STOP_CHECK_MASK}) === 0 && K.shouldStop()) return false;` : ''}
   }
   if (blown) {
-    blowupTime[p] = t0 + n * h;
+    K.blowupTime[p] = t0 + n * h;
     for (; saveSteps[k] >= 0; k++) { ${saveNaN} }
     for (; probeSteps[q] >= 0; q++) { j = probeOrder[q]; ${probeNaN} }
   } else {
-    blowupTime[p] = NaN;
+    K.blowupTime[p] = NaN;
   }
-  ${states.map((i) => `runningMax[${i} * pathCount + p] = mx${i}; runningMin[${i} * pathCount + p] = mn${i};`).join('\n  ')}
-  ${plan.watches.map((_, w) => `firstPassage[${w} * pathCount + p] = fp${w};`).join(' ')}
-  ${states.map((i) => `absorptionTime[${i} * pathCount + p] = ${absorbing.includes(i) ? `abT${i}` : 'NaN'};`).join(' ')}
+  ${states.map((i) => `K.runningMax[${i} * pathCount + p] = mx${i}; K.runningMin[${i} * pathCount + p] = mn${i};`).join('\n  ')}
+  ${plan.watches.map((_, w) => `K.firstPassage[${w} * pathCount + p] = fp${w};`).join(' ')}
+  ${states.map((i) => `K.absorptionTime[${i} * pathCount + p] = ${absorbing.includes(i) ? `abT${i}` : 'NaN'};`).join(' ')}
+  return true;
 }
+const pEnd = ctx.pEnd;
+for (let p = ctx.pStart; p < pEnd; p++) if (!runPath(p)) return p;
 return pEnd;
 `;
 }

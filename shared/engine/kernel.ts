@@ -2,12 +2,12 @@ import type { SimulationPlan } from './plan';
 import type { PlanLayout } from './layout';
 import { buildIncrementKernelSource, buildKernelSource } from './codegen';
 import { streamSeed } from './random/stream-seed';
-import { normalSlowPath, ZIGGURAT_TABLES } from './random/ziggurat';
+import { normalSlowPath, ZIGGURAT_FAST_TABLE } from './random/ziggurat';
 
 /** What a compiled kernel reads: the chunk's output arrays, the tables and the path range. */
 export interface KernelContext {
-  kn: Int32Array;
-  wn: Float64Array;
+  /** The ziggurat's fast-path table (wn, then kn²; see ZIGGURAT_FAST_TABLE). */
+  zt: Float64Array;
   /** Scratch generator state for the ziggurat's rare branch. */
   gen: Int32Array;
   normalSlowPath: typeof normalSlowPath;
@@ -74,5 +74,5 @@ export function compileIncrementKernel(plan: SimulationPlan, layout: PlanLayout)
   return compile<IncrementKernel>(buildIncrementKernelSource(plan, layout));
 }
 
-export const KERNEL_TABLES = ZIGGURAT_TABLES;
+export const KERNEL_TABLE = ZIGGURAT_FAST_TABLE;
 export { streamSeed, normalSlowPath };

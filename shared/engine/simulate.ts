@@ -1,7 +1,7 @@
 import type { SimulationPlan } from './plan';
 import type { ChunkResult, SimulationHooks, SimulationResult } from './result';
 import { planLayout, type PlanLayout } from './layout';
-import { compileKernel, KERNEL_TABLES, normalSlowPath, streamSeed, type KernelContext } from './kernel';
+import { compileKernel, KERNEL_TABLE, normalSlowPath, streamSeed, type KernelContext } from './kernel';
 import { mergeChunks } from './merge';
 
 /** Aim for batches of about this much wall time between hook checks (cancel lands within 200 ms). */
@@ -73,8 +73,7 @@ export function simulateChunk(
   const probeStepsSorted = new Int32Array(layout.probeOrder.length);
   layout.probeOrder.forEach((j, q) => (probeStepsSorted[q] = j < 0 ? -1 : layout.probeSteps[j]!));
   const ctx: KernelContext = {
-    kn: KERNEL_TABLES.kn,
-    wn: KERNEL_TABLES.wn,
+    zt: KERNEL_TABLE,
     gen: new Int32Array(4),
     normalSlowPath,
     seedState: new Uint32Array(4),

@@ -4,6 +4,9 @@ export {
   buildZigguratTables,
   normalFrom,
   normalDrawSource,
+  fastNormalDrawSource,
+  normalSlowPathSource,
+  ZIGGURAT_FAST_TABLE,
   ZIGGURAT_TABLES,
   type ZigguratTables,
 } from './ziggurat';

@@ -122,16 +122,54 @@ export function normalSlowPath(firstHz: number, firstIz: number, gen: Int32Array
 }
 
 /**
- * Source text that leaves one standard normal draw in `target`, on the generator state x0..x3.
- * Expects locals r, xt, iz, the tables kn, wn, the scratch Int32Array `gen` and the function
- * `normalSlowPath` in scope. Same algorithm as `normalFrom`: the fast path (≈ 99 % of draws)
- * costs one generator step, one table lookup and one multiply.
+ * The kernel's fast-path table: entries 0…127 are wn, entries 128…255 are kn² as doubles. The
+ * test |hz| < kn[iz] is done as hz·hz < kn[iz]² in doubles, which gives the same answer for every
+ * 32-bit hz (squares below 2^62 round monotonically, and distinct integer squares near kn² differ
+ * by about 2·kn, far more than a rounding step), needs no branch on the sign of hz and reads a
+ * single typed array for both the test and the scale.
+ */
+export function buildFastTable(tables: ZigguratTables = ZIGGURAT_TABLES): Float64Array {
+  const table = new Float64Array(256);
+  for (let i = 0; i < 128; i++) {
+    table[i] = tables.wn[i]!;
+    table[128 + i] = tables.kn[i]! * tables.kn[i]!;
+  }
+  return table;
+}
+
+export const ZIGGURAT_FAST_TABLE: Float64Array = buildFastTable();
+
+/**
+ * Source text of the ziggurat's fast path on the generator state x0..x3: one generator step,
+ * then either a standard normal in `target` or, when the draw needs the rare branch (≈ 1.2 %),
+ * `onReject` with the draw's r and iz left for `normalSlowPathSource`. Expects locals r, xt, iz,
+ * rf (a double) and the table `zt` (ZIGGURAT_FAST_TABLE) in scope.
+ */
+export function fastNormalDrawSource(target: string, onReject: string): string {
+  return `${XOSHIRO_NEXT_SOURCE} iz = r & 127; rf = r;
+if (!(rf * rf < zt[iz + 128])) { ${onReject} }
+${target} = rf * zt[iz];`;
+}
+
+/**
+ * Source text that finishes a draw whose fast test failed (r, iz as left by the fast path): spills
+ * the generator state into the scratch Int32Array `gen`, calls `normalSlowPath` and takes the
+ * state back.
+ */
+export function normalSlowPathSource(target: string): string {
+  return `gen[0] = x0; gen[1] = x1; gen[2] = x2; gen[3] = x3;
+${target} = normalSlowPath(r, iz, gen);
+x0 = gen[0]; x1 = gen[1]; x2 = gen[2]; x3 = gen[3];`;
+}
+
+/**
+ * Source text that leaves one standard normal draw in `target`, on the generator state x0..x3
+ * (fast path inline, rare branch through `normalSlowPath`). Same algorithm and stream as
+ * `normalFrom`.
  */
 export function normalDrawSource(target: string): string {
-  return `${XOSHIRO_NEXT_SOURCE} iz = r & 127;
-if ((r < 0 ? -r : r) < kn[iz]) { ${target} = r * wn[iz]; } else {
-  gen[0] = x0; gen[1] = x1; gen[2] = x2; gen[3] = x3;
-  ${target} = normalSlowPath(r, iz, gen);
-  x0 = gen[0]; x1 = gen[1]; x2 = gen[2]; x3 = gen[3];
+  return `${XOSHIRO_NEXT_SOURCE} iz = r & 127; rf = r;
+if (rf * rf < zt[iz + 128]) { ${target} = rf * zt[iz]; } else {
+  ${normalSlowPathSource(target)}
 }`;
 }

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import jStat from 'jstat';
 import { streamSeed } from '@shared/engine/random/stream-seed';
 import { Xoshiro128 } from '@shared/engine/random/xoshiro128';
-import { normalFrom, ZIGGURAT_TABLES } from '@shared/engine/random/ziggurat';
+import { normalFrom, ZIGGURAT_FAST_TABLE, ZIGGURAT_TABLES } from '@shared/engine/random/ziggurat';
 import { Fnv1a64 } from '@shared/engine/digest';
 import { simulate } from '@shared/engine/simulate';
 import { ksCritical5, ksStatistic, makePlan } from './plans';
@@ -136,6 +136,52 @@ describe('ziggurat normal sampler (Marsaglia & Tsang 2000)', () => {
     for (let p = 0; p < plan.paths; p++) {
       streamSeed(plan.seed, p, seedState);
       expect(result.finalValues[0]![p]).toBe(normalFrom(new Xoshiro128(seedState)));
+    }
+  });
+
+  it('keeps the stream when draws of two noise sources leave the kernel for the rare branch', () => {
+    // dX_i = dW_i with h = 1: each step adds z0 then z1, drawn in that order from the path's stream
+    // (normalFrom on the same generator). 2000 paths × 3 steps × 2 draws meet the rare branch
+    // (≈ 1.2 % of draws) about 140 times, in either position.
+    const plan = makePlan({
+      drift: ['0', '0'],
+      diffusion: [
+        ['1', '0'],
+        ['0', '1'],
+      ],
+      initial: [0, 0],
+      t1: 3,
+      steps: 3,
+      paths: 2000,
+      saveCount: 4,
+      seed: 8,
+    });
+    const result = simulate(plan);
+    const seedState = new Uint32Array(4);
+    for (let p = 0; p < plan.paths; p++) {
+      streamSeed(plan.seed, p, seedState);
+      const generator = new Xoshiro128(seedState);
+      const sums = [0, 0];
+      for (let k = 1; k <= 3; k++) {
+        sums[0]! += normalFrom(generator);
+        sums[1]! += normalFrom(generator);
+        expect(result.savedValues[0]![k * plan.paths + p]).toBe(sums[0]);
+        expect(result.savedValues[1]![k * plan.paths + p]).toBe(sums[1]);
+      }
+    }
+  });
+
+  it('tests |hz| < kn by hz² < kn² in doubles with the same answer, at every layer edge', () => {
+    // The kernel's fast table (wn, then kn²) must accept exactly the draws the published test
+    // |hz| < kn[iz] accepts (Marsaglia & Tsang 2000); checked at and around each threshold.
+    const { kn, wn } = ZIGGURAT_TABLES;
+    for (let iz = 0; iz < 128; iz++) {
+      expect(ZIGGURAT_FAST_TABLE[iz]).toBe(wn[iz]);
+      const k = kn[iz]!;
+      for (const hz of [k - 1, k, k + 1, -k + 1, -k, -k - 1, 0, 2147483647, -2147483648]) {
+        if (hz > 2147483647 || hz < -2147483648) continue;
+        expect(hz * hz < ZIGGURAT_FAST_TABLE[128 + iz]!).toBe(Math.abs(hz) < k);
+      }
     }
   });
 

@@ -319,6 +319,40 @@ describe('blow-ups', () => {
     expect(result.stats[0]!.live[0]).toBe(50);
   });
 
+  it('flags a path that starts beyond the bound and stays there at the first step', () => {
+    // No drift, no noise: X stays at 3 > 2 = bound, so the path is beyond the bound after step 1
+    // (t = h) — the blow-up definition of this engine (common practice, no source).
+    const still = makePlan({
+      drift: ['0'],
+      diffusion: [['0']],
+      initial: [3],
+      t1: 1,
+      steps: 10,
+      paths: 5,
+      blowupBound: 2,
+    });
+    const result = simulate(still);
+    expect(result.blowups.count).toBe(5);
+    expect(result.blowups.firstTime).toBeCloseTo(0.1, 12);
+  });
+
+  it('times a deterministic blow-up to the step', () => {
+    // Euler for dX = X dt gives X_n = (1 + h)^n X_0 (Kloeden & Platen 1992, §9.1 with b = 0);
+    // with h = 0.1 it first exceeds 2 at n = 8 (1.1^7 ≈ 1.949, 1.1^8 ≈ 2.144), so t = 0.8.
+    const growth = makePlan({
+      drift: ['s0'],
+      diffusion: [['0']],
+      initial: [1],
+      t1: 1,
+      steps: 10,
+      paths: 3,
+      blowupBound: 2,
+    });
+    const result = simulate(growth);
+    expect(result.blowups.count).toBe(3);
+    expect(result.blowups.firstTime).toBeCloseTo(0.8, 12);
+  });
+
   it('catches infinite values when there is no bound', () => {
     const result = simulate({ ...plan, blowupBound: null });
     expect(result.blowups.count).toBe(50);
