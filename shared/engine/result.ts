@@ -84,6 +84,8 @@ export interface StabilityReport {
   mu: number;
   h: number;
   stable: boolean;
+  /** The model's own second moment decays (2λ + μ² < 0 in Itô form); when it does not, no step is stable. */
+  modelStable: boolean;
   /** The scheme's mean-square amplification factor E[R²]; stable iff < 1. */
   amplification: number;
   message: string;

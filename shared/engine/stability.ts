@@ -80,8 +80,25 @@ export function meanSquareStability(plan: SimulationPlan): StabilityReport | nul
   // The model's own second moment decays iff 2λ + μ² < 0 (Itô); a Stratonovich model has Itô drift λ + μ²/2.
   const itoLambda = model.calculus === 'stratonovich' ? lambda + 0.5 * mu * mu : lambda;
   const modelDecays = 2 * itoLambda + mu * mu < 0;
-  const message = stable
-    ? `${name} with step ${h.toPrecision(4)} is mean-square stable for this linear model (λ = ${lambda.toPrecision(4)}, μ = ${mu.toPrecision(4)}; ${condition}).`
-    : `${name} with step ${h.toPrecision(4)} is NOT mean-square stable for this linear model (λ = ${lambda.toPrecision(4)}, μ = ${mu.toPrecision(4)}; ${condition}): the simulated second moment grows from step to step${modelDecays ? ", although the model's own second moment decays" : ''}. Try a smaller step.`;
-  return { scheme: plan.method, lambda, mu, h, stable, amplification: factor, message };
+  const model_ = `λ = ${lambda.toPrecision(4)}, μ = ${mu.toPrecision(4)}`;
+  let message: string;
+  if (stable) {
+    message = `${name} with step ${h.toPrecision(4)} is mean-square stable for this linear model (${model_}; ${condition}).`;
+  } else if (modelDecays) {
+    message = `${name} with step ${h.toPrecision(4)} is NOT mean-square stable for this linear model (${model_}; ${condition}): the simulated second moment grows from step to step, although the model's own second moment decays. Try a smaller step.`;
+  } else {
+    // 2λ + μ² ≥ 0: the exact solution's second moment grows too, so no step size makes the scheme
+    // mean-square stable, and its growth is no sign of a step that is too large.
+    message = `This linear model's own second moment grows (${model_}; 2λ + μ² ≥ 0), so ${name}'s growing second moment (${condition}) is expected and does not call for a smaller step.`;
+  }
+  return {
+    scheme: plan.method,
+    lambda,
+    mu,
+    h,
+    stable,
+    modelStable: modelDecays,
+    amplification: factor,
+    message,
+  };
 }
