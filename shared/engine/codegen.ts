@@ -138,13 +138,14 @@ function startsWithinBound(plan: SimulationPlan): boolean {
 }
 
 /**
- * Source of `kernel(ctx)`: simulates paths ctx.pStart … ctx.pEnd − 1 of a chunk (see
- * KernelContext in kernel.ts for what ctx holds), writes the chunk's arrays and returns ctx.pEnd,
- * or the index of the path it was working on when a long path was stopped (that path and the
- * later ones are not done).
+ * Source of a function body that returns `kernel(ctx)`: the kernel simulates paths ctx.pStart …
+ * ctx.pEnd − 1 of a chunk (see KernelContext in kernel.ts for what ctx holds), writes the chunk's
+ * arrays and returns ctx.pEnd, or the index of the path it was working on when a long path was
+ * stopped (that path and the later ones are not done).
  *
- * Shape, for speed (V8): one function per path (optimised as a plain function, not on-stack
- * replacement), the steps in segments that end at the next saved or probe step, and inside a
+ * Shape, for speed (V8): one function per path, made once per compiled kernel, so it is optimised
+ * once as a plain function (not on-stack replacement) and stays optimised across chunks and runs;
+ * the kernel holds the chunk's context only while it runs. the steps in segments that end at the next saved or probe step, and inside a
  * segment a loop whose only call-free exit besides its end is the ziggurat's rare branch: a draw
  * that needs it leaves the loop, is finished outside (one call), and that step is completed there;
  * then the loop resumes. With no call in the hot loop the generator state stays in registers.
@@ -201,7 +202,7 @@ ${stepTail}
 
   return `"use strict";
 ${EXPRESSION_PRELUDE}
-const K = ctx;
+let K = null;
 function runPath(p) {
   const zt = K.zt, gen = K.gen, normalSlowPath = K.normalSlowPath, seedState = K.seedState;
   const saved = K.saved, probeValues = K.probeValues, saveSteps = K.saveSteps, probeSteps = K.probeStepsSorted, probeOrder = K.probeOrder;
@@ -245,9 +246,14 @@ function runPath(p) {
   ${states.map((i) => `K.absorptionTime[${i} * pathCount + p] = ${absorbing.includes(i) ? `abT${i}` : 'NaN'};`).join(' ')}
   return true;
 }
-const pEnd = ctx.pEnd;
-for (let p = ctx.pStart; p < pEnd; p++) if (!runPath(p)) return p;
-return pEnd;
+return function kernel(ctx) {
+  K = ctx;
+  const pEnd = ctx.pEnd;
+  let p = ctx.pStart;
+  while (p < pEnd && runPath(p)) p++;
+  K = null;
+  return p;
+};
 `;
 }
 

@@ -51,7 +51,8 @@ export type IncrementKernel = (ctx: IncrementContext) => number;
 const cache = new Map<string, Kernel | IncrementKernel>();
 const CACHE_SIZE = 8;
 
-function compile<T>(source: string): T {
+/** `factory`: the source is a body that returns the kernel (buildKernelSource), else the kernel's own body. */
+function compile<T>(source: string, factory: boolean): T {
   const hit = cache.get(source);
   if (hit !== undefined) {
     cache.delete(source);
@@ -60,18 +61,19 @@ function compile<T>(source: string): T {
   }
   // The one place the engine turns source into code; the source is built by codegen.ts from the
   // expression compiler's checked output and numeric literals.
-  const compiled = new Function('ctx', source) as Kernel | IncrementKernel;
+  const compiled = (factory ? new Function(source)() : new Function('ctx', source)) as
+    Kernel | IncrementKernel;
   cache.set(source, compiled);
   if (cache.size > CACHE_SIZE) cache.delete(cache.keys().next().value!);
   return compiled as T;
 }
 
 export function compileKernel(plan: SimulationPlan, layout: PlanLayout): Kernel {
-  return compile<Kernel>(buildKernelSource(plan, layout));
+  return compile<Kernel>(buildKernelSource(plan, layout), true);
 }
 
 export function compileIncrementKernel(plan: SimulationPlan, layout: PlanLayout): IncrementKernel {
-  return compile<IncrementKernel>(buildIncrementKernelSource(plan, layout));
+  return compile<IncrementKernel>(buildIncrementKernelSource(plan, layout), false);
 }
 
 export const KERNEL_TABLE = ZIGGURAT_FAST_TABLE;
