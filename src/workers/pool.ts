@@ -6,6 +6,8 @@ import type { SheetRunEnvironment } from '@shared/run/run-sheet';
 import { collectTransferables } from '@shared/run/transferables';
 import type { SimulationWorkerApi } from './simulation.worker';
 
+export const SIMULATION_FINISHED_MARK = 'meander:simulation-finished';
+
 /**
  * The browser's simulation pool: hardwareConcurrency − 1 Web Workers (at least one), chunks
  * handed out as workers free up, merged in path order by a helper worker (the main thread only
@@ -69,9 +71,13 @@ export class SimulationPool {
     onProgress?: (progress: RunProgress) => void,
   ): Promise<SimulationResult> {
     const chunks = await this.chunks.run(plan, onProgress);
-    return this.onHelper((api) =>
+    const result = await this.onHelper((api) =>
       api.mergeChunks(plan, Comlink.transfer(chunks, collectTransferables(chunks))),
     );
+    // A User Timing mark, so performance tools (and the end-to-end test of responsiveness) can
+    // tell the run itself from drawing its results.
+    performance.mark(SIMULATION_FINISHED_MARK);
+    return result;
   }
 
   runStudy(plan: SimulationPlan, options: StudyOptions): Promise<StudyResult> {

@@ -8,6 +8,13 @@ import type { CellOutput } from '@/components/cells/contract';
 import type { StudyResult } from '@shared/engine';
 import { cellOf, editorProps, fakeRun, reservoirSheet } from './fixtures';
 
+/** Charts draw in a task of their own (PlotlyChart.vue): let it run. */
+async function chartDrawn(): Promise<void> {
+  await flushPromises();
+  await new Promise((resolve) => setTimeout(resolve, 0));
+  await flushPromises();
+}
+
 const plotly = vi.hoisted(() => ({
   react: vi.fn(async (element: HTMLElement) => element),
   purge: vi.fn(),
@@ -89,7 +96,7 @@ describe('ChartCell', () => {
       props: editorProps(sheet, chart, { 'level-run': simulationOutput() }),
     });
     mounted.push(wrapper);
-    await flushPromises();
+    await chartDrawn();
     const root = wrapper.find('[role="img"]');
     expect(root.attributes('aria-label')).toBe('Sample paths of L: 20 paths');
     expect(wrapper.text()).toContain('20 sample paths shown');
@@ -192,7 +199,7 @@ describe('StudyCell', () => {
     };
     const wrapper = mount(StudyCell, { props: editorProps(sheet, study, outputs) });
     mounted.push(wrapper);
-    await flushPromises();
+    await chartDrawn();
     expect(wrapper.find('[role="img"]').attributes('aria-label')).toMatch(
       /strong and weak error against step size at 3 levels/,
     );
