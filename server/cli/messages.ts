@@ -1,6 +1,6 @@
 import type { SimulationPlan } from '../../shared/engine/plan';
 import type { ChunkResult, StudyOptions, StudyResult } from '../../shared/engine/result';
-import type { ChunkCancel } from '../../shared/run/chunk-task';
+import type { ChunkCancel, ClaimTask } from '../../shared/run/chunk-task';
 
 /** Messages between the runner and its worker threads (structured clone; buffers transferred). */
 export type ToWorker =
@@ -12,11 +12,13 @@ export type ToWorker =
       pathCount: number;
       cancel: ChunkCancel | null;
     }
+  | { type: 'claim'; id: number; plan: SimulationPlan; task: ClaimTask }
   | { type: 'study'; id: number; plan: SimulationPlan; options: StudyOptions };
 
 export type FromWorker =
   | { type: 'progress'; id: number; pathsDone: number }
   | { type: 'chunk-done'; id: number; chunk: ChunkResult }
+  | { type: 'claim-done'; id: number; indices: number[]; chunks: ChunkResult[] }
   | { type: 'study-done'; id: number; result: StudyResult }
   | { type: 'failed'; id: number; message: string };
 

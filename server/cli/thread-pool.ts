@@ -5,6 +5,7 @@ import type { ChunkResult, StudyOptions, StudyResult } from '../../shared/engine
 import { ChunkPool, type ChunkWorker } from '../../shared/run/chunk-pool';
 import { poolEnvironment } from '../../shared/run/environments';
 import type { SheetRunEnvironment } from '../../shared/run/run-sheet';
+import type { ClaimedChunks, ClaimTask } from '../../shared/run/chunk-task';
 import type { FromWorker, ToWorker, WorkerRequest } from './messages';
 import { startTypeScriptWorker } from './ts-worker';
 
@@ -78,6 +79,13 @@ export class SimulationThread {
     return answer.chunk;
   }
 
+  /** Simulates chunks taken from the shared counter until none is left (ChunkPool's claim mode). */
+  async simulateClaimed(plan: SimulationPlan, task: ClaimTask): Promise<ClaimedChunks<ChunkResult>> {
+    const answer = await this.request({ type: 'claim', plan, task });
+    if (answer.type !== 'claim-done') throw new Error(`unexpected answer "${answer.type}" to a claim`);
+    return { indices: answer.indices, chunks: answer.chunks };
+  }
+
   async runStudy(plan: SimulationPlan, options: StudyOptions): Promise<StudyResult> {
     const answer = await this.request({ type: 'study', plan, options });
     if (answer.type !== 'study-done') throw new Error(`unexpected answer "${answer.type}" to a study`);
@@ -101,6 +109,15 @@ function threadChunkWorker(cancelFlag: Int32Array | null): ChunkWorker<Simulatio
         cancelFlag ? { flag: cancelFlag, epoch: job.epoch } : null,
         job.onPathsDone,
       ),
+    simulateClaimed: cancelFlag
+      ? (job) =>
+          thread.simulateClaimed(job.plan, {
+            ranges: job.ranges,
+            claim: job.claim,
+            progress: job.progress,
+            cancel: { flag: job.cancelEpoch, epoch: job.epoch },
+          })
+      : undefined,
     terminate: () => void thread.terminate(),
   };
 }

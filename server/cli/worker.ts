@@ -1,6 +1,7 @@
 import { parentPort } from 'node:worker_threads';
 import { runStudy } from '../../shared/engine/study';
-import { chunkTransferables, runChunkTask } from '../../shared/run/chunk-task';
+import { chunkTransferables, runChunkTask, runClaimedChunks } from '../../shared/run/chunk-task';
+import { collectTransferables } from '../../shared/run/transferables';
 import type { FromWorker, ToWorker } from './messages';
 
 /** A worker thread of the headless runner: the same chunk task as the browser's worker. */
@@ -22,6 +23,9 @@ port.on('message', (message: ToWorker) => {
         (pathsDone) => send({ type: 'progress', id: message.id, pathsDone }),
       );
       send({ type: 'chunk-done', id: message.id, chunk }, chunkTransferables(chunk));
+    } else if (message.type === 'claim') {
+      const { indices, chunks } = runClaimedChunks(message.plan, message.task);
+      send({ type: 'claim-done', id: message.id, indices, chunks }, collectTransferables(chunks));
     } else {
       send({ type: 'study-done', id: message.id, result: runStudy(message.plan, message.options) });
     }

@@ -1,4 +1,5 @@
 import { splitPaths, type ChunkRange } from './chunks';
+import type { ClaimedChunks } from './chunk-task';
 
 /**
  * A pool of simulation workers that hands out chunks of paths as workers free up. Framework-free
@@ -9,6 +10,13 @@ import { splitPaths, type ChunkRange } from './chunks';
  * a worker compares it with the epoch its chunk started under and stops between paths. Without
  * shared memory (a page that is not cross-origin isolated) busy workers are terminated and
  * replaced. Either way the run's promise rejects with RunCancelledError at once.
+ *
+ * Claim mode: with shared memory and workers that offer `simulateClaimed`, a run is not handed
+ * out chunk by chunk. Each free worker gets the whole list of ranges once and takes chunks from a
+ * shared counter until none is left, then answers with all of its chunks; progress goes through a
+ * shared array. A worker never idles between chunks waiting for a message, and this thread is not
+ * woken per chunk (on two cores that thread competes with the workers). The split is the same, so
+ * the chunks and the merged numbers are too.
  */
 
 export interface PlanSize {
@@ -25,8 +33,22 @@ export interface ChunkJob<TPlan> {
   onPathsDone: (pathsDone: number) => void;
 }
 
+export interface ClaimJob<TPlan> {
+  plan: TPlan;
+  ranges: ChunkRange[];
+  /** Shared [index of the next unclaimed chunk]: take one with Atomics.add(claim, 0, 1). */
+  claim: Int32Array;
+  /** Shared paths done per chunk; the worker stores into it as a chunk goes. */
+  progress: Int32Array;
+  /** The pool's shared epoch counter; stop when it differs from `epoch`. */
+  cancelEpoch: Int32Array;
+  epoch: number;
+}
+
 export interface ChunkWorker<TPlan, TChunk> {
   simulate(job: ChunkJob<TPlan>): Promise<TChunk>;
+  /** Optional claim mode (see above): simulates chunks taken from `job.claim` until none is left. */
+  simulateClaimed?(job: ClaimJob<TPlan>): Promise<ClaimedChunks<TChunk>>;
   terminate(): void;
 }
 
@@ -66,6 +88,9 @@ interface ActiveRun<TPlan, TChunk> {
   results: (TChunk | undefined)[];
   done: number[];
   remaining: number;
+  /** Claim mode only: the shared next-chunk counter and per-chunk progress. */
+  claim: Int32Array | null;
+  progress: Int32Array | null;
   startedAt: number;
   onProgress: ((progress: RunProgress) => void) | undefined;
   timer: ReturnType<typeof setInterval> | undefined;
@@ -73,10 +98,13 @@ interface ActiveRun<TPlan, TChunk> {
   reject: (error: unknown) => void;
 }
 
+/** `index` −1: a claim job (the worker takes chunks of the run itself). */
 interface QueuedChunk<TPlan, TChunk> {
   run: ActiveRun<TPlan, TChunk>;
   index: number;
 }
+
+const CLAIM = -1;
 
 interface Slot<TPlan, TChunk> {
   worker: ChunkWorker<TPlan, TChunk>;
@@ -127,6 +155,7 @@ export class ChunkPool<TPlan extends PlanSize, TChunk> {
   run(plan: TPlan, onProgress?: (progress: RunProgress) => void): Promise<TChunk[]> {
     if (this.disposed) return Promise.reject(new Error('the worker pool has been shut down'));
     const ranges = splitPaths(plan.paths, plan.steps);
+    const claims = this.cancelEpoch !== null && this.slots.every((slot) => slot.worker.simulateClaimed);
     return new Promise<TChunk[]>((resolve, reject) => {
       const run: ActiveRun<TPlan, TChunk> = {
         plan,
@@ -135,6 +164,8 @@ export class ChunkPool<TPlan extends PlanSize, TChunk> {
         results: new Array<TChunk | undefined>(ranges.length),
         done: new Array<number>(ranges.length).fill(0),
         remaining: ranges.length,
+        claim: claims ? new Int32Array(new SharedArrayBuffer(4)) : null,
+        progress: claims ? new Int32Array(new SharedArrayBuffer(4 * ranges.length)) : null,
         startedAt: this.now(),
         onProgress,
         timer: undefined,
@@ -146,7 +177,8 @@ export class ChunkPool<TPlan extends PlanSize, TChunk> {
         onProgress(this.progressOf(run));
         run.timer = setInterval(() => onProgress(this.progressOf(run)), this.progressIntervalMs);
       }
-      for (let index = 0; index < ranges.length; index++) this.queue.push({ run, index });
+      if (claims) this.queue.push({ run, index: CLAIM });
+      else for (let index = 0; index < ranges.length; index++) this.queue.push({ run, index });
       this.dispatch();
     });
   }
@@ -176,7 +208,8 @@ export class ChunkPool<TPlan extends PlanSize, TChunk> {
 
   private progressOf(run: ActiveRun<TPlan, TChunk>): RunProgress {
     let pathsDone = 0;
-    for (const done of run.done) pathsDone += done;
+    for (let i = 0; i < run.done.length; i++)
+      pathsDone += run.progress ? Math.max(run.done[i]!, Atomics.load(run.progress, i)) : run.done[i]!;
     const elapsedMs = this.now() - run.startedAt;
     const etaMs = pathsDone > 0 ? (elapsedMs * (run.plan.paths - pathsDone)) / pathsDone : null;
     return { pathsDone, paths: run.plan.paths, elapsedMs, etaMs };
@@ -185,10 +218,56 @@ export class ChunkPool<TPlan extends PlanSize, TChunk> {
   private dispatch(): void {
     for (const slot of this.slots) {
       if (slot.busyWith) continue;
-      const next = this.queue.shift();
+      const next = this.nextItem();
       if (!next) return;
-      this.start(slot, next);
+      if (next.index === CLAIM) this.startClaims(slot, next);
+      else this.start(slot, next);
     }
+  }
+
+  /** The next chunk, or a claim job for the oldest claim-mode run that still has unclaimed chunks. */
+  private nextItem(): QueuedChunk<TPlan, TChunk> | undefined {
+    for (;;) {
+      const head = this.queue[0];
+      if (!head || head.index !== CLAIM) return this.queue.shift();
+      if (Atomics.load(head.run.claim!, 0) < head.run.ranges.length) return head;
+      this.queue.shift();
+    }
+  }
+
+  private startClaims(slot: Slot<TPlan, TChunk>, item: QueuedChunk<TPlan, TChunk>): void {
+    const { run } = item;
+    slot.busyWith = item;
+    const worker = slot.worker;
+    const settle = (outcome: { claimed: ClaimedChunks<TChunk> } | { error: unknown }) => {
+      if (slot.worker === worker && slot.busyWith === item) slot.busyWith = null;
+      if (this.runs.has(run)) {
+        if ('error' in outcome) {
+          this.finish(run, outcome);
+        } else {
+          const { indices, chunks } = outcome.claimed;
+          for (let i = 0; i < indices.length; i++) {
+            const index = indices[i]!;
+            run.results[index] = chunks[i];
+            run.done[index] = run.ranges[index]!.pathCount;
+          }
+          run.remaining -= indices.length;
+          if (run.remaining === 0) this.finish(run, { chunks: run.results as TChunk[] });
+        }
+      }
+      this.dispatch();
+    };
+    worker.simulateClaimed!({
+      plan: run.plan,
+      ranges: run.ranges,
+      claim: run.claim!,
+      progress: run.progress!,
+      cancelEpoch: this.cancelEpoch!,
+      epoch: run.epoch,
+    }).then(
+      (claimed) => settle({ claimed }),
+      (error: unknown) => settle({ error }),
+    );
   }
 
   private start(slot: Slot<TPlan, TChunk>, item: QueuedChunk<TPlan, TChunk>): void {
@@ -228,6 +307,8 @@ export class ChunkPool<TPlan extends PlanSize, TChunk> {
   private finish(run: ActiveRun<TPlan, TChunk>, outcome: { chunks: TChunk[] } | { error: unknown }): void {
     if (!this.runs.delete(run)) return;
     if (run.timer !== undefined) clearInterval(run.timer);
+    // Claim mode: workers still busy with this run take no further chunk of it.
+    if (run.claim) Atomics.store(run.claim, 0, run.ranges.length);
     for (let i = this.queue.length - 1; i >= 0; i--) if (this.queue[i]!.run === run) this.queue.splice(i, 1);
     if ('chunks' in outcome) {
       run.onProgress?.(this.progressOf(run));

@@ -5,12 +5,20 @@ export {
   RunCancelledError,
   sharedMemoryAvailable,
   type ChunkJob,
+  type ClaimJob,
   type ChunkWorker,
   type ChunkWorkerFactory,
   type ChunkPoolOptions,
   type RunProgress,
 } from './chunk-pool';
-export { runChunkTask, chunkTransferables, type ChunkCancel } from './chunk-task';
+export {
+  runChunkTask,
+  runClaimedChunks,
+  chunkTransferables,
+  type ChunkCancel,
+  type ClaimTask,
+  type ClaimedChunks,
+} from './chunk-task';
 export {
   runSheet,
   isNumericalCell,
