@@ -13,9 +13,23 @@ export interface Database {
   close(): Promise<void>;
 }
 
-/** A pooled connection; the caller closes it on shutdown. */
-export function connectDatabase(url: string, options: { max?: number } = {}): Database {
+/**
+ * A pooled connection; the caller closes it on shutdown. A connection the server ends on its own
+ * (a restart, an administrator's command, a dropped database) must not crash the process: pg
+ * emits such errors on the client or the pool, and an 'error' event without a listener is thrown.
+ * The pool opens a new connection when one is needed; a query in flight still fails with its own
+ * error.
+ */
+export function connectDatabase(
+  url: string,
+  options: { max?: number; onConnectionError?: (error: Error) => void } = {},
+): Database {
+  const onConnectionError =
+    options.onConnectionError ??
+    ((error: Error) => console.warn(`[meander] a database connection was lost: ${error.message}`));
   const pool = new pg.Pool({ connectionString: url, max: options.max ?? 10 });
+  pool.on('error', onConnectionError);
+  pool.on('connect', (client) => client.on('error', onConnectionError));
   const db = drizzle(pool, { schema });
   return { db, close: () => pool.end() };
 }
