@@ -3,6 +3,7 @@ import type { PlanLayout } from './layout';
 import { buildIncrementKernelSource, buildKernelSource } from './codegen';
 import { streamSeed } from './random/stream-seed';
 import { normalSlowPath, ZIGGURAT_FAST_TABLE } from './random/ziggurat';
+import { compileGenerated } from './compile-generated';
 
 /** What a compiled kernel reads: the chunk's output arrays, the tables and the path range. */
 export interface KernelContext {
@@ -59,10 +60,10 @@ function compile<T>(source: string, factory: boolean): T {
     cache.set(source, hit);
     return hit as T;
   }
-  // The one place the engine turns source into code; the source is built by codegen.ts from the
-  // expression compiler's checked output and numeric literals.
-  const compiled = (factory ? new Function(source)() : new Function('ctx', source)) as
-    Kernel | IncrementKernel;
+  // The source is built by codegen.ts from the expression compiler's checked output and literals.
+  const compiled = factory
+    ? compileGenerated<() => Kernel>([], source)()
+    : compileGenerated<IncrementKernel>(['ctx'], source);
   cache.set(source, compiled);
   if (cache.size > CACHE_SIZE) cache.delete(cache.keys().next().value!);
   return compiled as T;

@@ -1,6 +1,7 @@
 import { EXPRESSION_PRELUDE } from '../expr';
 import type { SimulationPlan } from './plan';
 import type { StabilityReport } from './result';
+import { compileGenerated } from './compile-generated';
 
 /**
  * Mean-square stability of the chosen scheme with step h for a scalar linear model
@@ -19,7 +20,7 @@ type Scalar = (t: number, s0: number) => number;
 
 function compileScalar(source: string): Scalar {
   // Built from the plan's checked sources (see plan.ts); evaluated a handful of times only.
-  return new Function('t', 's0', `"use strict"; ${EXPRESSION_PRELUDE} return (${source});`) as Scalar;
+  return compileGenerated<Scalar>(['t', 's0'], `"use strict"; ${EXPRESSION_PRELUDE} return (${source});`);
 }
 
 /** The slope c when f(t, x) = c·x at every probe point, else null. */

@@ -7,6 +7,7 @@ import { streamSeed } from './random/stream-seed';
 import { Xoshiro128 } from './random/xoshiro128';
 import { normalFrom } from './random/ziggurat';
 import { fitSlope } from './regression';
+import { compileGenerated } from './compile-generated';
 
 type ExactSolution = (t: number, initial: Float64Array, brownian: Float64Array) => number;
 
@@ -19,7 +20,7 @@ function compileExact(plan: SimulationPlan, state: number): ExactSolution {
   ];
   // Built from the plan's checked exact-solution source (see plan.ts); evaluated once per sample.
   const body = `"use strict"; ${EXPRESSION_PRELUDE} const ${names.length > 0 ? names.join(', ') : '_unused = 0'}; return (${plan.model.exact[state]!});`;
-  return new Function('t', 'initial', 'brownian', body) as ExactSolution;
+  return compileGenerated<ExactSolution>(['t', 'initial', 'brownian'], body);
 }
 
 function checkOptions(plan: SimulationPlan, options: StudyOptions): void {
