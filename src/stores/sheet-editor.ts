@@ -256,6 +256,9 @@ export const useSheetEditorStore = defineStore('sheet-editor', () => {
     runNotice.value = null;
     runCancelled = false;
     try {
+      // Let the page show the run as started (a task of its own) before plans are built and
+      // workers started, so neither half holds the main thread for long.
+      await new Promise((resolve) => setTimeout(resolve, 0));
       backend ??= await createRunBackend();
       const finished = await executeRunSteps(steps, {
         doc,

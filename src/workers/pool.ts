@@ -5,6 +5,7 @@ import { ChunkPool, RunCancelledError, type ChunkWorker, type RunProgress } from
 import type { SheetRunEnvironment } from '@shared/run/run-sheet';
 import { collectTransferables } from '@shared/run/transferables';
 import type { SimulationWorkerApi } from './simulation.worker';
+import { runStarted } from './activity';
 
 export const SIMULATION_FINISHED_MARK = 'meander:simulation-finished';
 
@@ -70,18 +71,29 @@ export class SimulationPool {
     plan: SimulationPlan,
     onProgress?: (progress: RunProgress) => void,
   ): Promise<SimulationResult> {
-    const chunks = await this.chunks.run(plan, onProgress);
-    const result = await this.onHelper((api) =>
-      api.mergeChunks(plan, Comlink.transfer(chunks, collectTransferables(chunks))),
-    );
+    const ended = runStarted();
+    let result: SimulationResult;
+    try {
+      const chunks = await this.chunks.run(plan, onProgress);
+      result = await this.onHelper((api) =>
+        api.mergeChunks(plan, Comlink.transfer(chunks, collectTransferables(chunks))),
+      );
+    } finally {
+      ended();
+    }
     // A User Timing mark, so performance tools (and the end-to-end test of responsiveness) can
     // tell the run itself from drawing its results.
     performance.mark(SIMULATION_FINISHED_MARK);
     return result;
   }
 
-  runStudy(plan: SimulationPlan, options: StudyOptions): Promise<StudyResult> {
-    return this.onHelper((api) => api.runStudy(plan, options));
+  async runStudy(plan: SimulationPlan, options: StudyOptions): Promise<StudyResult> {
+    const ended = runStarted();
+    try {
+      return await this.onHelper((api) => api.runStudy(plan, options));
+    } finally {
+      ended();
+    }
   }
 
   /** Stops every simulation and study in flight; their promises reject with RunCancelledError. */

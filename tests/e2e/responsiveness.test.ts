@@ -10,10 +10,11 @@ declare global {
 
 /**
  * The main thread must stay responsive while the worker pool runs 100,000 paths. Long tasks
- * (over 50 ms, the Long Tasks API's own threshold) are recorded during the run and reported; the
- * figure is written beside the test results rather than asserted as a time, since timings on a
- * shared machine are for benchmarks, not tests. What is asserted: the browser reports long tasks
- * at all (so the measurement is real) and the run finishes with every path.
+ * (over 50 ms, the Long Tasks API's own threshold) are recorded over a first run and two reruns,
+ * split at the moment the result is back (the run itself, then drawing its results), and
+ * reported; the figures are written beside the test results rather than asserted as times, since
+ * timings on a shared machine are for benchmarks, not tests. What is asserted: the browser
+ * reports long tasks at all (so the measurement is real) and each run finishes with every path.
  */
 describe('responsiveness during a large run', () => {
   let browser: Browser;
@@ -81,53 +82,77 @@ describe('responsiveness during a large run', () => {
       });
       expect(response.status()).toBe(201);
       const { id } = (await response.json()) as { id: string };
-      // A sheet with a chart loads the chart library while the page is idle after opening; a
-      // reader looks at the sheet before running it. The measured window is the run itself.
-      const chartLibrary = page.waitForResponse((response) => /plotly/.test(response.url()));
+      // A sheet with a chart loads the chart library while the page is idle after opening, then
+      // warms it up with two throw-away draws; a reader looks at the sheet before running it.
       await page.goto(appUrl(`/sheets/${id}`));
       await page.getByRole('button', { name: 'Run all' }).waitFor();
-      await chartLibrary;
-      await page.waitForTimeout(1500);
-      await page.evaluate(() => (window.meanderLongTasks = []));
-      // Start the run from the keyboard: Playwright's mouse click runs hit-target checks on the
-      // page's main thread, which on a large page are a long task of the harness's own.
-      await page.getByRole('button', { name: 'Run all' }).focus();
-      await page.keyboard.press('Enter');
-      // Wait with a cheap check every 250 ms: Playwright's role queries run on the page's main
-      // thread and, polled often over a large page, would add long tasks of their own.
       await page.waitForFunction(
-        () => document.querySelector('[role="status"][aria-label="Probe result"]') !== null,
+        () => performance.getEntriesByName('meander:charts-ready').length > 0,
         null,
-        { polling: 250, timeout: 110_000 },
+        { polling: 250, timeout: 30_000 },
       );
-      expect(await page.getByRole('status', { name: 'Probe result' }).innerText()).toMatch(
-        /from 100,000 paths/,
-      );
-      await page
-        .getByRole('img', { name: /^Quantile fan of q/ })
-        .locator('svg')
-        .first()
-        .waitFor();
-      const longTasks = await page.evaluate(() => window.meanderLongTasks);
       const supported = await page.evaluate(() =>
         PerformanceObserver.supportedEntryTypes.includes('longtask'),
       );
       expect(supported).toBe(true);
-      // The pool marks the moment the merged result is back (src/workers/pool.ts); tasks that start
-      // before it belong to the run, tasks after it draw the results (the first chart draw).
-      const finishedAt = await page.evaluate(
-        () => performance.getEntriesByName('meander:simulation-finished').at(-1)?.startTime ?? null,
-      );
-      expect(finishedAt).not.toBeNull();
-      const longest = (tasks: { duration: number }[]) =>
-        Math.round(tasks.reduce((most, task) => Math.max(most, task.duration), 0));
-      const duringRun = longTasks.filter((task) => task.start < finishedAt!);
-      const drawing = longTasks.filter((task) => task.start >= finishedAt!);
+      const longest = (durations: number[]) => Math.round(Math.max(0, ...durations));
+      // Opening the page: Plotly's evaluation and its warm-up draws fall here, while idle.
+      const pageOpen = await page.evaluate(() => window.meanderLongTasks);
+      const runs: { duringRun: number[]; drawingResults: number[] }[] = [];
+      // A first run and two reruns: the first pays for code the page has not run yet.
+      for (let round = 0; round < 3; round += 1) {
+        await page.evaluate(() => {
+          window.meanderLongTasks = [];
+          performance.clearMarks('meander:simulation-finished');
+        });
+        // Start the run from the keyboard: Playwright's mouse click runs hit-target checks on the
+        // page's main thread, which on a large page are a long task of the harness's own.
+        await page.getByRole('button', { name: 'Run all' }).focus();
+        await page.keyboard.press('Enter');
+        // Wait with a cheap check every 250 ms: Playwright's role queries run on the page's main
+        // thread and, polled often over a large page, would add long tasks of their own. Done
+        // means: the run has finished and the fan chart has lines in it.
+        await page.waitForFunction(
+          () =>
+            performance.getEntriesByName('meander:simulation-finished').length > 0 &&
+            document.querySelector('[aria-label^="Quantile fan of q"] svg .scatterlayer .trace') !== null,
+          null,
+          { polling: 250, timeout: 110_000 },
+        );
+        // Long-task entries arrive after their task ends; give the last draw time to be reported.
+        await page.waitForTimeout(1000);
+        expect(await page.getByRole('status', { name: 'Probe result' }).innerText()).toMatch(
+          /from 100,000 paths/,
+        );
+        const longTasks = await page.evaluate(() => window.meanderLongTasks);
+        // The pool marks the moment the merged result is back (src/workers/pool.ts); tasks that
+        // start before it belong to the run, tasks after it draw the results.
+        const finishedAt = await page.evaluate(
+          () => performance.getEntriesByName('meander:simulation-finished').at(-1)!.startTime,
+        );
+        runs.push({
+          duringRun: longTasks.filter((task) => task.start < finishedAt).map((task) => task.duration),
+          drawingResults: longTasks.filter((task) => task.start >= finishedAt).map((task) => task.duration),
+        });
+      }
+      await expect.poll(() => page.getByRole('img', { name: /^Quantile fan of q/ }).count()).toBe(1);
       console.info(
         JSON.stringify({
           measure: 'main-thread long tasks (> 50 ms) around a 100,000-path run',
-          duringRun: { count: duringRun.length, longestMs: longest(duringRun) },
-          drawingResults: { count: drawing.length, longestMs: longest(drawing) },
+          pageOpen: {
+            count: pageOpen.length,
+            longestMs: longest(pageOpen.map((task) => task.duration)),
+          },
+          runs: runs.map((run) => ({
+            duringRun: {
+              count: run.duringRun.length,
+              longestMs: longest(run.duringRun),
+            },
+            drawingResults: {
+              count: run.drawingResults.length,
+              longestMs: longest(run.drawingResults),
+            },
+          })),
         }),
       );
     });

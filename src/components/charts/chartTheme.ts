@@ -46,6 +46,9 @@ export function chartLayout(x: AxisOptions, y: AxisOptions, extra: PlotLayout = 
     ticks: 'outside',
     tickcolor: CHART_COLOURS.inkSoft,
     exponentformat: 'power',
+    // Labels stay where they fall: checking each one for overflow measures every label's box,
+    // a forced layout per tick on every draw, and the margins already leave room for them.
+    ticklabeloverflow: 'allow',
   });
   return {
     font: { family: CHART_FONT, color: CHART_COLOURS.ink, size: 12 },

@@ -8,10 +8,10 @@ import type { CellOutput } from '@/components/cells/contract';
 import type { StudyResult } from '@shared/engine';
 import { cellOf, editorProps, fakeRun, reservoirSheet } from './fixtures';
 
-/** Charts draw in a task of their own (PlotlyChart.vue): let it run. */
+/** Charts draw in the first task after the next paint (PlotlyChart.vue): let it run. */
 async function chartDrawn(): Promise<void> {
   await flushPromises();
-  await new Promise((resolve) => setTimeout(resolve, 0));
+  await new Promise((resolve) => requestAnimationFrame(() => setTimeout(resolve, 0)));
   await flushPromises();
 }
 

@@ -1,4 +1,5 @@
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { nextTick } from 'vue';
 import type { VueWrapper } from '@vue/test-utils';
 import * as sheetsApi from '@/api/sheets';
 import type { SimulationPlan } from '@shared/engine/plan';
@@ -185,6 +186,34 @@ describe('running cells', () => {
     const store = useSheetEditorStore();
     expect(store.outputs['probe-bloom']).toMatchObject({ kind: 'probe', estimate: { estimate: 0.25 } });
     expect(store.outputs['simulation-season']?.kind).toBe('simulation');
+  });
+
+  it('shows the run as started in one task and builds plans and starts the pool in the next', async () => {
+    pool.simulate.mockResolvedValue(fakeResult('8899aabbccddeeff'));
+    ({ wrapper } = await mountSheet());
+    await click(buttonNamed('Run all'));
+    expect(pool.simulate).toHaveBeenCalledTimes(1);
+    // A rerun (the pool exists now): after the click's microtasks (Vue's update) the page says a
+    // run is on, and no plan has been built or posted yet.
+    buttonNamed('Run all').click();
+    for (let i = 0; i < 10; i += 1) await Promise.resolve();
+    await nextTick();
+    expect(buttonNamed('Cancel run')).toBeTruthy();
+    expect(pool.simulate).toHaveBeenCalledTimes(1);
+    // The next task builds the plan and starts the pool.
+    await settle();
+    expect(pool.simulate).toHaveBeenCalledTimes(2);
+    expect(useSheetEditorStore().outputs['simulation-season']?.kind).toBe('simulation');
+  });
+
+  it('a cancel before the pool starts runs nothing and says the run was cancelled', async () => {
+    ({ wrapper } = await mountSheet());
+    buttonNamed('Run all').click();
+    await nextTick();
+    buttonNamed('Cancel run').click();
+    await settle();
+    expect(pool.simulate).not.toHaveBeenCalled();
+    expect(document.body.textContent).toContain('Run cancelled');
   });
 
   it('"Cancel run" stops the pool, says so, and keeps the earlier outputs', async () => {
