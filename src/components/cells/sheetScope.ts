@@ -28,6 +28,28 @@ export function findSimulation(document: SheetDocument, id: string): SimulationC
   return cellsOfKind(document, 'simulation').find((cell) => cell.id === id);
 }
 
+/** The model a simulation cell simulates, if both exist. */
+export function simulatedModel(document: SheetDocument, simulationId: string): ModelCell | undefined {
+  const simulation = findSimulation(document, simulationId);
+  return simulation ? findModel(document, simulation.model) : undefined;
+}
+
+/** The sheet's simulation cells as choices. */
+export function simulationChoices(document: SheetDocument): { value: string; label: string }[] {
+  return cellsOfKind(document, 'simulation').map((s) => ({ value: s.id, label: cellLabel(document, s) }));
+}
+
+/** The state variables of the model a simulation simulates, as choices (with their units). */
+export function stateChoices(
+  document: SheetDocument,
+  simulationId: string,
+): { value: string; label: string }[] {
+  return (simulatedModel(document, simulationId)?.states ?? []).map((s) => ({
+    value: s.name,
+    label: s.unit ? `${s.name} (${s.unit})` : s.name,
+  }));
+}
+
 /** What a person sees when choosing a cell: its name, else its kind and position. */
 export function cellLabel(document: SheetDocument, cell: ModelCell | SimulationCell): string {
   if (cell.name) return cell.name;

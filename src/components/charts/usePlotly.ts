@@ -60,7 +60,7 @@ async function warmUp(plotly: PlotlyStatic): Promise<void> {
 
 /**
  * Starts loading Plotly once the page is idle, so a sheet with charts has it ready before its
- * first run ends: evaluating a 4.6 MB script is one long main-thread task (1.5–2 s on the test
+ * first run ends: evaluating a 4.6 MB script is one long main-thread task (1.5–2.2 s on the test
  * machine), and it should not land in the middle of a run, so it also waits while one goes on.
  * Then it warms Plotly up (see warmUp), in idle moments too.
  */
