@@ -1,11 +1,46 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser } from 'playwright-core';
+import type { Browser, Page } from 'playwright-core';
 import { appUrl, launchBrowser, signUp, uniqueEmail, withFailureShot } from './browser';
 
 declare global {
   interface Window {
     meanderLongTasks: { start: number; duration: number }[];
   }
+}
+
+/** A one-state Ornstein–Uhlenbeck sheet (invented numbers) with a fan chart and a probe. */
+async function createSheet(page: Page, simulation: { paths: number; saveCount: number }): Promise<string> {
+  const response = await page.request.post(appUrl('/api/sheets'), {
+    headers: { Origin: new URL(appUrl()).origin },
+    data: {
+      title: 'Reservoir inflow anomaly',
+      document: {
+        schemaVersion: 1,
+        title: 'Reservoir inflow anomaly',
+        cells: [
+          {
+            id: 'p',
+            kind: 'params',
+            params: [
+              { name: 'kappa', value: 0.6 },
+              { name: 'nu', value: 0.45 },
+            ],
+          },
+          {
+            id: 'm',
+            kind: 'model',
+            states: [{ name: 'q', initial: '1.5', drift: '-kappa * q', diffusion: { B: 'nu' } }],
+            noises: [{ name: 'B' }],
+          },
+          { id: 's', kind: 'simulation', model: 'm', t1: 4, steps: 400, seed: 20261202, ...simulation },
+          { id: 'c', kind: 'chart', simulation: 's', view: 'fan', state: 'q' },
+          { id: 'x', kind: 'probe', simulation: 's', quantity: 'exceedance', state: 'q', level: 1 },
+        ],
+      },
+    },
+  });
+  expect(response.status()).toBe(201);
+  return ((await response.json()) as { id: string }).id;
 }
 
 /**
@@ -42,46 +77,7 @@ describe('responsiveness during a large run', () => {
         password: 'meander-e2e-password',
       });
       await page.waitForURL(/\/sheets/);
-      const response = await page.request.post(appUrl('/api/sheets'), {
-        headers: { Origin: new URL(appUrl()).origin },
-        data: {
-          title: 'Reservoir inflow anomaly',
-          document: {
-            schemaVersion: 1,
-            title: 'Reservoir inflow anomaly',
-            cells: [
-              {
-                id: 'p',
-                kind: 'params',
-                params: [
-                  { name: 'kappa', value: 0.6 },
-                  { name: 'nu', value: 0.45 },
-                ],
-              },
-              {
-                id: 'm',
-                kind: 'model',
-                states: [{ name: 'q', initial: '1.5', drift: '-kappa * q', diffusion: { B: 'nu' } }],
-                noises: [{ name: 'B' }],
-              },
-              {
-                id: 's',
-                kind: 'simulation',
-                model: 'm',
-                t1: 4,
-                steps: 400,
-                paths: 100000,
-                seed: 20261202,
-                saveCount: 101,
-              },
-              { id: 'c', kind: 'chart', simulation: 's', view: 'fan', state: 'q' },
-              { id: 'x', kind: 'probe', simulation: 's', quantity: 'exceedance', state: 'q', level: 1 },
-            ],
-          },
-        },
-      });
-      expect(response.status()).toBe(201);
-      const { id } = (await response.json()) as { id: string };
+      const id = await createSheet(page, { paths: 100_000, saveCount: 101 });
       // A sheet with a chart loads the chart library while the page is idle after opening, then
       // warms it up with two throw-away draws; a reader looks at the sheet before running it.
       await page.goto(appUrl(`/sheets/${id}`));
@@ -98,7 +94,9 @@ describe('responsiveness during a large run', () => {
       const longest = (durations: number[]) => Math.round(Math.max(0, ...durations));
       // Opening the page: Plotly's evaluation and its warm-up draws fall here, while idle.
       const pageOpen = await page.evaluate(() => window.meanderLongTasks);
-      const runs: { duringRun: number[]; drawingResults: number[] }[] = [];
+      /** Long tasks as [start after the key press, duration], in whole milliseconds. */
+      type Timed = [number, number];
+      const runs: { duringRun: Timed[]; drawingResults: Timed[] }[] = [];
       // A first run and two reruns: the first pays for code the page has not run yet.
       for (let round = 0; round < 3; round += 1) {
         await page.evaluate(() => {
@@ -108,6 +106,7 @@ describe('responsiveness during a large run', () => {
         // Start the run from the keyboard: Playwright's mouse click runs hit-target checks on the
         // page's main thread, which on a large page are a long task of the harness's own.
         await page.getByRole('button', { name: 'Run all' }).focus();
+        const pressedAt = await page.evaluate(() => performance.now());
         await page.keyboard.press('Enter');
         // Wait with a cheap check every 250 ms: Playwright's role queries run on the page's main
         // thread and, polled often over a large page, would add long tasks of their own. Done
@@ -130,30 +129,78 @@ describe('responsiveness during a large run', () => {
         const finishedAt = await page.evaluate(
           () => performance.getEntriesByName('meander:simulation-finished').at(-1)!.startTime,
         );
+        const timed = (task: { start: number; duration: number }): Timed => [
+          Math.round(task.start - pressedAt),
+          Math.round(task.duration),
+        ];
         runs.push({
-          duringRun: longTasks.filter((task) => task.start < finishedAt).map((task) => task.duration),
-          drawingResults: longTasks.filter((task) => task.start >= finishedAt).map((task) => task.duration),
+          duringRun: longTasks.filter((task) => task.start < finishedAt).map(timed),
+          drawingResults: longTasks.filter((task) => task.start >= finishedAt).map(timed),
         });
       }
       await expect.poll(() => page.getByRole('img', { name: /^Quantile fan of q/ }).count()).toBe(1);
       console.info(
         JSON.stringify({
           measure: 'main-thread long tasks (> 50 ms) around a 100,000-path run',
+          tasks: '[start after the key press, duration] in ms',
           pageOpen: {
             count: pageOpen.length,
             longestMs: longest(pageOpen.map((task) => task.duration)),
           },
           runs: runs.map((run) => ({
-            duringRun: {
-              count: run.duringRun.length,
-              longestMs: longest(run.duringRun),
-            },
-            drawingResults: {
-              count: run.drawingResults.length,
-              longestMs: longest(run.drawingResults),
-            },
+            duringRunLongestMs: longest(run.duringRun.map(([, ms]) => ms)),
+            drawingResultsLongestMs: longest(run.drawingResults.map(([, ms]) => ms)),
+            tasks: run,
           })),
         }),
+      );
+    });
+    await context.close();
+  });
+
+  it('stops a 1,000,000-path run on "Cancel run" and reports how long the stop took', async () => {
+    const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const page = await context.newPage();
+    await withFailureShot(page, 'cancel-latency', async () => {
+      await signUp(page, {
+        email: uniqueEmail('cancel-run'),
+        name: 'Ivo Marsh',
+        password: 'meander-e2e-password',
+      });
+      await page.waitForURL(/\/sheets/);
+      // 4 × 10⁸ path-steps: tens of seconds on this machine, so the cancel lands mid-run.
+      const id = await createSheet(page, { paths: 1_000_000, saveCount: 2 });
+      await page.goto(appUrl(`/sheets/${id}`));
+      await page.getByRole('button', { name: 'Run all' }).click();
+      const cancel = page.getByRole('button', { name: 'Cancel run' });
+      await cancel.waitFor();
+      await page.getByRole('progressbar', { name: 'Run progress' }).waitFor();
+      await page.waitForTimeout(1500);
+      // Click and wait for the page to say the run stopped, timed inside the page.
+      const stopMs = await page.evaluate(async () => {
+        const button = [...document.querySelectorAll('button')].find(
+          (element) => element.textContent?.trim() === 'Cancel run',
+        )!;
+        const stopped = () => document.body.textContent?.includes('Run cancelled') ?? false;
+        const started = performance.now();
+        button.click();
+        await new Promise<void>((resolve) => {
+          if (stopped()) return resolve();
+          const observer = new MutationObserver(() => {
+            if (!stopped()) return;
+            observer.disconnect();
+            resolve();
+          });
+          observer.observe(document.body, { subtree: true, childList: true, characterData: true });
+        });
+        return performance.now() - started;
+      });
+      // Stopped for real: no result, the run can start again.
+      expect(await page.getByRole('status', { name: 'Probe result' }).count()).toBe(0);
+      await expect.poll(() => page.getByRole('button', { name: 'Run all' }).isEnabled()).toBe(true);
+      await expect.poll(() => page.getByRole('button', { name: 'Cancel run' }).count()).toBe(0);
+      console.info(
+        JSON.stringify({ measure: 'Cancel run: click to "Run cancelled" shown', ms: Math.round(stopMs) }),
       );
     });
     await context.close();
