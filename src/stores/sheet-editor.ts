@@ -23,6 +23,11 @@ import { createRunBackend, sheetTools } from './sheet-editor-backend';
  * Components read it with storeToRefs and call its actions; the pure work lives in the
  * sheet-editor-* modules beside it.
  */
+/** Resolves in a later task, letting the browser handle input and paint in between. */
+function nextTask(): Promise<void> {
+  return new Promise((resolve) => setTimeout(resolve, 0));
+}
+
 export const useSheetEditorStore = defineStore('sheet-editor', () => {
   const sheetId = ref<string | null>(null);
   const userId = ref('anonymous');
@@ -239,8 +244,11 @@ export const useSheetEditorStore = defineStore('sheet-editor', () => {
     sheetIssues.value = found.sheet;
   }
 
+  /** True from a run's click until it shows as running (see run). */
+  let starting = false;
+
   async function run(targetId: string | null): Promise<void> {
-    if (running.value || !document.value || readonly.value) return;
+    if (running.value || starting || !document.value || readonly.value) return;
     // A plain deep copy: edits made while the run goes on do not leak into it, and the plans built
     // from it hold no reactive proxies (which cannot be posted to a worker).
     const doc = JSON.parse(JSON.stringify(document.value)) as SheetDocument;
@@ -252,13 +260,16 @@ export const useSheetEditorStore = defineStore('sheet-editor', () => {
           : 'Nothing to run for this cell.';
       return;
     }
+    // Three short tasks instead of one long one: the click itself (the button's press effect
+    // measures the page), then the page showing the run as started, then plans and workers.
+    starting = true;
+    await nextTask();
+    starting = false;
     running.value = true;
     runNotice.value = null;
     runCancelled = false;
     try {
-      // Let the page show the run as started (a task of its own) before plans are built and
-      // workers started, so neither half holds the main thread for long.
-      await new Promise((resolve) => setTimeout(resolve, 0));
+      await nextTask();
       backend ??= await createRunBackend();
       const finished = await executeRunSteps(steps, {
         doc,

@@ -130,9 +130,11 @@ export async function mountSheet(
   return { wrapper, router, pinia };
 }
 
+/** Lets pending work finish: a run alone spans several tasks (see the store's run()). */
 export async function settle(): Promise<void> {
-  for (let i = 0; i < 3; i++) {
+  for (let i = 0; i < 6; i++) {
     await flushPromises();
+    await new Promise((resolve) => setTimeout(resolve, 0));
     await nextTick();
   }
 }
