@@ -48,24 +48,38 @@ export function transitiveDependencies(
   return [...seen].sort();
 }
 
+/** Each cell's stable text, computed once per document. */
+function cellTexts(doc: SheetDocument): Map<string, string> {
+  return new Map(doc.cells.map((cell) => [cell.id, stableStringify(cell)]));
+}
+
+/** The hash of the stable text of [cell, ...its inputs in id order] (a missing input as { missing }). */
+function fingerprintFrom(
+  cellId: string,
+  dependencies: ReadonlyMap<string, readonly string[]>,
+  texts: ReadonlyMap<string, string>,
+): string {
+  const inputs = [cellId, ...transitiveDependencies(cellId, dependencies)].map(
+    (id) => texts.get(id) ?? stableStringify({ missing: id }),
+  );
+  return hashText(`[${inputs.join(',')}]`);
+}
+
 export function cellFingerprint(
   doc: SheetDocument,
   cellId: string,
   dependencies: ReadonlyMap<string, readonly string[]>,
 ): string {
-  const byId = new Map(doc.cells.map((cell) => [cell.id, cell]));
-  const inputs = [cellId, ...transitiveDependencies(cellId, dependencies)].map(
-    (id) => byId.get(id) ?? { missing: id },
-  );
-  return hashText(stableStringify(inputs));
+  return fingerprintFrom(cellId, dependencies, cellTexts(doc));
 }
 
-/** Fingerprints of every cell of the document, keyed by id. */
+/** Fingerprints of every cell of the document, keyed by id (each cell stringified once). */
 export function sheetFingerprints(
   doc: SheetDocument,
   dependencies: ReadonlyMap<string, readonly string[]>,
 ): Record<string, string> {
+  const texts = cellTexts(doc);
   const result: Record<string, string> = {};
-  for (const cell of doc.cells) result[cell.id] = cellFingerprint(doc, cell.id, dependencies);
+  for (const cell of doc.cells) result[cell.id] = fingerprintFrom(cell.id, dependencies, texts);
   return result;
 }

@@ -270,7 +270,11 @@ export const useSheetEditorStore = defineStore('sheet-editor', () => {
     runCancelled = false;
     try {
       await nextTask();
-      backend ??= await createRunBackend();
+      if (!backend) {
+        // The first run of the page loads the pool's code: its own task, before plans are built.
+        backend = await createRunBackend();
+        await nextTask();
+      }
       const finished = await executeRunSteps(steps, {
         doc,
         fingerprints: fingerprints.value,
