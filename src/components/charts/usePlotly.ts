@@ -8,6 +8,7 @@ export const CHARTS_READY_MARK = 'meander:charts-ready';
 
 /** Plotly is 4.6 MB: fetched once, on the first chart, as its own chunk. */
 let loading: Promise<PlotlyStatic> | null = null;
+let preloadScheduled = false;
 
 function loadPlotly(): Promise<PlotlyStatic> {
   loading ??= import('plotly.js-dist-min')
@@ -65,7 +66,9 @@ async function warmUp(plotly: PlotlyStatic): Promise<void> {
  * Then it warms Plotly up (see warmUp), in idle moments too.
  */
 export function preloadPlotlyWhenIdle(): void {
-  if (loading) return;
+  // Every chart and study cell asks as it mounts: load and warm up once per page.
+  if (loading || preloadScheduled) return;
+  preloadScheduled = true;
   whenIdle(() => {
     loadPlotly().then(
       (plotly) => whenIdle(() => void warmUp(plotly).catch(() => undefined)),

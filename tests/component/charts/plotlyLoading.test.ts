@@ -75,6 +75,18 @@ describe('loading Plotly while the page is idle', () => {
     expect(plotly.react).toHaveBeenCalledTimes(2);
   });
 
+  it('loads and warms up once when several charts ask for it as they mount', async () => {
+    const { preloadPlotlyWhenIdle } = await freshModules();
+    preloadPlotlyWhenIdle();
+    preloadPlotlyWhenIdle();
+    preloadPlotlyWhenIdle();
+    await vi.advanceTimersByTimeAsync(600);
+    await untilImported();
+    await vi.advanceTimersByTimeAsync(5_000);
+    expect(plotly.imports).toBe(1);
+    expect(plotly.react).toHaveBeenCalledTimes(2);
+  });
+
   it('counts overlapping runs, and ending one twice does not end another', async () => {
     const { runStarted, runsActive } = await freshModules();
     const first = runStarted();
