@@ -9,5 +9,6 @@ export { planLayout, type PlanLayout } from './layout';
 export { meanSquareStability, amplification } from './stability';
 export { choleskyOfCorrelation } from './cholesky';
 export { Fnv1a64 } from './digest';
+export { ENGINE_VERSION } from './version';
 export { fitSlope, type SlopeFit } from './regression';
 export { streamSeed, Xoshiro128, normalFrom } from './random';
