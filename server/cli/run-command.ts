@@ -1,7 +1,7 @@
 import { readFile } from 'node:fs/promises';
-import { runSheet } from '../../shared/run/run-sheet';
+import { runSheetToJson } from '../../shared/run/run-sheet';
 import { scaleSheetPaths } from '../../shared/run/scale';
-import type { SheetRunOutput } from '../../shared/run/outputs';
+import type { SheetRunJson } from '../../shared/run/outputs';
 import type { RunArguments } from './args';
 import { createThreadPool, defaultThreadCount } from './thread-pool';
 import { validateSheetText } from './validate';
@@ -40,9 +40,9 @@ export async function runCommand(args: RunArguments): Promise<CommandOutcome> {
   }
   const doc = args.pathsScale === null ? validation.doc : scaleSheetPaths(validation.doc, args.pathsScale);
   const threads = createThreadPool(args.workers ?? defaultThreadCount());
-  let output: SheetRunOutput;
+  let output: SheetRunJson;
   try {
-    output = await runSheet(doc, threads.environment);
+    output = await runSheetToJson(doc, threads.executor);
   } finally {
     await threads.close();
   }

@@ -3,8 +3,8 @@ import { availableParallelism } from 'node:os';
 import type { SimulationPlan } from '../../shared/engine/plan';
 import type { ChunkResult, StudyOptions, StudyResult } from '../../shared/engine/result';
 import { ChunkPool, type ChunkWorker } from '../../shared/run/chunk-pool';
-import { poolEnvironment } from '../../shared/run/environments';
-import type { SheetRunEnvironment } from '../../shared/run/run-sheet';
+import type { RunExecutor } from '../../shared/cells/kind';
+import { poolExecutor } from '../../shared/run/environments';
 import type { ClaimedChunks, ClaimTask } from '../../shared/run/chunk-task';
 import type { FromWorker, ToWorker, WorkerRequest } from './messages';
 import { startTypeScriptWorker } from './ts-worker';
@@ -124,7 +124,7 @@ function threadChunkWorker(cancelFlag: Int32Array | null): ChunkWorker<Simulatio
 
 export interface ThreadPool {
   pool: ChunkPool<SimulationPlan, ChunkResult>;
-  environment: SheetRunEnvironment;
+  executor: RunExecutor;
   /** Terminates every thread. */
   close(): Promise<void>;
 }
@@ -143,7 +143,7 @@ export function createThreadPool(size = defaultThreadCount()): ThreadPool {
   };
   return {
     pool,
-    environment: poolEnvironment(pool, study),
+    executor: poolExecutor(pool, study),
     async close() {
       pool.dispose();
       await studyThread?.terminate();

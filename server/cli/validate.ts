@@ -3,7 +3,7 @@ import {
   cellIdSchema,
   checkSheet,
   describeIssue,
-  sheetDocumentSchema,
+  parseSheetDocument,
   type SheetDocument,
   type SheetIssue,
 } from '../../shared/sheet/index';
@@ -48,7 +48,7 @@ export function validateSheetText(text: string): ValidationOutcome {
       problems: [`sheet: not valid JSON (${error instanceof Error ? error.message : String(error)})`],
     };
   }
-  const parsed = sheetDocumentSchema.safeParse(raw);
+  const parsed = parseSheetDocument(raw);
   if (!parsed.success)
     return { ok: false, problems: parsed.error.issues.map((issue) => describeSchemaIssue(issue, raw)) };
   const issues: SheetIssue[] = checkSheet(parsed.data);

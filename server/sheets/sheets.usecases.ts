@@ -9,7 +9,8 @@ import type {
   VersionDetail,
   VersionList,
 } from '@shared/api/sheets';
-import { emptySheetDocument, sheetDocumentSchema, type SheetDocument } from '@shared/sheet/document';
+import { emptySheetDocument, type SheetDocument } from '@shared/sheet/document';
+import { parseSheetDocument as upgradeAndParse } from '@shared/sheet/upgrade';
 import type { Db } from '../db/client';
 import { zodIssueToBadRequest } from '../http/validate';
 import { createSheetsRepository, type SheetRecord, type SheetsRepository } from './sheets.repository';
@@ -52,7 +53,7 @@ export function requireSheetRole(
 
 /** Checks a document with the shared schema; the 400 names the path of the first issue. */
 export function parseSheetDocument(document: unknown): SheetDocument {
-  const result = sheetDocumentSchema.safeParse(document);
+  const result = upgradeAndParse(document);
   if (result.success) return result.data;
   const generic = zodIssueToBadRequest(result.error, 'document');
   const path = ['document', ...((generic.details.path as (string | number)[] | undefined) ?? [])];

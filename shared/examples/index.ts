@@ -1,4 +1,5 @@
-import { sheetDocumentSchema, type SheetDocument } from '../sheet/document';
+import type { SheetDocument } from '../sheet/document';
+import { parseSheetDocument } from '../sheet/upgrade';
 import harvestedFishStock from './harvested-fish-stock.json';
 import soilMoistureAnomaly from './soil-moisture-anomaly.json';
 import grazingTwoSpecies from './grazing-two-species.json';
@@ -22,9 +23,15 @@ const sources: Record<string, unknown> = {
   'commodity-price-index': commodityPriceIndex,
 };
 
+function exampleDocument(slug: string, json: unknown): SheetDocument {
+  const parsed = parseSheetDocument(json);
+  if (!parsed.success) throw new Error(`example sheet ${slug} is not valid: ${parsed.error.message}`);
+  return parsed.data;
+}
+
 export const exampleSheets: readonly ExampleSheet[] = Object.entries(sources).map(([slug, json]) => ({
   slug,
-  document: sheetDocumentSchema.parse(json),
+  document: exampleDocument(slug, json),
 }));
 
 export function findExampleSheet(slug: string): ExampleSheet | undefined {

@@ -1,5 +1,8 @@
 import { splitPaths, type ChunkRange } from './chunks';
 import type { ClaimedChunks } from './chunk-task';
+import type { RunProgress } from './progress';
+
+export type { RunProgress };
 
 /**
  * A pool of simulation workers that hands out chunks of paths as workers free up. Framework-free
@@ -56,14 +59,6 @@ export interface ChunkWorker<TPlan, TChunk> {
 export type ChunkWorkerFactory<TPlan, TChunk> = (
   cancelEpoch: Int32Array | null,
 ) => ChunkWorker<TPlan, TChunk>;
-
-export interface RunProgress {
-  pathsDone: number;
-  paths: number;
-  elapsedMs: number;
-  /** Estimated time left, null until the first paths are done. */
-  etaMs: number | null;
-}
 
 export class RunCancelledError extends Error {
   constructor() {

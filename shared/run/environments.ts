@@ -5,15 +5,15 @@ import type { ChunkResult, StudyOptions, StudyResult } from '../engine/result';
 import type { ChunkPool } from './chunk-pool';
 import { runChunkTask } from './chunk-task';
 import { splitPaths } from './chunks';
-import type { SheetRunEnvironment } from './run-sheet';
+import type { RunExecutor } from '../cells/kind';
 
 /**
- * Ready-made environments for runSheet. Both use the same chunk split, so a sheet gives the same
+ * Ready-made executors for runSheet. Both use the same chunk split, so a sheet gives the same
  * digest in-process, on one worker or on many.
  */
 
 /** Everything on the calling thread (tests, `--workers 0`-like debugging, small runs in Node). */
-export function inProcessEnvironment(): SheetRunEnvironment {
+export function inProcessExecutor(): RunExecutor {
   return {
     async runSimulation(plan, onProgress) {
       const started = performance.now();
@@ -39,10 +39,10 @@ export function inProcessEnvironment(): SheetRunEnvironment {
 }
 
 /** Simulations on a chunk pool (merged here, in path order); studies wherever the caller says. */
-export function poolEnvironment(
+export function poolExecutor(
   pool: ChunkPool<SimulationPlan, ChunkResult>,
   study: (plan: SimulationPlan, options: StudyOptions) => Promise<StudyResult>,
-): SheetRunEnvironment {
+): RunExecutor {
   return {
     async runSimulation(plan, onProgress) {
       return mergeChunks(plan, await pool.run(plan, onProgress));

@@ -1,4 +1,4 @@
-/** Running a whole sheet: cell order, chunked simulation on a pool of workers, plain outputs. */
+/** Running a whole sheet: one orchestrator, its steps, chunked simulation on a pool of workers, outputs. */
 export { splitPaths, chunkPathCount, MAX_CHUNK_PATHS, type ChunkRange } from './chunks';
 export {
   ChunkPool,
@@ -9,8 +9,8 @@ export {
   type ChunkWorker,
   type ChunkWorkerFactory,
   type ChunkPoolOptions,
-  type RunProgress,
 } from './chunk-pool';
+export type { RunProgress } from './progress';
 export {
   runChunkTask,
   runClaimedChunks,
@@ -21,13 +21,16 @@ export {
 } from './chunk-task';
 export {
   runSheet,
-  isNumericalCell,
+  runSheetToJson,
+  currentDigests,
   isCancellation,
-  type SheetRunEnvironment,
-  type RunSheetHooks,
-  type NumericalCell,
+  describeRunError,
+  type KeptOutput,
+  type RunSheetOptions,
+  type SheetRun,
 } from './run-sheet';
-export { inProcessEnvironment, poolEnvironment } from './environments';
+export { planRunSteps, type RunStep } from './steps';
+export { inProcessExecutor, poolExecutor } from './environments';
 export { scaleSheetPaths } from './scale';
 export { collectTransferables } from './transferables';
 export * from './outputs';

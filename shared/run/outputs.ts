@@ -1,18 +1,26 @@
-import type { Method, ProbeCell, StudyCell } from '../sheet/document';
-import type {
-  ProbeEstimate,
-  ProbeRequest,
-  SimulationResult,
-  StudyLevel,
-  StudyOptions,
-  StudyResult,
-} from '../engine/result';
+import type { Method } from '../sheet/document';
+import type { SimulationPlan } from '../engine/plan';
+import type { ProbeEstimate, SimulationResult, StudyLevel, StudyResult } from '../engine/result';
 
 /**
- * Per-cell outputs of a sheet run: small, plain JSON (no typed arrays), what the command-line
- * runner prints and what a stored run record can keep. Non-finite numbers become null, because
- * JSON has no NaN.
+ * What a run leaves on a cell: one type for every runner (browser, command line, tests). Charts
+ * show the output of the simulation they name. `cellOutputJson` turns an output into small, plain
+ * JSON (no typed arrays, no plans): what the command-line runner prints. Non-finite numbers
+ * become null there, because JSON has no NaN.
  */
+export type CellOutput =
+  | {
+      kind: 'simulation';
+      plan: SimulationPlan;
+      result: SimulationResult;
+      /** The engine version that computed it (shared/engine/version.ts). */
+      engineVersion: number;
+      finishedAt: Date;
+      seconds: number;
+    }
+  | { kind: 'probe'; estimate: ProbeEstimate; finishedAt: Date }
+  | { kind: 'study'; plan: SimulationPlan; result: StudyResult; finishedAt: Date; seconds: number }
+  | { kind: 'error'; message: string; finishedAt: Date };
 
 export const QUANTILE_KEYS = ['5', '25', '50', '75', '95'] as const;
 export type QuantileKey = (typeof QUANTILE_KEYS)[number];
@@ -23,7 +31,7 @@ export interface StateSummary {
   quantiles: Record<QuantileKey, number | null>;
 }
 
-export interface SimulationOutput {
+export interface SimulationJson {
   id: string;
   kind: 'simulation';
   method: Method;
@@ -33,9 +41,10 @@ export interface SimulationOutput {
   final: Record<string, StateSummary>;
   blowups: number;
   digest: string;
+  engineVersion: number;
 }
 
-export interface ProbeOutput {
+export interface ProbeJson {
   id: string;
   kind: 'probe';
   estimate: number | null;
@@ -45,7 +54,7 @@ export interface ProbeOutput {
   note?: string;
 }
 
-export interface StudyLevelOutput {
+export interface StudyLevelJson {
   steps: number;
   h: number;
   strongError: number | null;
@@ -54,35 +63,37 @@ export interface StudyLevelOutput {
   weakSE: number | null;
 }
 
-export interface StudyOutput {
+export interface StudyJson {
   id: string;
   kind: 'study';
   strongOrder: number | null;
   weakOrder: number | null;
   reference: 'exact' | 'finest';
-  levels: StudyLevelOutput[];
+  levels: StudyLevelJson[];
   note?: string;
 }
 
-/** A numerical cell that could not be computed (the rest of the sheet still runs). */
-export interface FailedCellOutput {
+/** A cell that could not be computed (the rest of the sheet still runs). */
+export interface FailedCellJson {
   id: string;
-  kind: 'simulation' | 'probe' | 'study';
+  kind: string;
   error: string;
 }
 
-export type CellOutput = SimulationOutput | ProbeOutput | StudyOutput | FailedCellOutput;
+export type CellOutputJson = SimulationJson | ProbeJson | StudyJson | FailedCellJson;
 
-export interface SheetRunOutput {
+/** What the command-line runner prints for a sheet. */
+export interface SheetRunJson {
   title: string;
-  cells: CellOutput[];
+  engineVersion: number;
+  cells: CellOutputJson[];
 }
 
 export function finiteOrNull(value: number): number | null {
   return Number.isFinite(value) ? value : null;
 }
 
-export function simulationOutput(id: string, result: SimulationResult): SimulationOutput {
+function simulationJson(id: string, result: SimulationResult, engineVersion: number): SimulationJson {
   const last = result.savedTimes.length - 1;
   const final: Record<string, StateSummary> = {};
   result.stateNames.forEach((name, i) => {
@@ -108,11 +119,12 @@ export function simulationOutput(id: string, result: SimulationResult): Simulati
     final,
     blowups: result.blowups.count,
     digest: result.digest,
+    engineVersion,
   };
 }
 
-export function probeOutput(id: string, estimate: ProbeEstimate): ProbeOutput {
-  const output: ProbeOutput = {
+function probeJson(id: string, estimate: ProbeEstimate): ProbeJson {
+  const output: ProbeJson = {
     id,
     kind: 'probe',
     estimate: finiteOrNull(estimate.estimate),
@@ -124,7 +136,7 @@ export function probeOutput(id: string, estimate: ProbeEstimate): ProbeOutput {
   return output;
 }
 
-function studyLevelOutput(level: StudyLevel): StudyLevelOutput {
+function studyLevelJson(level: StudyLevel): StudyLevelJson {
   return {
     steps: level.steps,
     h: level.h,
@@ -135,45 +147,29 @@ function studyLevelOutput(level: StudyLevel): StudyLevelOutput {
   };
 }
 
-export function studyOutput(id: string, result: StudyResult): StudyOutput {
-  const output: StudyOutput = {
+function studyJson(id: string, result: StudyResult): StudyJson {
+  const output: StudyJson = {
     id,
     kind: 'study',
     strongOrder: finiteOrNull(result.strongOrder),
     weakOrder: finiteOrNull(result.weakOrder),
     reference: result.reference,
-    levels: result.levels.map(studyLevelOutput),
+    levels: result.levels.map(studyLevelJson),
   };
   if (result.note) output.note = result.note;
   return output;
 }
 
-function stateIndex(stateNames: readonly string[], name: string, cellId: string): number {
-  const index = stateNames.indexOf(name);
-  if (index < 0) throw new Error(`cell ${cellId}: the model has no state variable "${name}"`);
-  return index;
-}
-
-/** The engine's view of a probe cell: states by index rather than by name. */
-export function probeRequest(cell: ProbeCell, stateNames: readonly string[]): ProbeRequest {
-  const request: ProbeRequest = {
-    quantity: cell.quantity,
-    state: stateIndex(stateNames, cell.state, cell.id),
-  };
-  if (cell.time !== undefined) request.time = cell.time;
-  if (cell.level !== undefined) request.level = cell.level;
-  if (cell.probability !== undefined) request.probability = cell.probability;
-  if (cell.direction !== undefined) request.direction = cell.direction;
-  return request;
-}
-
-/** The engine's view of a study cell; without a state named, the first state is measured. */
-export function studyOptions(cell: StudyCell, stateNames: readonly string[]): StudyOptions {
-  return {
-    levels: cell.levels,
-    coarsestSteps: cell.coarsestSteps,
-    paths: cell.paths,
-    state: cell.state === undefined ? 0 : stateIndex(stateNames, cell.state, cell.id),
-    reference: cell.reference,
-  };
+/** The plain JSON view of a cell's output, as the command-line runner prints it. */
+export function cellOutputJson(id: string, cellKind: string, output: CellOutput): CellOutputJson {
+  switch (output.kind) {
+    case 'simulation':
+      return simulationJson(id, output.result, output.engineVersion);
+    case 'probe':
+      return probeJson(id, output.estimate);
+    case 'study':
+      return studyJson(id, output.result);
+    case 'error':
+      return { id, kind: cellKind, error: output.message };
+  }
 }

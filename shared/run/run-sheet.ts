@@ -1,47 +1,51 @@
-import { buildSimulationPlan } from '../sheet/index';
-import type { Cell, SheetDocument } from '../sheet/document';
-import { evaluateProbe } from '../engine/probes';
+import { kindOf } from '../cells/registry';
+import type { RunExecutor, RunStepContext } from '../cells/kind';
+import { ENGINE_VERSION } from '../engine/version';
 import type { SimulationPlan } from '../engine/plan';
-import type { SimulationResult, StudyOptions, StudyResult } from '../engine/result';
-import type { RunProgress } from './chunk-pool';
-import {
-  probeOutput,
-  probeRequest,
-  simulationOutput,
-  studyOptions,
-  studyOutput,
-  type CellOutput,
-  type SheetRunOutput,
-} from './outputs';
+import { sheetCellDependencies } from '../sheet/dependencies';
+import type { SheetDocument } from '../sheet/document';
+import { sheetFingerprints } from '../sheet/fingerprint';
+import { buildSimulationPlan } from '../sheet/plan';
+import { RunCancelledError } from './chunk-pool';
+import { cellOutputJson, type CellOutput, type SheetRunJson } from './outputs';
+import type { RunProgress } from './progress';
+import { planRunSteps, type RunStep } from './steps';
 
 /**
- * Runs every numerical cell of a sheet (simulation, probe, study) and assembles their outputs.
- * Where the numbers are computed is the caller's business: the browser passes its worker pool,
- * the command-line runner passes worker_threads, tests may run in-process. A probe needs its
- * simulation's result, so simulations run on first demand and at most once each; the outputs
- * come back in document order.
+ * The one run orchestrator: the browser's sheet page, the command-line runner and the tests all
+ * run a sheet through `runSheet`. It plans the steps (./steps.ts), reuses outputs whose inputs have
+ * not changed, and runs each step through its kind's run step (shared/cells) on the executor the
+ * caller gives: the browser's worker pool, worker_threads, or the calling thread. A failing step
+ * leaves an error output on its own cell and the run goes on; a cancel stops the run and keeps
+ * the outputs finished before it.
  */
-export interface SheetRunEnvironment {
-  runSimulation(
-    plan: SimulationPlan,
-    onProgress?: (progress: RunProgress) => void,
-  ): Promise<SimulationResult>;
-  runStudy(plan: SimulationPlan, options: StudyOptions): Promise<StudyResult>;
+
+/** An output with the fingerprint of the inputs it was computed from. */
+export interface KeptOutput {
+  output: CellOutput;
+  fingerprint: string;
 }
 
-export interface RunSheetHooks {
-  /** Progress of the simulation or study cell being computed. */
+export interface RunSheetOptions {
+  executor: RunExecutor;
+  /** null or absent: every cell that computes; else the cell the person asked to run. */
+  target?: string | null;
+  /** Fingerprints of the document's cells now; computed from the document when absent. */
+  fingerprints?: Readonly<Record<string, string>>;
+  /** Outputs of earlier runs, reused where their fingerprint still matches. */
+  kept?: (cellId: string) => KeptOutput | undefined;
+  onStepStart?(step: RunStep): void;
   onProgress?(cellId: string, progress: RunProgress): void;
-  /** Each cell's output as soon as it is ready. */
-  onCellOutput?(output: CellOutput): void;
-  /** The full result of a simulation, for charts. */
-  onSimulationResult?(cellId: string, result: SimulationResult, plan: SimulationPlan): void;
+  onCellOutput?(cellId: string, kept: KeptOutput): void;
+  /** Asked between steps and after a failure; the caller's cancel also stops the executor. */
+  isCancelled?(): boolean;
 }
 
-export type NumericalCell = Extract<Cell, { kind: 'simulation' | 'probe' | 'study' }>;
-
-export function isNumericalCell(cell: Cell): cell is NumericalCell {
-  return cell.kind === 'simulation' || cell.kind === 'probe' || cell.kind === 'study';
+export interface SheetRun {
+  /** This run's outputs (computed or reused), by cell id. */
+  outputs: Map<string, KeptOutput>;
+  cancelled: boolean;
+  engineVersion: number;
 }
 
 /** True for a user's cancel, which stops the whole run instead of failing one cell. */
@@ -49,70 +53,100 @@ export function isCancellation(error: unknown): boolean {
   return error instanceof Error && error.name === 'RunCancelledError';
 }
 
-function messageOf(error: unknown): string {
-  return error instanceof Error ? error.message : String(error);
+/** A thrown value in plain words for the cell that caused it. */
+export function describeRunError(error: unknown): string {
+  if (error instanceof Error && error.message) return error.message;
+  if (typeof error === 'string' && error) return error;
+  return 'the run failed for an unknown reason';
 }
 
-export async function runSheet(
-  doc: SheetDocument,
-  env: SheetRunEnvironment,
-  hooks: RunSheetHooks = {},
-): Promise<SheetRunOutput> {
+export async function runSheet(doc: SheetDocument, options: RunSheetOptions): Promise<SheetRun> {
+  const dependencies = sheetCellDependencies(doc);
+  const fingerprints = options.fingerprints ?? sheetFingerprints(doc, dependencies);
+  const steps = planRunSteps(doc, options.target ?? null, dependencies);
+  const byId = new Map(doc.cells.map((cell) => [cell.id, cell]));
+  const outputs = new Map<string, KeptOutput>();
   const plans = new Map<string, SimulationPlan>();
-  const simulations = new Map<string, Promise<SimulationResult>>();
+  const cancelled = () => options.isCancelled?.() ?? false;
 
-  const planFor = (simulationId: string): SimulationPlan => {
-    let plan = plans.get(simulationId);
-    if (!plan) {
-      plan = buildSimulationPlan(doc, simulationId);
-      plans.set(simulationId, plan);
-    }
-    return plan;
+  const keptCurrent = (cellId: string): KeptOutput | undefined => {
+    const kept = options.kept?.(cellId);
+    return kept && kept.fingerprint === fingerprints[cellId] ? kept : undefined;
   };
-
-  const resultFor = (simulationId: string): Promise<SimulationResult> => {
-    let pending = simulations.get(simulationId);
-    if (!pending) {
-      pending = (async () => {
-        const plan = planFor(simulationId);
-        const result = await env.runSimulation(plan, (progress) =>
-          hooks.onProgress?.(simulationId, progress),
-        );
-        hooks.onSimulationResult?.(simulationId, result, plan);
-        return result;
-      })();
-      simulations.set(simulationId, pending);
-    }
-    return pending;
-  };
-
-  const computeCell = async (cell: NumericalCell): Promise<CellOutput> => {
-    switch (cell.kind) {
-      case 'simulation':
-        return simulationOutput(cell.id, await resultFor(cell.id));
-      case 'probe': {
-        const result = await resultFor(cell.simulation);
-        return probeOutput(cell.id, evaluateProbe(result, probeRequest(cell, result.stateNames)));
+  const context = (step: RunStep): RunStepContext => ({
+    doc,
+    executor: options.executor,
+    forced: step.force,
+    plan(simulationId) {
+      let plan = plans.get(simulationId);
+      if (!plan) {
+        plan = buildSimulationPlan(doc, simulationId);
+        plans.set(simulationId, plan);
       }
-      case 'study': {
-        const plan = planFor(cell.simulation);
-        return studyOutput(cell.id, await env.runStudy(plan, studyOptions(cell, plan.model.stateNames)));
-      }
-    }
-  };
+      return plan;
+    },
+    currentOutput: (cellId) => outputs.get(cellId)?.output ?? keptCurrent(cellId)?.output,
+    onProgress: (progress) => options.onProgress?.(step.cellId, progress),
+  });
 
-  const cells: CellOutput[] = [];
-  for (const cell of doc.cells) {
-    if (!isNumericalCell(cell)) continue;
+  for (const step of steps) {
+    if (cancelled()) return { outputs, cancelled: true, engineVersion: ENGINE_VERSION };
+    const cell = byId.get(step.cellId)!;
+    const runStep = kindOf(cell).run!;
+    const stepContext = context(step);
+    options.onStepStart?.(step);
+    const fingerprint = fingerprints[step.cellId] ?? '';
     let output: CellOutput;
     try {
-      output = await computeCell(cell);
+      const kept = step.force ? undefined : keptCurrent(step.cellId);
+      if (kept && (runStep.stillCurrent?.(cell, kept.output, stepContext) ?? true)) {
+        outputs.set(step.cellId, kept);
+        continue;
+      }
+      output = await runStep.execute(cell, stepContext);
     } catch (error) {
-      if (isCancellation(error)) throw error;
-      output = { id: cell.id, kind: cell.kind, error: messageOf(error) };
+      if (isCancellation(error) || cancelled()) {
+        return { outputs, cancelled: true, engineVersion: ENGINE_VERSION };
+      }
+      output = { kind: 'error', message: describeRunError(error), finishedAt: new Date() };
     }
-    cells.push(output);
-    hooks.onCellOutput?.(output);
+    const result = { output, fingerprint };
+    outputs.set(step.cellId, result);
+    options.onCellOutput?.(step.cellId, result);
   }
-  return { title: doc.title, cells };
+  return { outputs, cancelled: cancelled(), engineVersion: ENGINE_VERSION };
+}
+
+/**
+ * Runs every computing cell and gives the plain JSON the command-line runner prints, cells in
+ * sheet order. A cancel rejects with RunCancelledError.
+ */
+export async function runSheetToJson(
+  doc: SheetDocument,
+  executor: RunExecutor,
+  options: Omit<RunSheetOptions, 'executor' | 'target'> = {},
+): Promise<SheetRunJson> {
+  const run = await runSheet(doc, { ...options, executor });
+  if (run.cancelled) throw new RunCancelledError();
+  const cells = doc.cells.flatMap((cell) => {
+    const kept = run.outputs.get(cell.id);
+    return kept ? [cellOutputJson(cell.id, cell.kind, kept.output)] : [];
+  });
+  return { title: doc.title, engineVersion: run.engineVersion, cells };
+}
+
+/** Digests of the simulation outputs that match the document as it is now, for saving a version. */
+export function currentDigests(
+  doc: SheetDocument,
+  kept: (cellId: string) => KeptOutput | undefined,
+  fingerprints: Readonly<Record<string, string>>,
+): Record<string, string> {
+  const digests: Record<string, string> = {};
+  for (const cell of doc.cells) {
+    const output = kept(cell.id);
+    if (cell.kind !== 'simulation' || output?.output.kind !== 'simulation') continue;
+    if (output.fingerprint !== fingerprints[cell.id]) continue;
+    digests[cell.id] = output.output.result.digest;
+  }
+  return digests;
 }

@@ -1,40 +1,24 @@
+import { kindOf } from '../cells/registry';
 import type { SheetDocument } from './document';
-import { checkModel } from './check-model';
 import { checkCellIds, checkNames } from './check-names';
 import { checkParameterValues } from './check-params';
-import { checkReader } from './check-readers';
-import { checkSimulation } from './check-simulation';
 import type { SheetIssue } from './issues';
 import { analyseParameters, evaluateParameters } from './parameters';
 import { indexSheet } from './sheet-index';
 
 /**
- * Every problem of a (schema-valid) sheet, each located in a cell: names, expressions and their
- * scopes, parameter cycles, the model's noise, and the references between cells.
+ * Every problem of a (schema-valid) sheet, each located in a cell: what spans cells first (cell
+ * ids, names, parameter definitions and cycles), then each cell's own checks from its kind.
  */
 export function checkSheet(doc: SheetDocument): SheetIssue[] {
   const index = indexSheet(doc);
   const analysis = analyseParameters(index);
   const issues: SheetIssue[] = [...checkCellIds(index), ...checkNames(index), ...analysis.issues];
   issues.push(...checkParameterValues(index, analysis));
-  const values = analysis.issues.length === 0 ? evaluateParameters(index, analysis).values : null;
+  const parameterValues = analysis.issues.length === 0 ? evaluateParameters(index, analysis).values : null;
   for (const cell of doc.cells) {
-    switch (cell.kind) {
-      case 'model':
-        issues.push(...checkModel(index, cell, values));
-        break;
-      case 'simulation':
-        issues.push(...checkSimulation(index, cell));
-        break;
-      case 'chart':
-      case 'probe':
-      case 'study':
-        issues.push(...checkReader(index, cell));
-        break;
-      case 'note':
-      case 'params':
-        break;
-    }
+    const check = kindOf(cell).check;
+    if (check) issues.push(...check(cell, { index, parameterValues }));
   }
   return issues;
 }

@@ -1,11 +1,10 @@
-import { checkExpression } from '../expr';
+import { kindOf } from '../cells/registry';
 import type { SheetDocument } from './document';
 
 /**
- * Which cells each cell reads, for stale marking and "run this cell with what it needs": a
- * simulation reads its model and every params cell; a model reads the params cells; a params
- * cell reads the params cells whose parameters its expressions use; charts, probes and studies
- * read their simulation. Only ids of existing cells appear; every cell has an entry.
+ * Which cells each cell reads, from each kind's `reads`, for stale marking and "run this cell
+ * with what it needs". Only ids of existing cells appear, without the cell itself; every cell has
+ * an entry.
  */
 export function sheetCellDependencies(doc: SheetDocument): Map<string, string[]> {
   const existing = new Set(doc.cells.map((c) => c.id));
@@ -15,42 +14,30 @@ export function sheetCellDependencies(doc: SheetDocument): Map<string, string[]>
     if (cell.kind !== 'params') continue;
     for (const p of cell.params) if (!definedIn.has(p.name)) definedIn.set(p.name, cell.id);
   }
-  const scope = [...definedIn.keys()];
 
   const dependencies = new Map<string, string[]>();
-  const add = (id: string, reads: readonly string[]) => {
-    const list = dependencies.get(id) ?? [];
-    for (const read of reads) if (read !== id && existing.has(read) && !list.includes(read)) list.push(read);
-    dependencies.set(id, list);
-  };
   for (const cell of doc.cells) {
-    switch (cell.kind) {
-      case 'note':
-        add(cell.id, []);
-        break;
-      case 'params': {
-        const reads: string[] = [];
-        for (const p of cell.params) {
-          if (typeof p.value !== 'string') continue;
-          const checked = checkExpression(p.value, scope);
-          if (!checked.ok) continue;
-          for (const name of checked.tree.names) reads.push(definedIn.get(name) ?? '');
-        }
-        add(cell.id, reads);
-        break;
-      }
-      case 'model':
-        add(cell.id, paramsCellIds);
-        break;
-      case 'simulation':
-        add(cell.id, [cell.model, ...paramsCellIds]);
-        break;
-      case 'chart':
-      case 'probe':
-      case 'study':
-        add(cell.id, [cell.simulation]);
-        break;
+    const list = dependencies.get(cell.id) ?? [];
+    for (const read of kindOf(cell).reads(cell, { paramsCellIds, definedIn })) {
+      if (read !== cell.id && existing.has(read) && !list.includes(read)) list.push(read);
     }
+    dependencies.set(cell.id, list);
   }
   return dependencies;
+}
+
+/** Every cell id `cellId` reads, directly or indirectly, without itself, sorted. */
+export function transitiveDependencies(
+  cellId: string,
+  dependencies: ReadonlyMap<string, readonly string[]>,
+): string[] {
+  const seen = new Set<string>();
+  const pending = [...(dependencies.get(cellId) ?? [])];
+  while (pending.length > 0) {
+    const next = pending.pop()!;
+    if (next === cellId || seen.has(next)) continue;
+    seen.add(next);
+    pending.push(...(dependencies.get(next) ?? []));
+  }
+  return [...seen].sort();
 }

@@ -27,3 +27,6 @@ export function describeIssue(issue: SheetIssue): string {
     .join('');
   return `cell ${issue.cellId}${path ? `, ${path}` : ''}: ${issue.message}`;
 }
+
+/** An issue as a cell's editor shows it: the cell is known, the path leads inside it. */
+export type CellIssue = Omit<SheetIssue, 'cellId'>;

@@ -1,5 +1,6 @@
 import { checkExpression, evaluate, generateSource, numberSource, type CheckedExpr } from '../expr';
 import type { ModelSpec, SimulationPlan, WatchSpec } from '../engine/plan';
+import { kindOf } from '../cells/registry';
 import { checkSheet } from './check';
 import { isIdentity } from './correlation';
 import type { BoundaryRule, ModelCell, SheetDocument, SimulationCell } from './document';
@@ -20,16 +21,11 @@ export function buildSimulationPlan(doc: SheetDocument, simulationCellId: string
   const sim = findSimulation(index, simulationCellId);
   if (!sim) throw new Error(`there is no simulation cell '${simulationCellId}'`);
 
-  const probes = doc.cells.filter((c) => c.kind === 'probe' && c.simulation === sim.id);
-  const involved = new Set([
-    sim.id,
-    sim.model,
-    ...index.paramsCells.map((c) => c.id),
-    ...probes.map((c) => c.id),
-  ]);
+  const model = findModel(index, sim.model);
+  const asks = model ? simulationRequests(doc, sim, model) : { askingCellIds: [], times: [], watches: [] };
+  const involved = new Set([sim.id, sim.model, ...index.paramsCells.map((c) => c.id), ...asks.askingCellIds]);
   const issues = checkSheet(doc).filter((issue) => involved.has(issue.cellId));
   if (issues.length > 0) throw new SheetIssuesError(issues, `simulation '${sim.id}'`);
-  const model = findModel(index, sim.model);
   if (!model) throw new Error(`simulation '${sim.id}' names no model cell`); // unreachable after checkSheet
 
   const params = resolveCheckedParameters(index, sim.overrides, sim.id);
@@ -45,8 +41,8 @@ export function buildSimulationPlan(doc: SheetDocument, simulationCellId: string
     samplePaths: sim.samplePaths,
     boundaries: model.states.map((s): BoundaryRule => sim.boundaries[s.name] ?? { rule: 'none' }),
     blowupBound: sim.blowupBound ?? null,
-    probeTimes: probeTimes(doc, sim),
-    watches: watches(doc, sim, model),
+    probeTimes: asks.times,
+    watches: asks.watches,
   };
 }
 
@@ -105,35 +101,21 @@ function buildModelSpec(
   };
 }
 
-function probeTimes(doc: SheetDocument, sim: SimulationCell): number[] {
+/**
+ * The extra times and watched levels that the cells reading this simulation ask for (each kind's
+ * `asksOf`), without duplicates, and which cells asked.
+ */
+function simulationRequests(doc: SheetDocument, sim: SimulationCell, model: ModelCell) {
+  const askingCellIds: string[] = [];
   const times = new Set<number>();
+  const watches = new Map<string, WatchSpec>();
   for (const cell of doc.cells) {
-    if (cell.kind === 'probe' && cell.simulation === sim.id && cell.time !== undefined) times.add(cell.time);
-    // A histogram needs every path's value at its time too, like a probe.
-    if (
-      cell.kind === 'chart' &&
-      cell.simulation === sim.id &&
-      cell.view === 'histogram' &&
-      cell.time !== undefined
-    ) {
-      if (cell.time >= sim.t0 && cell.time <= sim.t1) times.add(cell.time);
-    }
+    const asks = kindOf(cell).asksOf?.(cell, sim, model);
+    if (!asks) continue;
+    askingCellIds.push(cell.id);
+    for (const time of asks.times) times.add(time);
+    for (const watch of asks.watches) watches.set(`${watch.state}|${watch.level}|${watch.direction}`, watch);
   }
   times.delete(sim.t1);
-  return [...times].sort((a, b) => a - b);
-}
-
-function watches(doc: SheetDocument, sim: SimulationCell, model: ModelCell): WatchSpec[] {
-  const found = new Map<string, WatchSpec>();
-  for (const cell of doc.cells) {
-    if (cell.kind !== 'probe' || cell.simulation !== sim.id || cell.level === undefined) continue;
-    const state = model.states.findIndex((s) => s.name === cell.state);
-    let direction: WatchSpec['direction'];
-    if (cell.quantity === 'hit-before' || cell.quantity === 'first-passage')
-      direction = cell.direction ?? 'above';
-    else if (cell.quantity === 'extinction') direction = 'below';
-    else continue;
-    found.set(`${state}|${cell.level}|${direction}`, { state, level: cell.level, direction });
-  }
-  return [...found.values()];
+  return { askingCellIds, times: [...times].sort((a, b) => a - b), watches: [...watches.values()] };
 }

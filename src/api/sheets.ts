@@ -14,7 +14,8 @@ import {
   type VersionSummary as VersionSummaryWire,
 } from '@shared/api/sheets';
 import { API_ERROR_CODES } from '@shared/api/errors';
-import { sheetDocumentSchema, type SheetDocument, type SheetDocumentInput } from '@shared/sheet/document';
+import type { SheetDocument, SheetDocumentInput } from '@shared/sheet/document';
+import { parseSheetDocument } from '@shared/sheet/upgrade';
 import { ApiError, request, toDate } from './http';
 import { parseAnswer } from './parse';
 
@@ -50,7 +51,7 @@ const sheetPath = (id: string): string => `/api/sheets/${encodeURIComponent(id)}
 
 /** A stored document that no longer matches the schema is reported, not half-shown. */
 function readDocument(raw: unknown, what: string): SheetDocument {
-  const result = sheetDocumentSchema.safeParse(raw);
+  const result = parseSheetDocument(raw);
   if (result.success) return result.data;
   const issue = result.error.issues[0];
   throw new ApiError({

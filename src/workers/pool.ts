@@ -2,7 +2,6 @@ import * as Comlink from 'comlink';
 import type { SimulationPlan } from '@shared/engine/plan';
 import type { ChunkResult, SimulationResult, StudyOptions, StudyResult } from '@shared/engine/result';
 import { ChunkPool, RunCancelledError, type ChunkWorker, type RunProgress } from '@shared/run/chunk-pool';
-import type { SheetRunEnvironment } from '@shared/run/run-sheet';
 import { collectTransferables } from '@shared/run/transferables';
 import type { SimulationWorkerApi } from './simulation.worker';
 import { runStarted } from './activity';
@@ -112,14 +111,6 @@ export class SimulationPool {
     this.chunks.dispose();
     this.helper?.worker.terminate();
     this.helper = null;
-  }
-
-  /** The pool as a runSheet environment. */
-  environment(): SheetRunEnvironment {
-    return {
-      runSimulation: (plan, onProgress) => this.simulate(plan, onProgress),
-      runStudy: (plan, options) => this.runStudy(plan, options),
-    };
   }
 
   private onHelper<T>(job: (api: Comlink.Remote<SimulationWorkerApi>) => Promise<T>): Promise<T> {

@@ -33,7 +33,7 @@ const finishedAt = new Date('2026-03-01T10:00:00Z');
 
 function simulationOutput(options?: Parameters<typeof fakeRun>[0]): CellOutput {
   const { plan, result } = fakeRun(options);
-  return { kind: 'simulation', plan, result, finishedAt, seconds: 1.25 };
+  return { kind: 'simulation', plan, result, engineVersion: 1, finishedAt, seconds: 1.25 };
 }
 
 describe('ProbeCell', () => {

@@ -124,7 +124,9 @@ describe('saving a version', () => {
       document: { ...pondSheet(), title: 'Pond algae, wet summer' },
       digests: {},
     });
-    expect(api.renameSheet).toHaveBeenCalledWith('s1', 'Pond algae, wet summer');
+    // The save itself sets the sheet's title on the server: no second request.
+    expect(api.renameSheet).not.toHaveBeenCalled();
+    expect(useSheetEditorStore().serverTitle).toBe('Pond algae, wet summer');
     expect(localStorage.getItem(DRAFT_KEY)).toBeNull();
     expect(document.body.textContent).toContain('version 4');
     expect(document.body.textContent).not.toContain('Unsaved changes');

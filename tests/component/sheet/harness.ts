@@ -3,8 +3,8 @@ import { RouterView, createMemoryHistory, createRouter, type Router } from 'vue-
 import { createPinia, setActivePinia, type Pinia } from 'pinia';
 import { flushPromises, mount, type VueWrapper } from '@vue/test-utils';
 import type { SheetDocument } from '@shared/sheet/document';
-import type { CellEditorMap } from '@/views/sheet/cell-editors';
-import { cellEditorsKey } from '@/views/sheet/cell-editors';
+import type { CellEditorMap } from '@/components/cells/editors';
+import { cellEditorsKey } from '@/components/cells/editors';
 import { useSessionStore } from '@/stores/session';
 import SheetView from '@/views/SheetView.vue';
 

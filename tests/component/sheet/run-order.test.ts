@@ -1,7 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { sheetCellDependencies, type SheetDocument } from '@shared/sheet';
-import { planRunSteps } from '@/stores/sheet-editor-run';
-import { cellFingerprint, stableStringify } from '@/stores/sheet-editor-fingerprint';
+import { cellFingerprint, sheetCellDependencies, stableStringify, type SheetDocument } from '@shared/sheet';
+import { planRunSteps } from '@shared/run/steps';
 import { pondSheet } from './harness';
 
 /** The order of a run and the fingerprints behind stale marking, without mounting anything. */

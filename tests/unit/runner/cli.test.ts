@@ -54,6 +54,7 @@ const simulationOutput = z
     ),
     blowups: z.number().int().min(0),
     digest: z.string().regex(/^[0-9a-f]{16}$/),
+    engineVersion: z.number().int().min(1),
   })
   .strict();
 const probeOutput = z
@@ -89,7 +90,11 @@ const studyOutput = z
   })
   .strict();
 const runOutput = z
-  .object({ title: z.string(), cells: z.array(z.union([simulationOutput, probeOutput, studyOutput])) })
+  .object({
+    title: z.string(),
+    engineVersion: z.number().int().min(1),
+    cells: z.array(z.union([simulationOutput, probeOutput, studyOutput])),
+  })
   .strict();
 
 describe('sheet run (command line)', () => {

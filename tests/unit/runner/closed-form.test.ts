@@ -1,17 +1,17 @@
 import jStat from 'jstat';
 import { describe, expect, it } from 'vitest';
 import { findExampleSheet } from '@shared/examples/index';
-import { inProcessEnvironment } from '@shared/run/environments';
-import { runSheet } from '@shared/run/run-sheet';
+import { inProcessExecutor } from '@shared/run/environments';
+import { runSheetToJson } from '@shared/run/run-sheet';
 import { scaleSheetPaths } from '@shared/run/scale';
-import type { CellOutput } from '@shared/run/outputs';
+import type { CellOutputJson } from '@shared/run/outputs';
 
 /**
  * The example sheets' probes against closed forms, run through the whole runner (plan, chunks,
  * merge, probe). Path counts are scaled down; tolerances are 4.5 standard errors of a proportion
  * at the exact value, plus the stated discretisation allowance.
  */
-function probe(cells: CellOutput[], id: string) {
+function probe(cells: CellOutputJson[], id: string) {
   const cell = cells.find((c) => c.id === id);
   if (!cell || cell.kind !== 'probe' || 'error' in cell)
     throw new Error(`no probe output ${id}: ${JSON.stringify(cell)}`);
@@ -21,7 +21,7 @@ function probe(cells: CellOutput[], id: string) {
 describe('example probes against closed forms', () => {
   it('soil moisture: P(A_60 ≤ −25 mm) matches the Ornstein–Uhlenbeck normal law', async () => {
     const doc = scaleSheetPaths(findExampleSheet('soil-moisture-anomaly')!.document, 0.25); // 5000 paths
-    const output = await runSheet(doc, inProcessEnvironment());
+    const output = await runSheetToJson(doc, inProcessExecutor());
     const odds = probe(output.cells, 'drought-odds');
     const tau = 24,
       s = 9,
@@ -52,7 +52,7 @@ describe('example probes against closed forms', () => {
 
   it('price index: P(S_2 ≥ 130) matches the lognormal law of geometric Brownian motion', async () => {
     const doc = scaleSheetPaths(findExampleSheet('commodity-price-index')!.document, 0.2); // 10 000 paths
-    const output = await runSheet(doc, inProcessEnvironment());
+    const output = await runSheetToJson(doc, inProcessExecutor());
     const rise = probe(output.cells, 'rise-odds');
     const mu = 0.035,
       sigma = 0.27,
@@ -71,7 +71,7 @@ describe('example probes against closed forms', () => {
 
   it('price index: the study against the exact solution sees Milstein converge at strong order about 1', async () => {
     const doc = scaleSheetPaths(findExampleSheet('commodity-price-index')!.document, 0.5); // study: 2000 samples
-    const output = await runSheet(doc, inProcessEnvironment());
+    const output = await runSheetToJson(doc, inProcessExecutor());
     const study = output.cells.find((c) => c.id === 'step-check');
     if (!study || study.kind !== 'study' || 'error' in study) throw new Error(JSON.stringify(study));
     expect(study.reference).toBe('exact');

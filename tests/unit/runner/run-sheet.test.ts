@@ -1,9 +1,10 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { RunCancelledError } from '@shared/run/chunk-pool';
-import { inProcessEnvironment } from '@shared/run/environments';
-import { runSheet, type SheetRunEnvironment } from '@shared/run/run-sheet';
-import type { CellOutput } from '@shared/run/outputs';
+import type { RunExecutor } from '@shared/cells/kind';
+import { inProcessExecutor } from '@shared/run/environments';
+import { runSheetToJson } from '@shared/run/run-sheet';
+import type { CellOutputJson } from '@shared/run/outputs';
 import { simulate } from '@shared/engine/simulate';
 import { buildSimulationPlan, sheetDocumentSchema } from '@shared/sheet/index';
 
@@ -12,37 +13,38 @@ const fixture = sheetDocumentSchema.parse(
 );
 
 /** Counts what the runner asks of its environment. */
-function countingEnvironment(inner: SheetRunEnvironment = inProcessEnvironment()) {
+function countingExecutor(inner: RunExecutor = inProcessExecutor()) {
   const calls = { simulations: 0, studies: 0 };
-  const env: SheetRunEnvironment = {
+  const env: RunExecutor = {
     runSimulation: (plan, onProgress) => {
       calls.simulations++;
       return inner.runSimulation(plan, onProgress);
     },
-    runStudy: (plan, options) => {
+    runStudy: (plan, options, onProgress) => {
       calls.studies++;
-      return inner.runStudy(plan, options);
+      return inner.runStudy(plan, options, onProgress);
     },
   };
   return { env, calls };
 }
 
-describe('runSheet', () => {
+describe('runSheet (the orchestrator, through its JSON view)', () => {
   it('runs a simulation once, on demand, even when its probe comes first, and lists outputs in document order', async () => {
-    const { env, calls } = countingEnvironment();
+    const { env, calls } = countingExecutor();
     const seen: string[] = [];
-    const output = await runSheet(fixture, env, { onCellOutput: (cell) => seen.push(cell.id) });
+    const output = await runSheetToJson(fixture, env, { onCellOutput: (cellId) => seen.push(cellId) });
     expect(output.title).toBe(fixture.title);
     expect(output.cells.map((c) => c.id)).toEqual(['gauge-probe', 'gauge-run', 'gauge-study']);
-    expect(seen).toEqual(['gauge-probe', 'gauge-run', 'gauge-study']);
+    // Outputs arrive as they are computed: the simulation before the probe that reads it.
+    expect(seen).toEqual(['gauge-run', 'gauge-probe', 'gauge-study']);
     expect(calls).toEqual({ simulations: 1, studies: 1 });
     expect(output.cells.every((c) => !('error' in c))).toBe(true);
   });
 
   it('reports the same digest as the engine running the whole plan in one piece', async () => {
-    const output = await runSheet(fixture, inProcessEnvironment());
+    const output = await runSheetToJson(fixture, inProcessExecutor());
     const sim = output.cells.find(
-      (c): c is Extract<CellOutput, { kind: 'simulation' }> => c.kind === 'simulation',
+      (c): c is Extract<CellOutputJson, { kind: 'simulation' }> => c.kind === 'simulation',
     );
     const whole = simulate(buildSimulationPlan(fixture, 'gauge-run'));
     expect(sim?.digest).toBe(whole.digest);
@@ -50,9 +52,9 @@ describe('runSheet', () => {
   });
 
   it('summarises the final distribution close to the Ornstein–Uhlenbeck law', async () => {
-    const output = await runSheet(fixture, inProcessEnvironment());
+    const output = await runSheetToJson(fixture, inProcessExecutor());
     const sim = output.cells.find(
-      (c): c is Extract<CellOutput, { kind: 'simulation' }> => c.kind === 'simulation',
+      (c): c is Extract<CellOutputJson, { kind: 'simulation' }> => c.kind === 'simulation',
     )!;
     const summary = sim.final.Y!;
     // OU mean m + (Y0 − m) e^{−kT} and variance v²(1 − e^{−2kT})/(2k) (Kloeden & Platen 1992, §4.4).
@@ -73,7 +75,7 @@ describe('runSheet', () => {
 
   it('reports progress per cell', async () => {
     const progress: { cellId: string; pathsDone: number }[] = [];
-    await runSheet(fixture, inProcessEnvironment(), {
+    await runSheetToJson(fixture, inProcessExecutor(), {
       onProgress: (cellId, p) => progress.push({ cellId, pathsDone: p.pathsDone }),
     });
     expect(progress.length).toBeGreaterThan(1);
@@ -82,12 +84,12 @@ describe('runSheet', () => {
   });
 
   it('records a failing cell with its message and still computes the others', async () => {
-    const inner = inProcessEnvironment();
-    const env: SheetRunEnvironment = {
+    const inner = inProcessExecutor();
+    const env: RunExecutor = {
       runSimulation: inner.runSimulation,
       runStudy: () => Promise.reject(new Error('the study ran out of memory')),
     };
-    const output = await runSheet(fixture, env);
+    const output = await runSheetToJson(fixture, env);
     expect(output.cells.find((c) => c.id === 'gauge-study')).toEqual({
       id: 'gauge-study',
       kind: 'study',
@@ -97,10 +99,10 @@ describe('runSheet', () => {
   });
 
   it('stops the whole run on a cancel instead of recording it as a failed cell', async () => {
-    const env: SheetRunEnvironment = {
+    const env: RunExecutor = {
       runSimulation: () => Promise.reject(new RunCancelledError()),
       runStudy: () => Promise.reject(new Error('should not be reached')),
     };
-    await expect(runSheet(fixture, env)).rejects.toBeInstanceOf(RunCancelledError);
+    await expect(runSheetToJson(fixture, env)).rejects.toBeInstanceOf(RunCancelledError);
   });
 });

@@ -53,7 +53,7 @@ describe('thread pool', () => {
 
   it('runs a study on its own thread, with the same numbers as in-process', async () => {
     const options = { levels: 4, coarsestSteps: 4, paths: 50, state: 0, reference: 'finest' } as const;
-    const threaded = await pool(1).environment.runStudy(plan, options);
+    const threaded = await pool(1).executor.runStudy(plan, options);
     expect(threaded.levels[0]!.steps).toBe(4);
     expect(threaded).toEqual(runStudy(plan, options));
   });

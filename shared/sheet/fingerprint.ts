@@ -1,4 +1,5 @@
-import type { SheetDocument } from '@shared/sheet/document';
+import type { SheetDocument } from './document';
+import { transitiveDependencies } from './dependencies';
 
 /**
  * Fingerprints of a cell's inputs: the cell itself and every cell it reads, directly or through
@@ -30,22 +31,6 @@ export function hashText(text: string): string {
     b = Math.imul(b ^ code, 0x01000193) ^ (b >>> 15);
   }
   return (a >>> 0).toString(16).padStart(8, '0') + (b >>> 0).toString(16).padStart(8, '0');
-}
-
-/** Every cell id `cellId` reads, directly or indirectly, without itself. */
-export function transitiveDependencies(
-  cellId: string,
-  dependencies: ReadonlyMap<string, readonly string[]>,
-): string[] {
-  const seen = new Set<string>();
-  const pending = [...(dependencies.get(cellId) ?? [])];
-  while (pending.length > 0) {
-    const next = pending.pop()!;
-    if (next === cellId || seen.has(next)) continue;
-    seen.add(next);
-    pending.push(...(dependencies.get(next) ?? []));
-  }
-  return [...seen].sort();
 }
 
 /** Each cell's stable text, computed once per document. */

@@ -1,19 +1,12 @@
-import { sheetDocumentSchema, type SheetDocument } from '@shared/sheet/document';
-import type { CellIssue } from '@/components/cells/contract';
+import { checkSheet } from './check';
+import { sheetDocumentSchema, type SheetDocument } from './document';
+import type { CellIssue } from './issues';
 
 /**
  * Gathers what is wrong with a document, per cell: first the shape (the zod schema: a number out
  * of range, a missing field), then the sheet checker's findings (names, expressions, references).
  * Problems outside any cell (the title) are listed for the sheet as a whole.
  */
-
-export interface SheetIssueLike {
-  cellId: string;
-  path: (string | number)[];
-  message: string;
-  from?: number;
-  to?: number;
-}
 
 export interface CollectedIssues {
   byCell: Record<string, CellIssue[]>;
@@ -24,10 +17,7 @@ function push(target: Record<string, CellIssue[]>, cellId: string, issue: CellIs
   (target[cellId] ??= []).push(issue);
 }
 
-export function collectIssues(
-  doc: SheetDocument,
-  checkSheet: (doc: SheetDocument) => SheetIssueLike[],
-): CollectedIssues {
+export function collectIssues(doc: SheetDocument): CollectedIssues {
   const byCell: Record<string, CellIssue[]> = {};
   const sheet: string[] = [];
   const shape = sheetDocumentSchema.safeParse(doc);

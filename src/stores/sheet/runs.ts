@@ -1,0 +1,162 @@
+import { computed, ref, shallowRef } from 'vue';
+import { kindOf } from '@shared/cells/registry';
+import type { RunExecutor } from '@shared/cells/kind';
+import type { SheetDocument } from '@shared/sheet/document';
+import { currentDigests, runSheet, type KeptOutput } from '@shared/run/run-sheet';
+import { planRunSteps } from '@shared/run/steps';
+import type { CellOutput } from '@shared/run/outputs';
+import type { RunProgress } from '@shared/run/progress';
+import { errorMessage } from '@/api/http';
+import type { SheetDocumentState } from './document';
+
+/** The browser's executor: the worker pool, loaded on the first run so a page that only reads starts none. */
+export interface BrowserExecutor extends RunExecutor {
+  cancel(): void;
+}
+
+export async function createBrowserExecutor(): Promise<BrowserExecutor> {
+  const { SimulationPool } = await import('@/workers/pool');
+  const pool = new SimulationPool();
+  return {
+    runSimulation: (plan, onProgress) => pool.simulate(plan, onProgress),
+    runStudy: (plan, options) => pool.runStudy(plan, options),
+    cancel: () => pool.cancel(),
+  };
+}
+
+/** Resolves in a later task, letting the browser handle input and paint in between. */
+function nextTask(): Promise<void> {
+  return new Promise((resolve) => setTimeout(resolve, 0));
+}
+
+/**
+ * Runs of the sheet being edited, through the one orchestrator of shared/run: the outputs with
+ * the fingerprints they were computed from, which cells are stale, progress and cancel. Nothing
+ * here computes numbers: the orchestrator hands them to the worker pool.
+ */
+export function useSheetRuns(state: SheetDocumentState) {
+  const outputs = shallowRef<Record<string, CellOutput | undefined>>({});
+  const outputFingerprints = shallowRef<Record<string, string>>({});
+  const running = ref(false);
+  const runningCellId = ref<string | null>(null);
+  const progress = ref<RunProgress | null>(null);
+  /** When the running step started (performance.now()), for elapsed time where no progress comes. */
+  const stepStartedAt = ref<number | null>(null);
+  const runNotice = ref<string | null>(null);
+  let runCancelled = false;
+  let executor: BrowserExecutor | null = null;
+  /** True from a run's click until it shows as running (see run). */
+  let starting = false;
+
+  const kept = (cellId: string): KeptOutput | undefined => {
+    const output = outputs.value[cellId];
+    return output ? { output, fingerprint: outputFingerprints.value[cellId] ?? '' } : undefined;
+  };
+
+  /** Ids of cells whose output (or the output they show, for a chart) predates their inputs. */
+  const staleCellIds = computed(() => {
+    const stale = new Set<string>();
+    for (const cell of state.document.value?.cells ?? []) {
+      const sourceId = kindOf(cell).showsOutputOf?.(cell) ?? cell.id;
+      const fingerprint = outputFingerprints.value[sourceId];
+      if (fingerprint !== undefined && fingerprint !== state.fingerprints.value[sourceId]) stale.add(cell.id);
+    }
+    return stale;
+  });
+
+  function resetOutputs(): void {
+    outputs.value = {};
+    outputFingerprints.value = {};
+    runNotice.value = null;
+  }
+
+  async function run(targetId: string | null): Promise<void> {
+    if (running.value || starting || !state.document.value || state.readonly.value) return;
+    // A plain deep copy: edits made while the run goes on do not leak into it, and the plans built
+    // from it hold no reactive proxies (which cannot be posted to a worker).
+    const doc = JSON.parse(JSON.stringify(state.document.value)) as SheetDocument;
+    if (planRunSteps(doc, targetId, state.dependencies.value).length === 0) {
+      runNotice.value =
+        targetId === null
+          ? 'Nothing to run: the sheet has no simulation, probe or study.'
+          : 'Nothing to run for this cell.';
+      return;
+    }
+    // Three short tasks instead of one long one: the click itself (the button's press effect
+    // measures the page), then the page showing the run as started, then plans and workers.
+    starting = true;
+    await nextTask();
+    starting = false;
+    running.value = true;
+    runNotice.value = null;
+    runCancelled = false;
+    try {
+      await nextTask();
+      if (!executor) {
+        // The first run of the page loads the pool's code: its own task, before plans are built.
+        executor = await createBrowserExecutor();
+        await nextTask();
+      }
+      const result = await runSheet(doc, {
+        executor,
+        target: targetId,
+        fingerprints: state.fingerprints.value,
+        kept,
+        onStepStart: (step) => {
+          runningCellId.value = step.cellId;
+          progress.value = null;
+          stepStartedAt.value = performance.now();
+        },
+        onProgress: (_cellId, next) => {
+          progress.value = next;
+        },
+        onCellOutput: (cellId, { output, fingerprint }) => {
+          outputs.value = { ...outputs.value, [cellId]: output };
+          outputFingerprints.value = { ...outputFingerprints.value, [cellId]: fingerprint };
+        },
+        isCancelled: () => runCancelled,
+      });
+      if (result.cancelled) runNotice.value = 'Run cancelled. Results finished before the cancel are kept.';
+    } catch (error) {
+      runNotice.value = `The run could not start: ${errorMessage(error)}`;
+    } finally {
+      running.value = false;
+      runningCellId.value = null;
+      progress.value = null;
+      stepStartedAt.value = null;
+    }
+  }
+
+  function cancelRun(): void {
+    if (!running.value) return;
+    runCancelled = true;
+    executor?.cancel();
+  }
+
+  function dismissRunNotice(): void {
+    runNotice.value = null;
+  }
+
+  /** Digests of the simulation outputs that match the document as it is now. */
+  function digestsNow(doc: SheetDocument): Record<string, string> {
+    return currentDigests(doc, kept, state.fingerprints.value);
+  }
+
+  return {
+    outputs,
+    outputFingerprints,
+    running,
+    runningCellId,
+    progress,
+    stepStartedAt,
+    runNotice,
+    staleCellIds,
+    resetOutputs,
+    run,
+    cancelRun,
+    dismissRunNotice,
+    digestsNow,
+  };
+}
+
+export type SheetRunsState = ReturnType<typeof useSheetRuns>;
