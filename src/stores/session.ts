@@ -61,6 +61,15 @@ export const useSessionStore = defineStore('session', () => {
     await authApi.changePassword({ currentPassword, newPassword });
   }
 
+  /** Asks for a reset link by e-mail; the answer is the same whether the address is known or not. */
+  async function requestPasswordReset(email: string): Promise<void> {
+    await authApi.requestPasswordReset(email);
+  }
+
+  async function confirmPasswordReset(token: string, password: string): Promise<void> {
+    await authApi.confirmPasswordReset(token, password);
+  }
+
   /** Forgets the user locally (the server already ended the session). */
   function clear(): void {
     me.value = null;
@@ -79,6 +88,8 @@ export const useSessionStore = defineStore('session', () => {
     signOut,
     updateName,
     changePassword,
+    requestPasswordReset,
+    confirmPasswordReset,
     clear,
   };
 });
