@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { ENGINE_VERSION } from '../engine/version';
 import { checkSimulation } from '../sheet/check-simulation';
-import { stableStringify } from '../sheet/fingerprint';
+import { stableStringify } from '../sheet/stable-json';
 import type { CellKindDefinition } from './kind';
 import { cellIdSchema, cellNameSchema, finite } from './fields';
 import { nearestCell, secondsSince } from './helpers';

@@ -1,12 +1,15 @@
+import { simulationCellSchema } from '@shared/cells/simulation';
 import { parseIntegerText, parseNumberText } from './numberText';
+import { numberRange } from '@/composables/schemaLimits';
 
-/** Checks for the number fields of a simulation cell; ranges follow the sheet schema. */
+/** Checks for the number fields of a simulation cell; ranges are read from the cell's schema. */
 
-export const STEPS_RANGE = { min: 1, max: 10_000_000 };
-export const PATHS_RANGE = { min: 1, max: 10_000_000 };
-export const SEED_RANGE = { min: 0, max: 0xffffffff };
-export const SAVE_COUNT_RANGE = { min: 2, max: 10_001 };
-export const SAMPLE_PATHS_RANGE = { min: 0, max: 1000 };
+const fields = simulationCellSchema.shape;
+export const STEPS_RANGE = numberRange(fields.steps);
+export const PATHS_RANGE = numberRange(fields.paths);
+export const SEED_RANGE = numberRange(fields.seed);
+export const SAVE_COUNT_RANGE = numberRange(fields.saveCount);
+export const SAMPLE_PATHS_RANGE = numberRange(fields.samplePaths);
 
 export function integerCheck(what: string, range: { min: number; max: number }) {
   return (text: string): string | null => {

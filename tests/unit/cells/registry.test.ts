@@ -1,5 +1,5 @@
 import { readFileSync } from 'node:fs';
-import { describe, expect, it } from 'vitest';
+import { describe, expect, it, vi } from 'vitest';
 import { CELL_KINDS, CELL_KIND_NAMES, cellSchema } from '@shared/cells/registry';
 import { EDGE_COLOURS } from '@shared/cells/colours';
 import { checkSheet, emptySheetDocument, type SheetDocument } from '@shared/sheet';
@@ -54,4 +54,19 @@ describe('the cell-kind registry', () => {
     expect(cannotAddReason(empty, 'probe', 0)).toBe('add a simulation first');
     expect(cannotAddReason(empty, 'note', 0)).toBeNull();
   });
+});
+
+describe('kind modules', () => {
+  // A kind module must not import, even indirectly, a module that reads the registry while it is
+  // being evaluated, or whichever module is imported first breaks the registry's initialisation.
+  it.each(['note', 'params', 'model', 'simulation', 'chart', 'probe', 'study'])(
+    'can be the first module imported (%s)',
+    async (kind) => {
+      vi.resetModules();
+      const module = (await import(`../../../shared/cells/${kind}.ts`)) as Record<string, unknown>;
+      expect(module[`${kind}Kind`]).toBeDefined();
+      const registry = await import('@shared/cells/registry');
+      expect(Object.keys(registry.CELL_KINDS)).toContain(kind);
+    },
+  );
 });
