@@ -5,9 +5,7 @@ import { migrate } from './db/migrate';
 import { listen } from './index';
 import type { MailboxReader } from './mail/mail-fake';
 import { createMailer } from './mail/mailer';
-import { DEMO_ACCOUNTS, seedDemo } from './seed';
-
-export { DEMO_ACCOUNTS };
+import { seedDemo } from './seed';
 
 export interface TestServerOptions {
   databaseUrl: string;

@@ -134,7 +134,7 @@ async function runAs(asRoot: boolean, binary: string, args: string[]) {
     // cwd '/' so the service account never needs access to the caller's working directory.
     return await run(command, commandArgs, { cwd: '/', maxBuffer: 16 * 1024 * 1024 });
   } catch (error) {
-    throw new Error(`${path.basename(binary)} failed: ${errorText(error)}`);
+    throw new Error(`${path.basename(binary)} failed: ${errorText(error)}`, { cause: error });
   }
 }
 

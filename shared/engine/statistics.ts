@@ -75,10 +75,9 @@ export function moments(values: ArrayLike<number>): Moments {
 function partition(values: Float64Array, left: number, right: number, crossing: Int32Array): number {
   let a = values[left]!;
   let b = values[(left + right) >>> 1]!;
-  let c = values[right]!;
-  let swap = 0;
+  const c = values[right]!;
   if (a > b) {
-    swap = a;
+    const swap = a;
     a = b;
     b = swap;
   }

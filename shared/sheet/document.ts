@@ -9,20 +9,10 @@ import { cellSchema } from '../cells/registry';
  */
 export const SHEET_SCHEMA_VERSION = 1;
 
-export { cellIdSchema, symbolNameSchema, expressionSchema, cellNameSchema } from '../cells/fields';
-export { noteCellSchema } from '../cells/note';
-export { paramsCellSchema, parameterSchema } from '../cells/params';
-export { modelCellSchema, stateVariableSchema, noiseSourceSchema } from '../cells/model';
-export {
-  simulationCellSchema,
-  methodSchema,
-  boundaryRuleSchema,
-  type Method,
-  type BoundaryRule,
-} from '../cells/simulation';
-export { chartCellSchema, chartViewSchema } from '../cells/chart';
-export { probeCellSchema, probeQuantitySchema, type ProbeQuantity } from '../cells/probe';
-export { studyCellSchema } from '../cells/study';
+// Each kind's own schema lives in its module (shared/cells/<kind>.ts).
+export { cellIdSchema, symbolNameSchema } from '../cells/fields';
+export type { Method, BoundaryRule } from '../cells/simulation';
+export type { ProbeQuantity } from '../cells/probe';
 export { cellSchema };
 
 export const sheetDocumentSchema = z.object({

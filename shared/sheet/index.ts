@@ -4,13 +4,11 @@
  * engine plan builder, the dependencies between cells, fingerprints and cell-list operations.
  */
 export * from './document';
-export { upgradeDocument, parseSheetDocument, DocumentVersionError } from './upgrade';
+export { parseSheetDocument } from './upgrade';
 export { checkSheet } from './check';
-export { collectIssues, describeIssuePath, type CollectedIssues } from './collect-issues';
-export { SheetIssuesError, describeIssue, type SheetIssue, type CellIssue } from './issues';
+export { collectIssues } from './collect-issues';
+export { SheetIssuesError, describeIssue, type SheetIssue } from './issues';
 export { resolveParameters } from './resolve';
-export { buildSimulationPlan, stepCount } from './plan';
-export { sheetCellDependencies, transitiveDependencies } from './dependencies';
-export { stableStringify, hashText, cellFingerprint, sheetFingerprints } from './fingerprint';
-export { reservedNameProblem, TIME_NAME } from './names';
-export { isPositiveDefinite } from './correlation';
+export { buildSimulationPlan } from './plan';
+export { sheetCellDependencies } from './dependencies';
+export { stableStringify, cellFingerprint, sheetFingerprints } from './fingerprint';

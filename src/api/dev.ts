@@ -1,11 +1,9 @@
-import { healthSchema, type Health } from '@shared/api/health';
 import { mailboxSchema, type CapturedMail as CapturedMailWire } from '@shared/api/mailbox';
 import { ApiError, request, toDate } from './http';
 import { parseAnswer } from './parse';
 
-/** Development helpers: the captured-mail mailbox and the health check. */
+/** Development helpers: the captured-mail mailbox. */
 
-export type { Health } from '@shared/api/health';
 export type CapturedMail = Omit<CapturedMailWire, 'receivedAt'> & { receivedAt: Date };
 
 /**
@@ -24,8 +22,4 @@ export async function listMailbox(): Promise<CapturedMail[] | null> {
   return answer.messages
     .map((mail) => ({ ...mail, receivedAt: toDate(mail.receivedAt) }))
     .sort((a, b) => b.receivedAt.getTime() - a.receivedAt.getTime());
-}
-
-export async function fetchHealth(): Promise<Health> {
-  return parseAnswer(healthSchema, await request('/api/health'), 'the health check');
 }

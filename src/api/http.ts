@@ -77,7 +77,7 @@ function normalisePath(raw: unknown): (string | number)[] | undefined {
 
 /** Turns a non-2xx response into an ApiError, whatever its body looks like. */
 export async function errorFromResponse(response: Response, path: string): Promise<ApiError> {
-  let body: unknown = null;
+  let body: unknown;
   try {
     body = await response.json();
   } catch {
@@ -162,11 +162,6 @@ export function toDate(value: string | Date): Date {
       message: `The server sent an unreadable date: ${value}`,
     });
   return date;
-}
-
-/** True when `error` is an ApiError with the given code. */
-export function hasCode(error: unknown, code: string): error is ApiError {
-  return error instanceof ApiError && error.code === code;
 }
 
 /** A message a person can read, whatever was thrown. */

@@ -1,7 +1,7 @@
 /**
  * Meander's colours. One accent (a deep river teal), a quiet sand page, warm paper cards and ink
- * text. Cell kinds get their own edge colours so a sheet reads at a glance. The same values are
- * CSS custom properties in base.css (`--meander-*`), for plain CSS in components.
+ * text. The same values are CSS custom properties in base.css (`--meander-*`), for plain CSS in
+ * components; the edge colours of cell cards are named there too (shared/cells/colours.ts).
  */
 export const palette = {
   accent: '#1d6a64',
@@ -19,15 +19,4 @@ export const palette = {
   warning: '#9a6512',
   success: '#3b7438',
   info: '#2c5f86',
-} as const;
-
-/** Edge colour of a cell card, by cell kind. */
-export const cellKindColours = {
-  note: '#9c8b6c',
-  params: '#b07d22',
-  model: '#1d6a64',
-  simulation: '#2c5f86',
-  chart: '#5a7d36',
-  probe: '#7c4b72',
-  study: '#56656e',
 } as const;

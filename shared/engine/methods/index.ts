@@ -6,7 +6,6 @@ import { milsteinStep } from './milstein';
 import { statesMentioned, type StepSource } from './source-tools';
 
 export type { StepSource } from './source-tools';
-export { noiseShape, isZeroSource } from './source-tools';
 
 /** Additive noise (no diffusion depends on the state): Itô and Stratonovich forms coincide. */
 export function hasAdditiveNoise(model: ModelSpec): boolean {

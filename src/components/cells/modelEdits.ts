@@ -65,10 +65,6 @@ export function removeNoise(model: ModelCell, index: number): ModelCell {
   };
 }
 
-export function identityCorrelation(size: number): number[][] {
-  return Array.from({ length: size }, (_, i) => Array.from({ length: size }, (_, j) => (i === j ? 1 : 0)));
-}
-
 /** Keeps the entries that still fit; new rows and columns are uncorrelated. */
 export function resizeCorrelation(matrix: number[][], size: number): number[][] {
   return Array.from({ length: size }, (_, i) =>
