@@ -3,8 +3,7 @@ import type { SiteRole } from '@shared/api/auth';
 import { createPasswordHasher } from './auth/passwords';
 import type { Db } from './db/client';
 import { demoSheetDocuments } from './seed-sheets';
-import { createSheetsRepository } from './sheets/sheets.repository';
-import { createSheetsUsecases } from './sheets/sheets.usecases';
+import { createSheetFeatures } from './sheets/sheet-features';
 import { createUsersRepository } from './users/users.repository';
 
 export interface DemoAccount {
@@ -58,7 +57,7 @@ export async function seedDemo(db: Db): Promise<SeedResult> {
     ids.push(id);
   }
 
-  const sheets = createSheetsUsecases({ db, sheets: createSheetsRepository({ db }) });
+  const { sheets } = createSheetFeatures({ db });
   const owners = ids.slice(1);
   const documents = demoSheetDocuments();
   for (const [index, document] of documents.entries()) {

@@ -1,3 +1,4 @@
+import type { z } from 'zod';
 import { API_ERROR_CODES } from '@shared/api/errors';
 import { AppError } from '../http/app-error';
 
@@ -18,6 +19,16 @@ export const versionConflict = (currentVersion: number) =>
 
 export const invalidDocument = (message: string, path: (string | number)[]) =>
   new AppError(400, API_ERROR_CODES.invalidDocument, message, { path });
+
+/** The first issue of a document that failed the shared schema, with its path under `document`. */
+export function invalidDocumentFrom(error: z.ZodError) {
+  const issue = error.issues[0];
+  const path = [
+    'document',
+    ...(issue?.path ?? []).map((key) => (typeof key === 'symbol' ? String(key) : key)),
+  ];
+  return invalidDocument(`${path.join('.')}: ${issue?.message ?? 'not a valid sheet document'}`, path);
+}
 
 /** A caller who may see the sheet but lacks the role for this action (once sheets are shared). */
 export const sheetForbidden = (needed: string) =>

@@ -10,6 +10,7 @@ const sheetColumns = {
   title: sheets.title,
   currentVersion: sheets.currentVersion,
   forkedFrom: sheets.forkedFrom,
+  forkedFromVersion: sheets.forkedFromVersion,
   createdAt: sheets.createdAt,
   updatedAt: sheets.updatedAt,
 };
@@ -26,7 +27,13 @@ const versionSummaryColumns = {
 /** Queries on sheets and their versions (deleted sheets are invisible here); rules live in the usecases. */
 export function createSheetsRepository({ db }: { db: DbExecutor }) {
   return {
-    async insertSheet(sheet: { id: string; ownerId: string; title: string; forkedFrom?: string | null }) {
+    async insertSheet(sheet: {
+      id: string;
+      ownerId: string;
+      title: string;
+      forkedFrom?: string | null;
+      forkedFromVersion?: number | null;
+    }) {
       const [row] = await db
         .insert(sheets)
         .values({ ...sheet, currentVersion: 1 })
@@ -97,6 +104,7 @@ export function createSheetsRepository({ db }: { db: DbExecutor }) {
           ...versionSummaryColumns,
           document: sheetVersions.document,
           digests: sheetVersions.digests,
+          engineVersion: sheetVersions.engineVersion,
         })
         .from(sheetVersions)
         .innerJoin(users, eq(users.id, sheetVersions.authorId))

@@ -7,14 +7,16 @@ import type {
   SheetDetail,
   SheetList,
   VersionDetail,
+  VersionDigests,
   VersionList,
 } from '@shared/api/sheets';
+import { ENGINE_VERSION } from '@shared/engine/version';
 import { emptySheetDocument, sheetDocumentSchema, type SheetDocument } from '@shared/sheet/document';
-import type { Db } from '../db/client';
-import { zodIssueToBadRequest } from '../http/validate';
-import { createSheetsRepository, type SheetRecord, type SheetsRepository } from './sheets.repository';
+import type { Transact } from '../db/transact';
+import type { SheetRecord, SheetsRepository } from './sheets.repository';
 import {
   invalidDocument,
+  invalidDocumentFrom,
   sheetForbidden,
   sheetNotFound,
   versionConflict,
@@ -54,12 +56,7 @@ export function requireSheetRole(
 export function parseSheetDocument(document: unknown): SheetDocument {
   const result = sheetDocumentSchema.safeParse(document);
   if (result.success) return result.data;
-  const generic = zodIssueToBadRequest(result.error, 'document');
-  const path = ['document', ...((generic.details.path as (string | number)[] | undefined) ?? [])];
-  throw invalidDocument(
-    `${path.join('.')}: ${result.error.issues[0]?.message ?? 'not a valid sheet document'}`,
-    path,
-  );
+  throw invalidDocumentFrom(result.error);
 }
 
 function checkDigests(document: SheetDocument, digests: Record<string, string>) {
@@ -76,45 +73,63 @@ function checkDigests(document: SheetDocument, digests: Record<string, string>) 
   }
 }
 
+/** The engine version stored beside digests: none without digests (the table's check says so). */
+function digestsEngineVersion(digests: VersionDigests, claimed: number | undefined): number | null {
+  return Object.keys(digests).length === 0 ? null : (claimed ?? ENGINE_VERSION);
+}
+
 function withTitle(document: unknown, title: string): unknown {
   return document && typeof document === 'object' ? { ...document, title } : document;
 }
 
-export interface SheetsUsecaseDeps {
-  db: Db;
+/** The repositories a sheet usecase may use inside one transaction. */
+export interface SheetRepositories {
   sheets: SheetsRepository;
+}
+
+export interface SheetsUsecaseDeps {
+  sheets: SheetsRepository;
+  /** Runs work in a transaction with repositories bound to it (see server/db/transact.ts). */
+  transact: Transact<SheetRepositories>;
   now?: () => Date;
 }
 
-export function createSheetsUsecases({ db, sheets, now = () => new Date() }: SheetsUsecaseDeps) {
+export function createSheetsUsecases({ sheets, transact, now = () => new Date() }: SheetsUsecaseDeps) {
   return {
-    /** A new sheet with its version 1; the document's title follows the sheet's. */
-    async createSheet(
-      user: SheetActor,
-      input: CreateSheetRequest & { forkedFrom?: string },
-    ): Promise<CreatedSheet> {
+    /**
+     * A new sheet with its version 1; the document's title follows the sheet's. With
+     * `forkedFrom`, the caller must be able to read that sheet and version; it is stored as the
+     * new sheet's lineage.
+     */
+    async createSheet(user: SheetActor, input: CreateSheetRequest): Promise<CreatedSheet> {
       const document = parseSheetDocument(
         input.document === undefined
           ? emptySheetDocument(input.title)
           : withTitle(input.document, input.title),
       );
       const id = generateIdFromEntropySize(10);
-      await db.transaction(async (tx) => {
-        const txSheets = createSheetsRepository({ db: tx });
-        await txSheets.insertSheet({
+      await transact(async (repositories) => {
+        const source = input.forkedFrom;
+        if (source) {
+          const sheet = requireSheetRole(await repositories.sheets.findById(source.sheetId), user, 'viewer');
+          if (!(await repositories.sheets.findVersion(sheet.id, source.version))) throw versionNotFound();
+        }
+        await repositories.sheets.insertSheet({
           id,
           ownerId: user.id,
           title: input.title,
-          forkedFrom: input.forkedFrom ?? null,
+          forkedFrom: source?.sheetId ?? null,
+          forkedFromVersion: source?.version ?? null,
         });
-        await txSheets.insertVersion({
+        await repositories.sheets.insertVersion({
           sheetId: id,
           number: 1,
           document,
           authorId: user.id,
-          message: input.forkedFrom ? 'Forked' : 'Created',
+          message: source ? 'Forked' : 'Created',
           parentNumber: null,
           digests: {},
+          engineVersion: null,
         });
       });
       return { id, title: input.title, version: 1 };
@@ -128,6 +143,7 @@ export function createSheetsUsecases({ db, sheets, now = () => new Date() }: She
           title: row.title,
           version: row.currentVersion,
           forkedFrom: row.forkedFrom,
+          forkedFromVersion: row.forkedFromVersion,
           createdAt: row.createdAt.toISOString(),
           updatedAt: row.updatedAt.toISOString(),
         })),
@@ -144,9 +160,11 @@ export function createSheetsUsecases({ db, sheets, now = () => new Date() }: She
         owner: { id: sheet.ownerId, name: sheet.ownerName },
         version: sheet.currentVersion,
         forkedFrom: sheet.forkedFrom,
+        forkedFromVersion: sheet.forkedFromVersion,
         // A rename changes the sheet, not its immutable versions: the title shown is the sheet's.
         document: withTitle(version.document, sheet.title),
         digests: version.digests,
+        engineVersion: version.engineVersion,
         createdAt: sheet.createdAt.toISOString(),
         updatedAt: sheet.updatedAt.toISOString(),
       };
@@ -176,12 +194,11 @@ export function createSheetsUsecases({ db, sheets, now = () => new Date() }: She
       const document = parseSheetDocument(input.document);
       const digests = input.digests ?? {};
       checkDigests(document, digests);
-      return db.transaction(async (tx) => {
-        const txSheets = createSheetsRepository({ db: tx });
-        const sheet = requireSheetRole(await txSheets.findByIdForUpdate(sheetId), user, 'editor');
+      return transact(async (repositories) => {
+        const sheet = requireSheetRole(await repositories.sheets.findByIdForUpdate(sheetId), user, 'editor');
         if (input.baseVersion !== sheet.currentVersion) throw versionConflict(sheet.currentVersion);
         const number = sheet.currentVersion + 1;
-        await txSheets.insertVersion({
+        await repositories.sheets.insertVersion({
           sheetId: sheet.id,
           number,
           document,
@@ -189,8 +206,13 @@ export function createSheetsUsecases({ db, sheets, now = () => new Date() }: She
           message: input.message,
           parentNumber: input.baseVersion,
           digests,
+          engineVersion: digestsEngineVersion(digests, input.engineVersion),
         });
-        await txSheets.advance(sheet.id, { currentVersion: number, title: document.title, at: now() });
+        await repositories.sheets.advance(sheet.id, {
+          currentVersion: number,
+          title: document.title,
+          at: now(),
+        });
         return { number };
       });
     },
@@ -221,6 +243,7 @@ export function createSheetsUsecases({ db, sheets, now = () => new Date() }: She
         createdAt: row.createdAt.toISOString(),
         document: row.document,
         digests: row.digests,
+        engineVersion: row.engineVersion,
       };
     },
   };
