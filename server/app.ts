@@ -57,7 +57,7 @@ export function createApp(deps: AppDeps): Express {
     signInLimiter: deps.signInLimiter ?? createRateLimiter(SIGN_IN_LIMIT),
     report,
   });
-  const sheetFeatures = createSheetFeatures({ db });
+  const sheetFeatures = createSheetFeatures({ db, mailer, report });
   const admin = createAdminUsecases({
     users,
     transact: createTransact(db, (tx) => createUsersRepository({ db: tx })),
@@ -75,7 +75,7 @@ export function createApp(deps: AppDeps): Express {
   api.use('/auth', authRoutes({ auth, appOrigin: config.appOrigin }));
   api.use('/account', accountRoutes({ auth }));
   api.use('/admin', adminRoutes({ admin }));
-  api.use(sheetFeatureRoutes(sheetFeatures));
+  api.use(sheetFeatureRoutes(sheetFeatures, { appOrigin: config.appOrigin }));
   if (deps.mailbox && config.nodeEnv !== 'production') api.use('/dev', devRoutes({ mailbox: deps.mailbox }));
   api.use((_req, _res, next) => next(routeNotFound()));
   app.use('/api', api);

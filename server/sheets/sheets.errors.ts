@@ -1,5 +1,6 @@
 import type { z } from 'zod';
 import { API_ERROR_CODES } from '@shared/api/errors';
+import { refusalMessage, SHEET_FORBIDDEN, type SheetAction, type SheetRole } from '@shared/api/rights';
 import { AppError } from '../http/app-error';
 
 /** Also what a sheet the caller may not see answers: its existence is not revealed. */
@@ -30,6 +31,9 @@ export function invalidDocumentFrom(error: z.ZodError) {
   return invalidDocument(`${path.join('.')}: ${issue?.message ?? 'not a valid sheet document'}`, path);
 }
 
-/** A caller who may see the sheet but lacks the role for this action (once sheets are shared). */
-export const sheetForbidden = (needed: string) =>
-  new AppError(403, API_ERROR_CODES.forbidden, `This needs the ${needed} role on the sheet.`);
+/** A caller who may read the sheet but whose role does not allow this action. */
+export const sheetForbidden = (role: SheetRole, action: SheetAction) =>
+  new AppError(403, SHEET_FORBIDDEN, refusalMessage(role, action), { role, action });
+
+export const restoreCurrentVersion = () =>
+  new AppError(400, 'sheets.restore_current', 'This is already the current version.');

@@ -31,7 +31,10 @@ export const sheets = pgTable(
     /** Soft delete: versions stay for forks that point here; the sheet is gone for everyone. */
     deletedAt: timestamp('deleted_at', { withTimezone: true }),
   },
-  (table) => [index('sheets_owner_updated_idx').on(table.ownerId, table.updatedAt)],
+  (table) => [
+    index('sheets_owner_updated_idx').on(table.ownerId, table.updatedAt),
+    index('sheets_forked_from_idx').on(table.forkedFrom),
+  ],
 );
 
 /** Immutable: rows are only ever inserted. */

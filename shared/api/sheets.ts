@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { ENGINE_VERSION } from '../engine/version';
 import { cellIdSchema } from '../sheet/document';
+import { SHEET_ROLES } from './rights';
 
 /**
  * Payloads of /api/sheets/*. The document itself is checked with `sheetDocumentSchema` by the
@@ -77,9 +78,15 @@ export type SavedVersion = z.infer<typeof savedVersionSchema>;
  * schemas only so that client code and fixtures written before them still type-check, and
  * become required once the client reads them.
  */
+const callerRoleSchema = z.enum(SHEET_ROLES);
+
 export const sheetSummarySchema = z.object({
   id: z.string(),
   title: z.string(),
+  /** The caller's role on the sheet (always sent). */
+  role: callerRoleSchema.optional(),
+  /** Always sent. */
+  owner: z.object({ id: z.string(), name: z.string() }).optional(),
   version: z.number().int(),
   forkedFrom: z.string().nullable(),
   /** The version of `forkedFrom` this sheet was made from (always sent). */
@@ -92,10 +99,26 @@ export type SheetSummary = z.infer<typeof sheetSummarySchema>;
 export const sheetListSchema = z.object({ sheets: z.array(sheetSummarySchema) });
 export type SheetList = z.infer<typeof sheetListSchema>;
 
+/** Where a fork came from; the title is the one of the version forked. */
+export const forkSourceSchema = z.object({
+  sheetId: z.string(),
+  title: z.string(),
+  version: z.number().int(),
+  /** False once the source is deleted or no longer shared with the caller. */
+  canRead: z.boolean(),
+});
+export type ForkSource = z.infer<typeof forkSourceSchema>;
+
 export const sheetDetailSchema = z.object({
   id: z.string(),
   title: z.string(),
   owner: z.object({ id: z.string(), name: z.string() }),
+  /** The caller's role on the sheet (always sent). */
+  role: callerRoleSchema.optional(),
+  /** Always sent. */
+  forkSource: forkSourceSchema.nullable().optional(),
+  /** Forks of this sheet the caller can read (always sent). */
+  forkCount: z.number().int().optional(),
   version: z.number().int(),
   forkedFrom: z.string().nullable(),
   /** Always sent. */
@@ -129,3 +152,21 @@ export const versionDetailSchema = versionSummarySchema.extend({
   engineVersion: z.number().int().nullable().optional(),
 });
 export type VersionDetail = z.infer<typeof versionDetailSchema>;
+
+export const forkRequestSchema = z.object({
+  /** The version to copy; the current one when omitted. */
+  version: versionNumberSchema.optional(),
+  title: sheetTitleSchema.optional(),
+});
+export type ForkRequest = z.infer<typeof forkRequestSchema>;
+
+export const forkListSchema = z.object({ forks: z.array(sheetSummarySchema) });
+export type ForkList = z.infer<typeof forkListSchema>;
+
+/** GET /api/sheets/:id/head: cheap to poll; answers 304 to a matching If-None-Match. */
+export const sheetHeadSchema = z.object({
+  version: z.number().int(),
+  title: z.string(),
+  updatedAt: z.string(),
+});
+export type SheetHead = z.infer<typeof sheetHeadSchema>;
