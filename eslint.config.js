@@ -29,7 +29,10 @@ export default tseslint.config(
     },
     rules: {
       // The type checker reports unused names (noUnusedLocals); leading "_" marks an intended one.
-      '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_' }],
+      '@typescript-eslint/no-unused-vars': [
+        'error',
+        { argsIgnorePattern: '^_', varsIgnorePattern: '^_', ignoreRestSiblings: true },
+      ],
       // `declare global { namespace Express … }` is how Express's own types are extended.
       '@typescript-eslint/no-namespace': ['error', { allowDeclarations: true }],
       // Formatting belongs to prettier.

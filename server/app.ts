@@ -12,6 +12,7 @@ import { createRateLimiter, type RateLimiter, SIGN_IN_LIMIT } from './auth/rate-
 import { loadSession } from './auth/session-middleware';
 import type { AppConfig } from './config';
 import type { Db } from './db/client';
+import { createTransact } from './db/transact';
 import { devRoutes } from './dev/dev.routes';
 import { requireSameOrigin } from './http/csrf';
 import { errorMiddleware, type ErrorReporter } from './http/error-middleware';
@@ -20,9 +21,7 @@ import { routeNotFound } from './http/http.errors';
 import { securityHeaders } from './http/security-headers';
 import type { MailboxReader } from './mail/mail-fake';
 import type { Mailer } from './mail/mailer';
-import { createSheetsRepository } from './sheets/sheets.repository';
-import { sheetsRoutes } from './sheets/sheets.routes';
-import { createSheetsUsecases } from './sheets/sheets.usecases';
+import { createSheetFeatures, sheetFeatureRoutes } from './sheets/sheet-features';
 import { createUsersRepository } from './users/users.repository';
 
 export interface AppDeps {
@@ -58,8 +57,11 @@ export function createApp(deps: AppDeps): Express {
     signInLimiter: deps.signInLimiter ?? createRateLimiter(SIGN_IN_LIMIT),
     report,
   });
-  const sheets = createSheetsUsecases({ db, sheets: createSheetsRepository({ db }) });
-  const admin = createAdminUsecases({ db, users });
+  const sheetFeatures = createSheetFeatures({ db, mailer, report });
+  const admin = createAdminUsecases({
+    users,
+    transact: createTransact(db, (tx) => createUsersRepository({ db: tx })),
+  });
 
   const app = express();
   app.disable('x-powered-by');
@@ -73,7 +75,7 @@ export function createApp(deps: AppDeps): Express {
   api.use('/auth', authRoutes({ auth, appOrigin: config.appOrigin }));
   api.use('/account', accountRoutes({ auth }));
   api.use('/admin', adminRoutes({ admin }));
-  api.use('/sheets', sheetsRoutes({ sheets }));
+  api.use(sheetFeatureRoutes(sheetFeatures, { appOrigin: config.appOrigin }));
   if (deps.mailbox && config.nodeEnv !== 'production') api.use('/dev', devRoutes({ mailbox: deps.mailbox }));
   api.use((_req, _res, next) => next(routeNotFound()));
   app.use('/api', api);

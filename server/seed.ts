@@ -2,9 +2,10 @@ import { generateIdFromEntropySize } from 'lucia';
 import type { SiteRole } from '@shared/api/auth';
 import { createPasswordHasher } from './auth/passwords';
 import type { Db } from './db/client';
+import type { Mailer } from './mail/mailer';
+import { seedDemoGroup } from './seed-group';
 import { demoSheetDocuments } from './seed-sheets';
-import { createSheetsRepository } from './sheets/sheets.repository';
-import { createSheetsUsecases } from './sheets/sheets.usecases';
+import { createSheetFeatures } from './sheets/sheet-features';
 import { createUsersRepository } from './users/users.repository';
 
 export interface DemoAccount {
@@ -27,6 +28,12 @@ export const DEMO_ACCOUNTS: readonly DemoAccount[] = [
     role: 'member',
   },
   { email: 'tomas.abara@example.test', name: 'Tomás Abara', password: 'meander-member-demo', role: 'member' },
+  {
+    email: 'aino.kettunen@example.test',
+    name: 'Aino Kettunen',
+    password: 'meander-member-demo',
+    role: 'member',
+  },
 ];
 
 export interface SeedResult {
@@ -36,11 +43,21 @@ export interface SeedResult {
   sheetCount: number;
 }
 
+export interface SeedOptions {
+  /** Sends the demo's mail (the pending invitation, comment notices); without it none goes out. */
+  mailer?: Mailer;
+  /** Where links in that mail point. */
+  appOrigin?: string;
+}
+
+const noMail: Mailer = { send: async () => undefined };
+
 /**
  * Demo accounts and sheets on an empty site; a site that has any user is left alone. The demo
- * sheets go to the members in turn, so each has something to open.
+ * sheets go to the first two members in turn, so each has something to open; the first sheet is
+ * the demo research group's shared sheet (seed-group.ts).
  */
-export async function seedDemo(db: Db): Promise<SeedResult> {
+export async function seedDemo(db: Db, options: SeedOptions = {}): Promise<SeedResult> {
   const users = createUsersRepository({ db });
   if ((await users.countAll()) > 0) return { seeded: false, accounts: DEMO_ACCOUNTS, sheetCount: 0 };
 
@@ -58,12 +75,25 @@ export async function seedDemo(db: Db): Promise<SeedResult> {
     ids.push(id);
   }
 
-  const sheets = createSheetsUsecases({ db, sheets: createSheetsRepository({ db }) });
-  const owners = ids.slice(1);
+  const features = createSheetFeatures({
+    db,
+    mailer: options.mailer ?? noMail,
+    report: (error) => process.stderr.write(`[meander] demo mail failed: ${String(error)}\n`),
+  });
+  const [, maren, tomas, aino] = ids.map((id, index) => ({ id, email: DEMO_ACCOUNTS[index]!.email }));
+  const owners = [maren!, tomas!];
   const documents = demoSheetDocuments();
+  const created: string[] = [];
   for (const [index, document] of documents.entries()) {
-    const ownerId = owners[index % owners.length]!;
-    await sheets.createSheet({ id: ownerId }, { title: document.title, document });
+    const owner = owners[index % owners.length]!;
+    created.push((await features.sheets.createSheet(owner, { title: document.title, document })).id);
   }
-  return { seeded: true, accounts: DEMO_ACCOUNTS, sheetCount: documents.length };
+  await seedDemoGroup(
+    features,
+    { owner: maren!, editor: tomas!, commenter: aino! },
+    created[0]!,
+    options.appOrigin ?? 'http://127.0.0.1:3000',
+  );
+  // The editor's fork is a sheet too.
+  return { seeded: true, accounts: DEMO_ACCOUNTS, sheetCount: documents.length + 1 };
 }

@@ -45,7 +45,6 @@ export async function startServices(env: Env, log: (line: string) => void): Prom
     const database = connectDatabase(url);
     stops.push(() => database.close());
     await migrate(database.db);
-    const seed = await seedDemo(database.db);
 
     let mailFake: MailFake | undefined;
     if (env.NODE_ENV !== 'production' && LOOPBACK.has(env.SMTP_HOST)) {
@@ -58,6 +57,11 @@ export async function startServices(env: Env, log: (line: string) => void): Prom
       from: env.MAIL_FROM,
     });
     stops.push(async () => mailer.close());
+    // After the mailer: the demo's pending invitation goes out as mail.
+    const seed = await seedDemo(database.db, {
+      mailer,
+      appOrigin: env.APP_ORIGIN ?? `http://127.0.0.1:${env.PORT}`,
+    });
     return { database, mailer, mailFake, seed, stop: stopAll };
   } catch (error) {
     await stopAll();

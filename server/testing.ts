@@ -51,7 +51,7 @@ export async function startTestServer(options: TestServerOptions): Promise<TestS
   });
   try {
     await migrate(database.db);
-    await seedDemo(database.db);
+    await seedDemo(database.db, { mailer });
     const server = await listen(
       {
         db: database.db,

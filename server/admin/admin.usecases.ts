@@ -1,7 +1,7 @@
 import type { AdminUser, AdminUserList, AdminUserListQuery } from '@shared/api/admin';
 import type { SiteRole } from '@shared/api/auth';
-import type { Db } from '../db/client';
-import { createUsersRepository, type UsersRepository } from '../users/users.repository';
+import type { Transact } from '../db/transact';
+import type { UsersRepository } from '../users/users.repository';
 import type { UserRow } from '../users/users.table';
 import { lastAdmin, userNotFound } from './admin.errors';
 
@@ -16,7 +16,13 @@ function toAdminUser(row: Pick<UserRow, 'id' | 'email' | 'name' | 'role' | 'crea
 }
 
 /** Site administration. Callers are checked for the admin role by the routes. */
-export function createAdminUsecases({ db, users }: { db: Db; users: UsersRepository }) {
+export interface AdminUsecaseDeps {
+  users: UsersRepository;
+  /** Runs work in a transaction with a users repository bound to it. */
+  transact: Transact<UsersRepository>;
+}
+
+export function createAdminUsecases({ users, transact }: AdminUsecaseDeps) {
   return {
     async listUsers(query: AdminUserListQuery): Promise<AdminUserList> {
       const { rows, total } = await users.list({
@@ -29,8 +35,7 @@ export function createAdminUsecases({ db, users }: { db: Db; users: UsersReposit
 
     /** The site always keeps at least one admin: the admin rows are locked while this checks. */
     async setRole(userId: string, role: SiteRole): Promise<AdminUser> {
-      return db.transaction(async (tx) => {
-        const txUsers = createUsersRepository({ db: tx });
+      return transact(async (txUsers) => {
         const admins = await txUsers.lockAdmins();
         const target = await txUsers.findById(userId);
         if (!target) throw userNotFound();

@@ -3,3 +3,5 @@ export * from '../users/users.table';
 export * from '../auth/sessions.table';
 export * from '../auth/password-resets.table';
 export * from '../sheets/sheets.table';
+export * from '../shares/shares.table';
+export * from '../comments/comments.table';

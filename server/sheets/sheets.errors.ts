@@ -1,4 +1,6 @@
+import type { z } from 'zod';
 import { API_ERROR_CODES } from '@shared/api/errors';
+import { refusalMessage, SHEET_FORBIDDEN, type SheetAction, type SheetRole } from '@shared/api/rights';
 import { AppError } from '../http/app-error';
 
 /** Also what a sheet the caller may not see answers: its existence is not revealed. */
@@ -19,6 +21,19 @@ export const versionConflict = (currentVersion: number) =>
 export const invalidDocument = (message: string, path: (string | number)[]) =>
   new AppError(400, API_ERROR_CODES.invalidDocument, message, { path });
 
-/** A caller who may see the sheet but lacks the role for this action (once sheets are shared). */
-export const sheetForbidden = (needed: string) =>
-  new AppError(403, API_ERROR_CODES.forbidden, `This needs the ${needed} role on the sheet.`);
+/** The first issue of a document that failed the shared schema, with its path under `document`. */
+export function invalidDocumentFrom(error: z.ZodError) {
+  const issue = error.issues[0];
+  const path = [
+    'document',
+    ...(issue?.path ?? []).map((key) => (typeof key === 'symbol' ? String(key) : key)),
+  ];
+  return invalidDocument(`${path.join('.')}: ${issue?.message ?? 'not a valid sheet document'}`, path);
+}
+
+/** A caller who may read the sheet but whose role does not allow this action. */
+export const sheetForbidden = (role: SheetRole, action: SheetAction) =>
+  new AppError(403, SHEET_FORBIDDEN, refusalMessage(role, action), { role, action });
+
+export const restoreCurrentVersion = () =>
+  new AppError(400, 'sheets.restore_current', 'This is already the current version.');

@@ -1,8 +1,10 @@
-import { and, desc, eq, isNull } from 'drizzle-orm';
+import { and, desc, eq, isNull, or, sql } from 'drizzle-orm';
 import type { DbExecutor } from '../db/client';
+import { sheetShares } from '../shares/shares.table';
 import { users } from '../users/users.table';
 import { sheets, sheetVersions, type SheetVersionRow } from './sheets.table';
 
+/** A sheet as its usecases see it, with the role shared with the asking user (null: none). */
 const sheetColumns = {
   id: sheets.id,
   ownerId: sheets.ownerId,
@@ -10,8 +12,10 @@ const sheetColumns = {
   title: sheets.title,
   currentVersion: sheets.currentVersion,
   forkedFrom: sheets.forkedFrom,
+  forkedFromVersion: sheets.forkedFromVersion,
   createdAt: sheets.createdAt,
   updatedAt: sheets.updatedAt,
+  sharedRole: sheetShares.role,
 };
 
 const versionSummaryColumns = {
@@ -23,10 +27,26 @@ const versionSummaryColumns = {
   createdAt: sheetVersions.createdAt,
 };
 
+/** Sheets the user owns or has a share on. */
+const visibleTo = (userId: string) => or(eq(sheets.ownerId, userId), eq(sheetShares.userId, userId));
+
 /** Queries on sheets and their versions (deleted sheets are invisible here); rules live in the usecases. */
 export function createSheetsRepository({ db }: { db: DbExecutor }) {
+  const selectForUser = (userId: string) =>
+    db
+      .select(sheetColumns)
+      .from(sheets)
+      .innerJoin(users, eq(users.id, sheets.ownerId))
+      .leftJoin(sheetShares, and(eq(sheetShares.sheetId, sheets.id), eq(sheetShares.userId, userId)));
+
   return {
-    async insertSheet(sheet: { id: string; ownerId: string; title: string; forkedFrom?: string | null }) {
+    async insertSheet(sheet: {
+      id: string;
+      ownerId: string;
+      title: string;
+      forkedFrom?: string | null;
+      forkedFromVersion?: number | null;
+    }) {
       const [row] = await db
         .insert(sheets)
         .values({ ...sheet, currentVersion: 1 })
@@ -34,33 +54,53 @@ export function createSheetsRepository({ db }: { db: DbExecutor }) {
       return row!;
     },
 
-    async findById(id: string) {
-      const [row] = await db
-        .select(sheetColumns)
-        .from(sheets)
-        .innerJoin(users, eq(users.id, sheets.ownerId))
-        .where(and(eq(sheets.id, id), isNull(sheets.deletedAt)));
+    /** The sheet with the role shared with `userId` (the caller decides what it allows). */
+    async findForUser(id: string, userId: string) {
+      const [row] = await selectForUser(userId).where(and(eq(sheets.id, id), isNull(sheets.deletedAt)));
       return row ?? null;
     },
 
     /** Locks the sheet row until the transaction ends: saves of one sheet happen one at a time. */
-    async findByIdForUpdate(id: string) {
-      const [row] = await db
-        .select(sheetColumns)
-        .from(sheets)
-        .innerJoin(users, eq(users.id, sheets.ownerId))
+    async findForUserForUpdate(id: string, userId: string) {
+      const [row] = await selectForUser(userId)
         .where(and(eq(sheets.id, id), isNull(sheets.deletedAt)))
         .for('update', { of: sheets });
       return row ?? null;
     },
 
-    async listByOwner(ownerId: string) {
-      return db
-        .select(sheetColumns)
-        .from(sheets)
-        .innerJoin(users, eq(users.id, sheets.ownerId))
-        .where(and(eq(sheets.ownerId, ownerId), isNull(sheets.deletedAt)))
+    /** The user's own sheets and those shared with them, newest change first. */
+    async listForUser(userId: string) {
+      return selectForUser(userId)
+        .where(and(visibleTo(userId), isNull(sheets.deletedAt)))
         .orderBy(desc(sheets.updatedAt), sheets.id);
+    },
+
+    /** Forks of a sheet that the user can read. */
+    async listForksForUser(sourceId: string, userId: string) {
+      return selectForUser(userId)
+        .where(and(eq(sheets.forkedFrom, sourceId), visibleTo(userId), isNull(sheets.deletedAt)))
+        .orderBy(desc(sheets.createdAt), sheets.id);
+    },
+
+    /**
+     * Where a fork came from, even when the source is deleted: its id, the title of the version
+     * forked (the fork holds a copy of that document anyway) and whether `userId` can read it.
+     */
+    async findForkSource(sourceId: string, version: number, userId: string) {
+      const [row] = await db
+        .select({
+          sheetId: sheets.id,
+          title: sql<string>`${sheetVersions.document} ->> 'title'`,
+          canRead: sql<boolean>`${sheets.deletedAt} is null and (${sheets.ownerId} = ${userId} or ${sheetShares.userId} is not null)`,
+        })
+        .from(sheets)
+        .innerJoin(
+          sheetVersions,
+          and(eq(sheetVersions.sheetId, sheets.id), eq(sheetVersions.number, version)),
+        )
+        .leftJoin(sheetShares, and(eq(sheetShares.sheetId, sheets.id), eq(sheetShares.userId, userId)))
+        .where(eq(sheets.id, sourceId));
+      return row ?? null;
     },
 
     async rename(id: string, title: string, at: Date) {
@@ -72,6 +112,10 @@ export function createSheetsRepository({ db }: { db: DbExecutor }) {
         .update(sheets)
         .set({ currentVersion: change.currentVersion, title: change.title, updatedAt: change.at })
         .where(eq(sheets.id, id));
+    },
+
+    async setOwner(id: string, ownerId: string, at: Date) {
+      await db.update(sheets).set({ ownerId, updatedAt: at }).where(eq(sheets.id, id));
     },
 
     async softDelete(id: string, at: Date) {
@@ -97,6 +141,7 @@ export function createSheetsRepository({ db }: { db: DbExecutor }) {
           ...versionSummaryColumns,
           document: sheetVersions.document,
           digests: sheetVersions.digests,
+          engineVersion: sheetVersions.engineVersion,
         })
         .from(sheetVersions)
         .innerJoin(users, eq(users.id, sheetVersions.authorId))
@@ -107,5 +152,5 @@ export function createSheetsRepository({ db }: { db: DbExecutor }) {
 }
 
 export type SheetsRepository = ReturnType<typeof createSheetsRepository>;
-export type SheetRecord = NonNullable<Awaited<ReturnType<SheetsRepository['findById']>>>;
+export type SheetRecord = NonNullable<Awaited<ReturnType<SheetsRepository['findForUser']>>>;
 export type VersionRecord = NonNullable<Awaited<ReturnType<SheetsRepository['findVersion']>>>;

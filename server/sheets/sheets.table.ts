@@ -1,5 +1,7 @@
+import { sql } from 'drizzle-orm';
 import {
   type AnyPgColumn,
+  check,
   index,
   integer,
   jsonb,
@@ -22,12 +24,17 @@ export const sheets = pgTable(
     /** Number of the newest version; versions are numbered 1, 2, 3 … per sheet. */
     currentVersion: integer('current_version').notNull().default(1),
     forkedFrom: text('forked_from').references((): AnyPgColumn => sheets.id, { onDelete: 'set null' }),
+    /** The source's version the fork (or a "save mine as a new sheet" copy) was made from. */
+    forkedFromVersion: integer('forked_from_version'),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
     /** Soft delete: versions stay for forks that point here; the sheet is gone for everyone. */
     deletedAt: timestamp('deleted_at', { withTimezone: true }),
   },
-  (table) => [index('sheets_owner_updated_idx').on(table.ownerId, table.updatedAt)],
+  (table) => [
+    index('sheets_owner_updated_idx').on(table.ownerId, table.updatedAt),
+    index('sheets_forked_from_idx').on(table.forkedFrom),
+  ],
 );
 
 /** Immutable: rows are only ever inserted. */
@@ -47,9 +54,20 @@ export const sheetVersions = pgTable(
     /** The version this one was based on; null for the first. */
     parentNumber: integer('parent_number'),
     digests: jsonb('digests').$type<VersionDigests>().notNull().default({}),
+    /**
+     * ENGINE_VERSION of the engine that made the digests (shared/engine/version.ts); null exactly
+     * when there are none. Digests compare bit for bit only under the same engine version.
+     */
+    engineVersion: integer('engine_version'),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
-  (table) => [primaryKey({ name: 'sheet_versions_sheet_number_pk', columns: [table.sheetId, table.number] })],
+  (table) => [
+    primaryKey({ name: 'sheet_versions_sheet_number_pk', columns: [table.sheetId, table.number] }),
+    check(
+      'sheet_versions_digests_engine_version',
+      sql`(${table.digests} = '{}'::jsonb) = (${table.engineVersion} is null)`,
+    ),
+  ],
 );
 
 export type SheetRow = typeof sheets.$inferSelect;

@@ -5,62 +5,37 @@ import type {
   SavedVersion,
   SaveVersionRequest,
   SheetDetail,
+  SheetHead,
   SheetList,
+  SheetSummary,
   VersionDetail,
+  VersionDigests,
   VersionList,
 } from '@shared/api/sheets';
+import { ENGINE_VERSION } from '@shared/engine/version';
 import { emptySheetDocument, type SheetDocument } from '@shared/sheet/document';
 import { parseSheetDocument as upgradeAndParse } from '@shared/sheet/upgrade';
-import type { Db } from '../db/client';
-import { zodIssueToBadRequest } from '../http/validate';
-import { createSheetsRepository, type SheetRecord, type SheetsRepository } from './sheets.repository';
+import type { CommentsRepository } from '../comments/comments.repository';
+import type { Transact } from '../db/transact';
+import type { SharesRepository } from '../shares/shares.repository';
+import type { UsersRepository } from '../users/users.repository';
+import { requireRight, roleOn, type SheetActor } from './sheet-rights';
+import type { SheetRecord, SheetsRepository } from './sheets.repository';
 import {
   invalidDocument,
-  sheetForbidden,
-  sheetNotFound,
+  invalidDocumentFrom,
+  restoreCurrentVersion,
   versionConflict,
   versionNotFound,
 } from './sheets.errors';
 
-/** Roles on a sheet, weakest first. */
-export const SHEET_ROLES = ['viewer', 'commenter', 'editor', 'owner'] as const;
-export type SheetRole = (typeof SHEET_ROLES)[number];
-
-export interface SheetActor {
-  id: string;
-}
-
-/** The caller's role on a sheet, or null. Owner only for now; shares add the other roles. */
-export function sheetRoleOf(sheet: Pick<SheetRecord, 'ownerId'>, user: SheetActor): SheetRole | null {
-  return sheet.ownerId === user.id ? 'owner' : null;
-}
-
-/**
- * The one place that decides who may do what with a sheet. A caller without any role gets 404,
- * as if the sheet did not exist; one who may see it but needs a stronger role gets 403.
- */
-export function requireSheetRole(
-  sheet: SheetRecord | null,
-  user: SheetActor,
-  needed: SheetRole,
-): SheetRecord {
-  if (!sheet) throw sheetNotFound();
-  const role = sheetRoleOf(sheet, user);
-  if (!role) throw sheetNotFound();
-  if (SHEET_ROLES.indexOf(role) < SHEET_ROLES.indexOf(needed)) throw sheetForbidden(needed);
-  return sheet;
-}
+export type { SheetActor };
 
 /** Checks a document with the shared schema; the 400 names the path of the first issue. */
 export function parseSheetDocument(document: unknown): SheetDocument {
   const result = upgradeAndParse(document);
   if (result.success) return result.data;
-  const generic = zodIssueToBadRequest(result.error, 'document');
-  const path = ['document', ...((generic.details.path as (string | number)[] | undefined) ?? [])];
-  throw invalidDocument(
-    `${path.join('.')}: ${result.error.issues[0]?.message ?? 'not a valid sheet document'}`,
-    path,
-  );
+  throw invalidDocumentFrom(result.error);
 }
 
 function checkDigests(document: SheetDocument, digests: Record<string, string>) {
@@ -77,22 +52,54 @@ function checkDigests(document: SheetDocument, digests: Record<string, string>) 
   }
 }
 
-function withTitle(document: unknown, title: string): unknown {
+/** The engine version stored beside digests: none without digests (the table's check says so). */
+function digestsEngineVersion(digests: VersionDigests, claimed: number | undefined): number | null {
+  return Object.keys(digests).length === 0 ? null : (claimed ?? ENGINE_VERSION);
+}
+
+export function withTitle(document: unknown, title: string): unknown {
   return document && typeof document === 'object' ? { ...document, title } : document;
 }
 
-export interface SheetsUsecaseDeps {
-  db: Db;
+export function toSheetSummary(row: SheetRecord, user: SheetActor): SheetSummary {
+  return {
+    id: row.id,
+    title: row.title,
+    role: roleOn(row, user) ?? undefined,
+    owner: { id: row.ownerId, name: row.ownerName },
+    version: row.currentVersion,
+    forkedFrom: row.forkedFrom,
+    forkedFromVersion: row.forkedFromVersion,
+    createdAt: row.createdAt.toISOString(),
+    updatedAt: row.updatedAt.toISOString(),
+  };
+}
+
+/** The repositories a sheet usecase may use inside one transaction. */
+export interface SheetRepositories {
   sheets: SheetsRepository;
+  shares: SharesRepository;
+  comments: CommentsRepository;
+  users: UsersRepository;
+}
+
+export interface SheetsUsecaseDeps {
+  sheets: SheetsRepository;
+  /** Runs work in a transaction with repositories bound to it (see server/db/transact.ts). */
+  transact: Transact<Pick<SheetRepositories, 'sheets'>>;
   now?: () => Date;
 }
 
-export function createSheetsUsecases({ db, sheets, now = () => new Date() }: SheetsUsecaseDeps) {
+export function createSheetsUsecases({ sheets, transact, now = () => new Date() }: SheetsUsecaseDeps) {
   return {
-    /** A new sheet with its version 1; the document's title follows the sheet's. */
+    /**
+     * A new sheet with its version 1; the document's title follows the sheet's. With
+     * `forkedFrom`, the caller must be able to read that sheet and version; it is stored as the
+     * new sheet's lineage.
+     */
     async createSheet(
       user: SheetActor,
-      input: CreateSheetRequest & { forkedFrom?: string },
+      input: CreateSheetRequest & { digests?: VersionDigests; engineVersion?: number | null },
     ): Promise<CreatedSheet> {
       const document = parseSheetDocument(
         input.document === undefined
@@ -100,57 +107,76 @@ export function createSheetsUsecases({ db, sheets, now = () => new Date() }: She
           : withTitle(input.document, input.title),
       );
       const id = generateIdFromEntropySize(10);
-      await db.transaction(async (tx) => {
-        const txSheets = createSheetsRepository({ db: tx });
-        await txSheets.insertSheet({
+      await transact(async (repositories) => {
+        const source = input.forkedFrom;
+        if (source) {
+          const { sheet } = requireRight(
+            await repositories.sheets.findForUser(source.sheetId, user.id),
+            user,
+            'fork',
+          );
+          if (!(await repositories.sheets.findVersion(sheet.id, source.version))) throw versionNotFound();
+        }
+        const digests = input.digests ?? {};
+        await repositories.sheets.insertSheet({
           id,
           ownerId: user.id,
           title: input.title,
-          forkedFrom: input.forkedFrom ?? null,
+          forkedFrom: source?.sheetId ?? null,
+          forkedFromVersion: source?.version ?? null,
         });
-        await txSheets.insertVersion({
+        await repositories.sheets.insertVersion({
           sheetId: id,
           number: 1,
           document,
           authorId: user.id,
-          message: input.forkedFrom ? 'Forked' : 'Created',
+          message: source ? `Forked from version ${source.version}` : 'Created',
           parentNumber: null,
-          digests: {},
+          digests,
+          engineVersion: digestsEngineVersion(digests, input.engineVersion ?? undefined),
         });
       });
       return { id, title: input.title, version: 1 };
     },
 
     async listSheets(user: SheetActor): Promise<SheetList> {
-      const rows = await sheets.listByOwner(user.id);
-      return {
-        sheets: rows.map((row) => ({
-          id: row.id,
-          title: row.title,
-          version: row.currentVersion,
-          forkedFrom: row.forkedFrom,
-          createdAt: row.createdAt.toISOString(),
-          updatedAt: row.updatedAt.toISOString(),
-        })),
-      };
+      const rows = await sheets.listForUser(user.id);
+      return { sheets: rows.map((row) => toSheetSummary(row, user)) };
     },
 
     async getSheet(user: SheetActor, sheetId: string): Promise<SheetDetail> {
-      const sheet = requireSheetRole(await sheets.findById(sheetId), user, 'viewer');
+      const { sheet, role } = requireRight(await sheets.findForUser(sheetId, user.id), user, 'read');
       const version = await sheets.findVersion(sheet.id, sheet.currentVersion);
       if (!version) throw versionNotFound();
+      const source =
+        sheet.forkedFrom && sheet.forkedFromVersion
+          ? await sheets.findForkSource(sheet.forkedFrom, sheet.forkedFromVersion, user.id)
+          : null;
+      const forks = await sheets.listForksForUser(sheet.id, user.id);
       return {
         id: sheet.id,
         title: sheet.title,
         owner: { id: sheet.ownerId, name: sheet.ownerName },
+        role,
         version: sheet.currentVersion,
         forkedFrom: sheet.forkedFrom,
+        forkedFromVersion: sheet.forkedFromVersion,
+        forkSource:
+          source && sheet.forkedFromVersion ? { ...source, version: sheet.forkedFromVersion } : null,
+        forkCount: forks.length,
         // A rename changes the sheet, not its immutable versions: the title shown is the sheet's.
         document: withTitle(version.document, sheet.title),
         digests: version.digests,
+        engineVersion: version.engineVersion,
         createdAt: sheet.createdAt.toISOString(),
         updatedAt: sheet.updatedAt.toISOString(),
       };
+    },
+
+    /** What a page polls to learn that someone saved; cheap, and the same for every role. */
+    async getHead(user: SheetActor, sheetId: string): Promise<SheetHead> {
+      const { sheet } = requireRight(await sheets.findForUser(sheetId, user.id), user, 'read');
+      return { version: sheet.currentVersion, title: sheet.title, updatedAt: sheet.updatedAt.toISOString() };
     },
 
     async renameSheet(
@@ -158,13 +184,14 @@ export function createSheetsUsecases({ db, sheets, now = () => new Date() }: She
       sheetId: string,
       title: string,
     ): Promise<{ id: string; title: string }> {
-      const sheet = requireSheetRole(await sheets.findById(sheetId), user, 'editor');
+      const { sheet } = requireRight(await sheets.findForUser(sheetId, user.id), user, 'rename');
       await sheets.rename(sheet.id, title, now());
       return { id: sheet.id, title };
     },
 
+    /** Soft delete: forks of the sheet keep working and keep their lineage. */
     async deleteSheet(user: SheetActor, sheetId: string): Promise<void> {
-      const sheet = requireSheetRole(await sheets.findById(sheetId), user, 'owner');
+      const { sheet } = requireRight(await sheets.findForUser(sheetId, user.id), user, 'delete');
       await sheets.softDelete(sheet.id, now());
     },
 
@@ -177,12 +204,15 @@ export function createSheetsUsecases({ db, sheets, now = () => new Date() }: She
       const document = parseSheetDocument(input.document);
       const digests = input.digests ?? {};
       checkDigests(document, digests);
-      return db.transaction(async (tx) => {
-        const txSheets = createSheetsRepository({ db: tx });
-        const sheet = requireSheetRole(await txSheets.findByIdForUpdate(sheetId), user, 'editor');
+      return transact(async (repositories) => {
+        const { sheet } = requireRight(
+          await repositories.sheets.findForUserForUpdate(sheetId, user.id),
+          user,
+          'saveVersion',
+        );
         if (input.baseVersion !== sheet.currentVersion) throw versionConflict(sheet.currentVersion);
         const number = sheet.currentVersion + 1;
-        await txSheets.insertVersion({
+        await repositories.sheets.insertVersion({
           sheetId: sheet.id,
           number,
           document,
@@ -190,14 +220,54 @@ export function createSheetsUsecases({ db, sheets, now = () => new Date() }: She
           message: input.message,
           parentNumber: input.baseVersion,
           digests,
+          engineVersion: digestsEngineVersion(digests, input.engineVersion),
         });
-        await txSheets.advance(sheet.id, { currentVersion: number, title: document.title, at: now() });
+        await repositories.sheets.advance(sheet.id, {
+          currentVersion: number,
+          title: document.title,
+          at: now(),
+        });
         return { number };
       });
     },
 
+    /**
+     * Saves an old version again as the newest (parent: the current version), with its digests
+     * and their engine version; history is never rewritten.
+     */
+    async restoreVersion(user: SheetActor, sheetId: string, number: number): Promise<SavedVersion> {
+      return transact(async (repositories) => {
+        const { sheet } = requireRight(
+          await repositories.sheets.findForUserForUpdate(sheetId, user.id),
+          user,
+          'restore',
+        );
+        const old = await repositories.sheets.findVersion(sheet.id, number);
+        if (!old) throw versionNotFound();
+        if (number === sheet.currentVersion) throw restoreCurrentVersion();
+        const next = sheet.currentVersion + 1;
+        const document = parseSheetDocument(old.document);
+        await repositories.sheets.insertVersion({
+          sheetId: sheet.id,
+          number: next,
+          document,
+          authorId: user.id,
+          message: `Restored version ${number}`,
+          parentNumber: sheet.currentVersion,
+          digests: old.digests,
+          engineVersion: old.engineVersion,
+        });
+        await repositories.sheets.advance(sheet.id, {
+          currentVersion: next,
+          title: document.title,
+          at: now(),
+        });
+        return { number: next };
+      });
+    },
+
     async listVersions(user: SheetActor, sheetId: string): Promise<VersionList> {
-      const sheet = requireSheetRole(await sheets.findById(sheetId), user, 'viewer');
+      const { sheet } = requireRight(await sheets.findForUser(sheetId, user.id), user, 'read');
       const rows = await sheets.listVersions(sheet.id);
       return {
         versions: rows.map((row) => ({
@@ -211,7 +281,7 @@ export function createSheetsUsecases({ db, sheets, now = () => new Date() }: She
     },
 
     async getVersion(user: SheetActor, sheetId: string, number: number): Promise<VersionDetail> {
-      const sheet = requireSheetRole(await sheets.findById(sheetId), user, 'viewer');
+      const { sheet } = requireRight(await sheets.findForUser(sheetId, user.id), user, 'read');
       const row = await sheets.findVersion(sheet.id, number);
       if (!row) throw versionNotFound();
       return {
@@ -222,6 +292,7 @@ export function createSheetsUsecases({ db, sheets, now = () => new Date() }: She
         createdAt: row.createdAt.toISOString(),
         document: row.document,
         digests: row.digests,
+        engineVersion: row.engineVersion,
       };
     },
   };

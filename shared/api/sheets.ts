@@ -1,5 +1,7 @@
 import { z } from 'zod';
+import { ENGINE_VERSION } from '../engine/version';
 import { cellIdSchema } from '../sheet/document';
+import { SHEET_ROLES } from './rights';
 
 /**
  * Payloads of /api/sheets/*. The document itself is checked with `sheetDocumentSchema` by the
@@ -15,9 +17,20 @@ export const sheetTitleSchema = z
 
 export const sheetIdSchema = z.string().regex(/^[a-z0-9]{1,64}$/, 'not a sheet id');
 
+export const versionNumberSchema = z.number().int().min(1).max(2_147_483_647);
+
+/** Where a sheet's document came from: a version of another sheet the caller can read. */
+export const sheetLineageSchema = z.object({ sheetId: sheetIdSchema, version: versionNumberSchema });
+export type SheetLineage = z.infer<typeof sheetLineageSchema>;
+
 export const createSheetRequestSchema = z.object({
   title: sheetTitleSchema,
   document: z.unknown().optional(),
+  /**
+   * The sheet and version the document was copied from ("save mine as a new sheet" after a
+   * conflict sends the sheet and its base version), stored as the new sheet's lineage.
+   */
+  forkedFrom: sheetLineageSchema.optional(),
 });
 export type CreateSheetRequest = z.infer<typeof createSheetRequestSchema>;
 
@@ -28,6 +41,13 @@ export type RenameSheetRequest = z.infer<typeof renameSheetRequestSchema>;
 export const versionDigestsSchema = z.record(cellIdSchema, z.string().min(1).max(200));
 export type VersionDigests = z.infer<typeof versionDigestsSchema>;
 
+/** ENGINE_VERSION of the engine that made a version's digests (shared/engine/version.ts). */
+export const engineVersionSchema = z
+  .number()
+  .int()
+  .min(1)
+  .max(ENGINE_VERSION, `this server knows engine versions 1 to ${ENGINE_VERSION}`);
+
 export const saveVersionRequestSchema = z.object({
   baseVersion: z.number().int().min(1),
   message: z
@@ -37,6 +57,11 @@ export const saveVersionRequestSchema = z.object({
     .max(200, 'a version message is at most 200 characters'),
   document: z.unknown(),
   digests: versionDigestsSchema.optional(),
+  /**
+   * The engine version that made `digests`. A client that does not send it runs the engine
+   * built with this server, so the server records its own ENGINE_VERSION.
+   */
+  engineVersion: engineVersionSchema.optional(),
 });
 export type SaveVersionRequest = z.infer<typeof saveVersionRequestSchema>;
 
@@ -46,12 +71,26 @@ export type CreatedSheet = z.infer<typeof createdSheetSchema>;
 export const savedVersionSchema = z.object({ number: z.number().int() });
 export type SavedVersion = z.infer<typeof savedVersionSchema>;
 
-/** Dates are ISO 8601 strings on the wire; the client's api/ functions turn them into Dates. */
+/**
+ * Dates are ISO 8601 strings on the wire; the client's api/ functions turn them into Dates.
+ *
+ * Fields marked "always sent" are in every answer of this server; they are optional in these
+ * schemas only so that client code and fixtures written before them still type-check, and
+ * become required once the client reads them.
+ */
+const callerRoleSchema = z.enum(SHEET_ROLES);
+
 export const sheetSummarySchema = z.object({
   id: z.string(),
   title: z.string(),
+  /** The caller's role on the sheet (always sent). */
+  role: callerRoleSchema.optional(),
+  /** Always sent. */
+  owner: z.object({ id: z.string(), name: z.string() }).optional(),
   version: z.number().int(),
   forkedFrom: z.string().nullable(),
+  /** The version of `forkedFrom` this sheet was made from (always sent). */
+  forkedFromVersion: z.number().int().nullable().optional(),
   createdAt: z.string(),
   updatedAt: z.string(),
 });
@@ -60,15 +99,35 @@ export type SheetSummary = z.infer<typeof sheetSummarySchema>;
 export const sheetListSchema = z.object({ sheets: z.array(sheetSummarySchema) });
 export type SheetList = z.infer<typeof sheetListSchema>;
 
+/** Where a fork came from; the title is the one of the version forked. */
+export const forkSourceSchema = z.object({
+  sheetId: z.string(),
+  title: z.string(),
+  version: z.number().int(),
+  /** False once the source is deleted or no longer shared with the caller. */
+  canRead: z.boolean(),
+});
+export type ForkSource = z.infer<typeof forkSourceSchema>;
+
 export const sheetDetailSchema = z.object({
   id: z.string(),
   title: z.string(),
   owner: z.object({ id: z.string(), name: z.string() }),
+  /** The caller's role on the sheet (always sent). */
+  role: callerRoleSchema.optional(),
+  /** Always sent. */
+  forkSource: forkSourceSchema.nullable().optional(),
+  /** Forks of this sheet the caller can read (always sent). */
+  forkCount: z.number().int().optional(),
   version: z.number().int(),
   forkedFrom: z.string().nullable(),
+  /** Always sent. */
+  forkedFromVersion: z.number().int().nullable().optional(),
   /** The current version's document (a SheetDocument). */
   document: z.unknown(),
   digests: versionDigestsSchema,
+  /** The engine version that made `digests`; null when the version has none (always sent). */
+  engineVersion: z.number().int().nullable().optional(),
   createdAt: z.string(),
   updatedAt: z.string(),
 });
@@ -89,5 +148,25 @@ export type VersionList = z.infer<typeof versionListSchema>;
 export const versionDetailSchema = versionSummarySchema.extend({
   document: z.unknown(),
   digests: versionDigestsSchema,
+  /** The engine version that made `digests`; null when the version has none (always sent). */
+  engineVersion: z.number().int().nullable().optional(),
 });
 export type VersionDetail = z.infer<typeof versionDetailSchema>;
+
+export const forkRequestSchema = z.object({
+  /** The version to copy; the current one when omitted. */
+  version: versionNumberSchema.optional(),
+  title: sheetTitleSchema.optional(),
+});
+export type ForkRequest = z.infer<typeof forkRequestSchema>;
+
+export const forkListSchema = z.object({ forks: z.array(sheetSummarySchema) });
+export type ForkList = z.infer<typeof forkListSchema>;
+
+/** GET /api/sheets/:id/head: cheap to poll; answers 304 to a matching If-None-Match. */
+export const sheetHeadSchema = z.object({
+  version: z.number().int(),
+  title: z.string(),
+  updatedAt: z.string(),
+});
+export type SheetHead = z.infer<typeof sheetHeadSchema>;

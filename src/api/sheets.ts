@@ -45,6 +45,8 @@ export interface SaveVersionBody {
   document: SheetDocument;
   /** Digest of each simulation cell's current output, by cell id. */
   digests?: VersionDigests;
+  /** The engine version that made the digests. */
+  engineVersion?: number;
 }
 
 const sheetPath = (id: string): string => `/api/sheets/${encodeURIComponent(id)}`;
@@ -75,6 +77,8 @@ export async function listSheets(): Promise<SheetSummary[]> {
 export async function createSheet(body: {
   title: string;
   document?: SheetDocumentInput;
+  /** The sheet and version the document was copied from. */
+  forkedFrom?: { sheetId: string; version: number };
 }): Promise<CreatedSheet> {
   return parseAnswer(
     createdSheetSchema,

@@ -21,7 +21,8 @@ describe('seedDemo', () => {
   it('creates the demo accounts and sheets on an empty site, and does nothing the second time', async () => {
     const first = await seedDemo(database.db);
     expect(first.seeded).toBe(true);
-    expect(first.sheetCount).toBe(exampleSheets.length);
+    // Every example sheet, and the demo editor's fork of the shared one.
+    expect(first.sheetCount).toBe(exampleSheets.length + 1);
     const second = await seedDemo(database.db);
     expect(second.seeded).toBe(false);
     const users = await database.db.query.users.findMany();
@@ -30,7 +31,7 @@ describe('seedDemo', () => {
     );
     expect(users.filter((user) => user.role === 'admin')).toHaveLength(1);
     const sheets = await database.db.query.sheets.findMany();
-    expect(sheets).toHaveLength(exampleSheets.length);
+    expect(sheets).toHaveLength(exampleSheets.length + 1);
   });
 });
 

@@ -8,6 +8,7 @@ import {
   versionConflict,
   type VersionSummary,
 } from '@/api/sheets';
+import { ENGINE_VERSION } from '@shared/engine/version';
 import { errorMessage } from '@/api/http';
 import type { SheetDocumentState } from './document';
 import type { SheetDraftsState } from './drafts';
@@ -93,11 +94,13 @@ export function useSheetVersions(state: SheetDocumentState, drafts: SheetDraftsS
     saving.value = true;
     saveError.value = null;
     try {
+      const digests = runs.digestsNow(doc);
       const saved = await saveVersion(id, {
         baseVersion: state.baseVersion.value,
         message,
         document: doc,
-        digests: runs.digestsNow(doc),
+        digests,
+        ...(Object.keys(digests).length > 0 ? { engineVersion: ENGINE_VERSION } : {}),
       });
       state.baseVersion.value = saved.number;
       state.latestVersion.value = Math.max(state.latestVersion.value, saved.number);
@@ -135,7 +138,11 @@ export function useSheetVersions(state: SheetDocumentState, drafts: SheetDraftsS
     saveError.value = null;
     try {
       const title = `${doc.title.trim()} (my copy)`.slice(0, 200);
-      const created = await createSheet({ title, document: { ...doc, title } });
+      const created = await createSheet({
+        title,
+        document: { ...doc, title },
+        forkedFrom: { sheetId: id, version: state.baseVersion.value },
+      });
       drafts.draftSettled();
       conflict.value = null;
       return created.id;

@@ -192,6 +192,8 @@ describe('saving a version', () => {
       const body = api.createSheet.mock.calls[0]![0];
       expect(body.document?.cells).toEqual(pondSheet().cells);
       expect(body.title).toBe('Pond algae, my edit (my copy)');
+      // The copy keeps its lineage: the sheet and the version the edits started from.
+      expect(body.forkedFrom).toEqual({ sheetId: 's1', version: 3 });
       expect(mounted.router.currentRoute.value.path).toBe('/sheets/s2');
     });
   });

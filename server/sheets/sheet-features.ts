@@ -1,0 +1,61 @@
+import { Router } from 'express';
+import { createCommentsRepository } from '../comments/comments.repository';
+import { commentsRoutes, sheetCommentsRoutes } from '../comments/comments.routes';
+import { createCommentsUsecases } from '../comments/comments.usecases';
+import type { Db, DbExecutor } from '../db/client';
+import { createTransact } from '../db/transact';
+import type { Mailer } from '../mail/mailer';
+import { createSharesRepository } from '../shares/shares.repository';
+import { invitationsRoutes, sheetSharesRoutes } from '../shares/shares.routes';
+import { createSharesUsecases } from '../shares/shares.usecases';
+import { createUsersRepository } from '../users/users.repository';
+import { createForksUsecases } from './forks.usecases';
+import { createNotify } from './notify';
+import { createSheetsRepository } from './sheets.repository';
+import { sheetsRoutes } from './sheets.routes';
+import { createSheetsUsecases, type SheetRepositories } from './sheets.usecases';
+
+/** Every repository the sheet features use, bound to the database or to one transaction. */
+export function createSheetRepositories(executor: DbExecutor): SheetRepositories {
+  return {
+    sheets: createSheetsRepository({ db: executor }),
+    shares: createSharesRepository({ db: executor }),
+    comments: createCommentsRepository({ db: executor }),
+    users: createUsersRepository({ db: executor }),
+  };
+}
+
+export interface SheetFeatureDeps {
+  db: Db;
+  mailer: Mailer;
+  /** Where failures of mail sent after a response go. */
+  report: (error: unknown) => void;
+  now?: () => Date;
+}
+
+/** The usecases of sheets, shares, comments and forks (the app and the demo seed use these). */
+export function createSheetFeatures({ db, mailer, report, now }: SheetFeatureDeps) {
+  const repositories = createSheetRepositories(db);
+  const transact = createTransact(db, createSheetRepositories);
+  const notify = createNotify({ mailer, report });
+  const sheets = createSheetsUsecases({ sheets: repositories.sheets, transact, now });
+  return {
+    sheets,
+    forks: createForksUsecases({ sheets: repositories.sheets, sheetUsecases: sheets }),
+    shares: createSharesUsecases({ repositories, transact, notify, now }),
+    comments: createCommentsUsecases({ repositories, notify, now }),
+  };
+}
+
+export type SheetFeatures = ReturnType<typeof createSheetFeatures>;
+
+/** The API routes of sheets and what hangs off them, to mount under /api (see route-rights.ts). */
+export function sheetFeatureRoutes(features: SheetFeatures, { appOrigin }: { appOrigin?: string }): Router {
+  const router = Router();
+  router.use('/sheets', sheetsRoutes(features));
+  router.use('/sheets', sheetSharesRoutes({ shares: features.shares, appOrigin }));
+  router.use('/sheets', sheetCommentsRoutes({ comments: features.comments, appOrigin }));
+  router.use('/comments', commentsRoutes(features));
+  router.use('/invitations', invitationsRoutes(features));
+  return router;
+}

@@ -1,0 +1,138 @@
+import { sql } from 'drizzle-orm';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { ENGINE_VERSION } from '@shared/engine/version';
+import { createTestContext, signUp, type SignedUpUser, type TestContext } from './helpers';
+
+let context: TestContext;
+let modeller: SignedUpUser;
+let stranger: SignedUpUser;
+
+beforeAll(async () => {
+  context = await createTestContext();
+  modeller = await signUp(context, { name: 'Ilse Brandvold' });
+  stranger = await signUp(context, { name: 'Kofi Mensah-Laar' });
+});
+afterAll(async () => {
+  await context.close();
+});
+
+/** An invented model: groundwater head relaxing towards a recharge level under noisy rainfall. */
+function aquiferDocument(title: string, volatility = 0.25) {
+  return {
+    schemaVersion: 1,
+    title,
+    cells: [
+      {
+        id: 'p',
+        kind: 'params',
+        params: [
+          { name: 'a', value: 0.4 },
+          { name: 's', value: volatility },
+        ],
+      },
+      {
+        id: 'm',
+        kind: 'model',
+        states: [{ name: 'H', initial: '2', drift: 'a * (3 - H)', diffusion: { R: 's' } }],
+        noises: [{ name: 'R' }],
+      },
+      { id: 'run', kind: 'simulation', model: 'm', t1: 10, steps: 100, paths: 200, seed: 91 },
+    ],
+  };
+}
+
+async function createSheet(user: SignedUpUser, title: string, extra: Record<string, unknown> = {}) {
+  const response = await user.agent
+    .post('/api/sheets')
+    .send({ title, document: aquiferDocument(title), ...extra });
+  return response;
+}
+
+async function sheetCount(): Promise<number> {
+  const result = await context.database.db.execute(sql`select count(*)::int as n from sheets`);
+  return Number(result.rows[0]?.n);
+}
+
+describe('digests carry the engine version that made them', () => {
+  it('stores the engine version the client names with the digests', async () => {
+    const created = (await createSheet(modeller, 'Aquifer head')).body;
+    const save = await modeller.agent.post(`/api/sheets/${created.id}/versions`).send({
+      baseVersion: 1,
+      message: 'Ran it',
+      document: aquiferDocument('Aquifer head'),
+      digests: { run: 'c0ffee01' },
+      engineVersion: 1,
+    });
+    expect(save.status).toBe(201);
+    const sheet = await modeller.agent.get(`/api/sheets/${created.id}`);
+    expect(sheet.body).toMatchObject({ digests: { run: 'c0ffee01' }, engineVersion: 1 });
+    const version = await modeller.agent.get(`/api/sheets/${created.id}/versions/2`);
+    expect(version.body).toMatchObject({ digests: { run: 'c0ffee01' }, engineVersion: 1 });
+  });
+
+  it("records the server's engine version for digests sent without one", async () => {
+    const created = (await createSheet(modeller, 'Aquifer legacy client')).body;
+    await modeller.agent.post(`/api/sheets/${created.id}/versions`).send({
+      baseVersion: 1,
+      message: 'Ran it',
+      document: aquiferDocument('Aquifer legacy client'),
+      digests: { run: 'c0ffee02' },
+    });
+    const version = await modeller.agent.get(`/api/sheets/${created.id}/versions/2`);
+    expect(version.body.engineVersion).toBe(ENGINE_VERSION);
+  });
+
+  it('has no engine version for a version without digests', async () => {
+    const created = (await createSheet(modeller, 'Aquifer unrun')).body;
+    const sheet = await modeller.agent.get(`/api/sheets/${created.id}`);
+    expect(sheet.body).toMatchObject({ digests: {}, engineVersion: null });
+  });
+
+  it('rejects an engine version this server does not know with 400 and writes nothing', async () => {
+    const created = (await createSheet(modeller, 'Aquifer future')).body;
+    const save = await modeller.agent.post(`/api/sheets/${created.id}/versions`).send({
+      baseVersion: 1,
+      message: 'From the future',
+      document: aquiferDocument('Aquifer future'),
+      digests: { run: 'c0ffee03' },
+      engineVersion: ENGINE_VERSION + 1,
+    });
+    expect(save.status).toBe(400);
+    expect(save.body.error.path).toEqual(['engineVersion']);
+    expect((await modeller.agent.get(`/api/sheets/${created.id}`)).body.version).toBe(1);
+  });
+});
+
+describe('a new sheet made from another keeps its lineage', () => {
+  it('stores the source sheet and version of "save mine as a new sheet"', async () => {
+    const source = (await createSheet(modeller, 'Aquifer contested')).body;
+    const copy = await createSheet(modeller, 'Aquifer contested (my copy)', {
+      forkedFrom: { sheetId: source.id, version: 1 },
+    });
+    expect(copy.status).toBe(201);
+    const sheet = await modeller.agent.get(`/api/sheets/${copy.body.id}`);
+    expect(sheet.body).toMatchObject({ forkedFrom: source.id, forkedFromVersion: 1 });
+    const listed = (await modeller.agent.get('/api/sheets')).body.sheets.find(
+      (summary: { id: string }) => summary.id === copy.body.id,
+    );
+    expect(listed).toMatchObject({ forkedFrom: source.id, forkedFromVersion: 1 });
+  });
+
+  it('refuses a source the caller cannot read with 404 and creates nothing', async () => {
+    const source = (await createSheet(modeller, 'Aquifer private')).body;
+    const before = await sheetCount();
+    const copy = await createSheet(stranger, 'Lifted', { forkedFrom: { sheetId: source.id, version: 1 } });
+    expect(copy.status).toBe(404);
+    expect(copy.body.error.code).toBe('sheets.not_found');
+    expect(await sheetCount()).toBe(before);
+  });
+
+  it('refuses a source version that does not exist with 404 and creates nothing', async () => {
+    const source = (await createSheet(modeller, 'Aquifer short history')).body;
+    const before = await sheetCount();
+    const copy = await createSheet(modeller, 'Too far', { forkedFrom: { sheetId: source.id, version: 9 } });
+    expect(copy.status).toBe(404);
+    expect(copy.body.error.code).toBe('sheets.version_not_found');
+    expect(await sheetCount()).toBe(before);
+  });
+});
