@@ -58,7 +58,12 @@ export interface StudyOutput {
   id: string;
   kind: 'study';
   strongOrder: number | null;
+  /** Standard error and 95 % interval of the fitted strong order (null where it cannot be fitted). */
+  strongOrderSE: number | null;
+  strongOrderCI: [number | null, number | null];
   weakOrder: number | null;
+  weakOrderSE: number | null;
+  weakOrderCI: [number | null, number | null];
   reference: 'exact' | 'finest';
   levels: StudyLevelOutput[];
   note?: string;
@@ -140,7 +145,11 @@ export function studyOutput(id: string, result: StudyResult): StudyOutput {
     id,
     kind: 'study',
     strongOrder: finiteOrNull(result.strongOrder),
+    strongOrderSE: finiteOrNull(result.strongOrderSE),
+    strongOrderCI: [finiteOrNull(result.strongOrderCI[0]), finiteOrNull(result.strongOrderCI[1])],
     weakOrder: finiteOrNull(result.weakOrder),
+    weakOrderSE: finiteOrNull(result.weakOrderSE),
+    weakOrderCI: [finiteOrNull(result.weakOrderCI[0]), finiteOrNull(result.weakOrderCI[1])],
     reference: result.reference,
     levels: result.levels.map(studyLevelOutput),
   };
