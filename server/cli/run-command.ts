@@ -1,5 +1,7 @@
 import { readFile } from 'node:fs/promises';
+import { estimateWork } from '../../shared/engine/work';
 import { runSheet } from '../../shared/run/run-sheet';
+import { buildSimulationPlan, type SheetDocument } from '../../shared/sheet/index';
 import { scaleSheetPaths } from '../../shared/run/scale';
 import type { SheetRunOutput } from '../../shared/run/outputs';
 import type { RunArguments } from './args';
@@ -17,7 +19,25 @@ export const EXIT_OK = 0;
 export const EXIT_INVALID = 1;
 export const EXIT_USAGE = 2;
 
-export async function runCommand(args: RunArguments): Promise<CommandOutcome> {
+/** Estimates of the simulations whose work is far beyond a few minutes, printed before the run starts. */
+function workNotices(doc: SheetDocument): string[] {
+  return doc.cells.flatMap((cell) => {
+    if (cell.kind !== 'simulation') return [];
+    let estimate;
+    try {
+      estimate = estimateWork(buildSimulationPlan(doc, cell.id));
+    } catch {
+      return []; // the run itself reports what is wrong with this cell
+    }
+    return estimate.message === null ? [] : [`cell ${cell.id}: ${estimate.message}`];
+  });
+}
+
+/** `notify` prints at once (stderr): notices a user should see before a long run, not after it. */
+export async function runCommand(
+  args: RunArguments,
+  notify: (line: string) => void = () => {},
+): Promise<CommandOutcome> {
   let text: string;
   try {
     text = await readFile(args.file, 'utf8');
@@ -39,6 +59,7 @@ export async function runCommand(args: RunArguments): Promise<CommandOutcome> {
     };
   }
   const doc = args.pathsScale === null ? validation.doc : scaleSheetPaths(validation.doc, args.pathsScale);
+  for (const notice of workNotices(doc)) notify(notice);
   const threads = createThreadPool(args.workers ?? defaultThreadCount());
   let output: SheetRunOutput;
   try {

@@ -12,3 +12,5 @@ export { Fnv1a64 } from './digest';
 export { ENGINE_VERSION } from './version';
 export { fitSlope, type SlopeFit } from './regression';
 export { streamSeed, Xoshiro128, normalFrom } from './random';
+export { MAX_PATHS, MAX_STEPS } from './limits';
+export { estimateWork, type WorkEstimate } from './work';

@@ -1,5 +1,6 @@
 import type { SimulationPlan } from './plan';
 import { choleskyOfCorrelation } from './cholesky';
+import { MAX_PATHS, MAX_STEPS } from './limits';
 
 /**
  * Everything the kernel and the merge derive from a plan, checked once: sizes, the step, the
@@ -51,8 +52,16 @@ export function planLayout(plan: SimulationPlan): PlanLayout {
   }
   if (!Number.isInteger(plan.steps) || plan.steps < 1)
     throw new RangeError(`steps must be a positive integer, got ${plan.steps}`);
+  if (plan.steps > MAX_STEPS)
+    throw new RangeError(
+      `a run takes at most ${MAX_STEPS.toLocaleString('en')} steps, this one ${plan.steps.toLocaleString('en')}; use a larger step size`,
+    );
   if (!Number.isInteger(plan.paths) || plan.paths < 1)
     throw new RangeError(`paths must be a positive integer, got ${plan.paths}`);
+  if (plan.paths > MAX_PATHS)
+    throw new RangeError(
+      `a run takes at most ${MAX_PATHS.toLocaleString('en')} paths, this one ${plan.paths.toLocaleString('en')}`,
+    );
   if (!Number.isInteger(plan.seed) || plan.seed < 0 || plan.seed > 0xffffffff)
     throw new RangeError(`the seed must be an integer from 0 to 4294967295, got ${plan.seed}`);
   if (!Number.isInteger(plan.saveCount) || plan.saveCount < 2)

@@ -5,6 +5,9 @@ import { isIdentity } from './correlation';
 import type { BoundaryRule, ModelCell, SheetDocument, SimulationCell } from './document';
 import { SheetIssuesError } from './issues';
 import { TIME_NAME } from './names';
+import { stepCount } from './step-count';
+
+export { stepCount };
 import { resolveCheckedParameters } from './resolve';
 import { findModel, findSimulation, indexSheet, modelScopes } from './sheet-index';
 
@@ -48,11 +51,6 @@ export function buildSimulationPlan(doc: SheetDocument, simulationCellId: string
     probeTimes: probeTimes(doc, sim),
     watches: watches(doc, sim, model),
   };
-}
-
-export function stepCount(sim: SimulationCell): number {
-  if (sim.steps !== undefined) return sim.steps;
-  return Math.max(1, Math.round((sim.t1 - sim.t0) / (sim.stepSize ?? sim.t1 - sim.t0)));
 }
 
 function buildModelSpec(

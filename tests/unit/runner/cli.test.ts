@@ -17,7 +17,8 @@ interface CliRun {
   stderr: string;
 }
 
-function runCli(args: string[]): Promise<CliRun> {
+/** `until`: stop the runner (SIGTERM) as soon as stderr matches, for runs too long to finish in a test. */
+function runCli(args: string[], until?: RegExp): Promise<CliRun> {
   return new Promise((resolve, reject) => {
     const child = spawn(process.execPath, ['node_modules/tsx/dist/cli.mjs', 'server/cli.ts', ...args], {
       cwd: repoRoot,
@@ -25,7 +26,10 @@ function runCli(args: string[]): Promise<CliRun> {
     let stdout = '';
     let stderr = '';
     child.stdout.on('data', (chunk: Buffer) => (stdout += chunk.toString()));
-    child.stderr.on('data', (chunk: Buffer) => (stderr += chunk.toString()));
+    child.stderr.on('data', (chunk: Buffer) => {
+      stderr += chunk.toString();
+      if (until !== undefined && until.test(stderr)) child.kill('SIGTERM');
+    });
     child.on('error', reject);
     child.on('close', (code) => resolve({ code, stdout, stderr }));
   });
@@ -162,5 +166,22 @@ describe('sheet run (command line)', () => {
     const missing = await runCli(['run', 'no-such-sheet.json']);
     expect(missing.code).toBe(2);
     expect(missing.stderr).toMatch(/cannot read no-such-sheet\.json: no such file/);
+  });
+
+  it('refuses a step size that resolves to more steps than the cap, as an invalid sheet', async () => {
+    const result = await runCli(['run', fixture('step-size-beyond-cap.json')]);
+    expect(result.code).toBe(1);
+    expect(result.stdout).toBe('');
+    expect(result.stderr).toMatch(
+      /cell gauge-run, stepSize: .*gives 20,000,000 steps, more than the limit of 10,000,000/,
+    );
+  });
+
+  it('prints the work estimate of a run far beyond a few minutes before it starts', async () => {
+    const result = await runCli(['run', fixture('huge-work.json'), '--workers', '1'], /path-steps/);
+    expect(result.stdout).toBe('');
+    expect(result.stderr).toMatch(
+      /cell gauge-run: this run is 1\.00e\+14 path-steps, roughly \d+ days on one core/,
+    );
   });
 });
