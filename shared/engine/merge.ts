@@ -9,7 +9,7 @@ import type {
 } from './result';
 import { planLayout } from './layout';
 import { moments, quantilesInPlace } from './statistics';
-import { Fnv1a64 } from './digest';
+import { runDigest } from './run-digest';
 import { meanSquareStability } from './stability';
 
 function checkChunks(plan: SimulationPlan, chunks: ChunkResult[], stateCount: number): void {
@@ -186,13 +186,19 @@ export function mergeChunks(plan: SimulationPlan, chunks: ChunkResult[]): Simula
   const blowupTime = gather(chunks, (c) => c.blowupTime, 0, paths);
   const blowups = blowupSummary(plan, blowupTime, layout.h);
 
-  const digest = new Fnv1a64().addNumber(paths).addNumber(blowups.count).addNumbers(layout.savedTimes);
-  for (let i = 0; i < d; i++) {
-    const s = stats[i]!;
-    for (const column of [s.mean, s.variance, s.q05, s.q25, s.q50, s.q75, s.q95, s.min, s.max, s.live])
-      digest.addNumbers(column);
-    digest.addNumbers(finalValues[i]!);
-  }
+  const digest = runDigest({
+    paths,
+    blowupCount: blowups.count,
+    savedTimes: layout.savedTimes,
+    stats,
+    savedValues,
+    probeValues: probes.map((probe) => probe.values),
+    runningMax,
+    runningMin,
+    firstPassage,
+    absorptionTime,
+    blowupTime,
+  });
 
   return {
     stateNames: [...plan.model.stateNames],
@@ -220,6 +226,6 @@ export function mergeChunks(plan: SimulationPlan, chunks: ChunkResult[]): Simula
     blowups,
     extinctions: extinctionSummaries(plan, absorptionTime),
     stability: meanSquareStability(plan),
-    digest: digest.hex(),
+    digest,
   };
 }

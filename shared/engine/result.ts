@@ -139,7 +139,7 @@ export interface SimulationResult {
   blowups: BlowupSummary;
   extinctions: ExtinctionSummary[];
   stability: StabilityReport | null;
-  /** FNV-1a 64 over the saved statistics and final values (hex, 16 digits). */
+  /** FNV-1a 64 over every number the run reports (hex, 16 digits; see run-digest.ts for the order). */
   digest: string;
 }
 
