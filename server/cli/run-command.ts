@@ -18,6 +18,8 @@ export interface CommandOutcome {
 export const EXIT_OK = 0;
 export const EXIT_INVALID = 1;
 export const EXIT_USAGE = 2;
+/** A simulation lost every path, so it (and every probe reading it) has no estimate. */
+export const EXIT_NO_ESTIMATE = 3;
 
 /** Estimates of the simulations whose work is far beyond a few minutes, printed before the run starts. */
 function workNotices(doc: SheetDocument): string[] {
@@ -68,9 +70,21 @@ export async function runCommand(
     await threads.close();
   }
   const failed = output.cells.flatMap((cell) => ('error' in cell ? [`cell ${cell.id}: ${cell.error}`] : []));
+  const allLost = output.cells.flatMap((cell) =>
+    cell.kind === 'simulation' && 'losses' in cell && cell.losses.allLost
+      ? [`cell ${cell.id}: every path was lost, so it has no estimates`]
+      : [],
+  );
+  const warnings = output.cells.flatMap((cell) =>
+    'warnings' in cell ? cell.warnings.map((warning) => `warning: cell ${cell.id}: ${warning}`) : [],
+  );
   return {
-    exitCode: failed.length > 0 ? EXIT_INVALID : EXIT_OK,
+    exitCode: allLost.length > 0 ? EXIT_NO_ESTIMATE : failed.length > 0 ? EXIT_INVALID : EXIT_OK,
     stdout: JSON.stringify(output),
-    stderr: failed.length > 0 ? ['some cells could not be computed:', ...failed.map((p) => `  ${p}`)] : [],
+    stderr: [
+      ...warnings,
+      ...(failed.length > 0 ? ['some cells could not be computed:', ...failed.map((p) => `  ${p}`)] : []),
+      ...allLost,
+    ],
   };
 }

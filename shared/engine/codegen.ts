@@ -1,6 +1,7 @@
 import { EXPRESSION_PRELUDE } from '../expr';
 import type { SimulationPlan } from './plan';
 import type { PlanLayout } from './layout';
+import { LOSS_CAUSE_CODES } from './result';
 import { stepSourceFor } from './methods';
 import { fastNormalDrawSource, normalDrawSource, normalSlowPathSource } from './random/ziggurat';
 
@@ -108,6 +109,19 @@ function watchUpdates(plan: SimulationPlan, time: string): string {
       return `if (hw${w} === 0 && ${reached}) { hw${w} = 1; fp${w} = ${time}; }`;
     })
     .join('\n');
+}
+
+/**
+ * Cause of a lost path from its state at the step it was lost (cold path, once per lost path):
+ * any state not a number means a coefficient was evaluated outside its domain (square root or
+ * logarithm of a negative number, 0/0); else any infinite state is an overflow or a division by
+ * zero; else the state left the blow-up bound. The codes are LOSS_CAUSE_CODES (result.ts).
+ */
+function lossCauseSource(d: number): string {
+  const states = range(d);
+  const notANumber = states.map((i) => `s${i} !== s${i}`).join(' || ');
+  const infinite = states.map((i) => `Math.abs(s${i}) === Infinity`).join(' || ');
+  return `(${notANumber}) ? ${LOSS_CAUSE_CODES.domain} : (${infinite}) ? ${LOSS_CAUSE_CODES.infinite} : ${LOSS_CAUSE_CODES.bound}`;
 }
 
 /**
@@ -236,10 +250,12 @@ function runPath(p) {
   }
   if (blown) {
     K.blowupTime[p] = t0 + n * h;
+    K.lossCause[p] = ${lossCauseSource(d)};
     for (; saveSteps[k] >= 0; k++) { ${saveNaN} }
     for (; probeSteps[q] >= 0; q++) { j = probeOrder[q]; ${probeNaN} }
   } else {
     K.blowupTime[p] = NaN;
+    K.lossCause[p] = ${LOSS_CAUSE_CODES.none};
   }
   ${states.map((i) => `K.runningMax[${i} * pathCount + p] = mx${i}; K.runningMin[${i} * pathCount + p] = mn${i};`).join('\n  ')}
   ${plan.watches.map((_, w) => `K.firstPassage[${w} * pathCount + p] = fp${w};`).join(' ')}

@@ -6,10 +6,12 @@ import type {
   SavedStats,
   SimulationResult,
   BlowupSummary,
+  LossSummary,
 } from './result';
 import { planLayout } from './layout';
 import { moments, quantilesInPlace } from './statistics';
 import { runDigest } from './run-digest';
+import { lossSummary } from './losses';
 import { meanSquareStability } from './stability';
 
 function checkChunks(plan: SimulationPlan, chunks: ChunkResult[], stateCount: number): void {
@@ -33,15 +35,15 @@ function checkChunks(plan: SimulationPlan, chunks: ChunkResult[], stateCount: nu
 }
 
 /** Copies column `column` (of `rows` rows of chunk.pathCount) of each chunk's done paths into one array. */
-function gather(
+function gather<T extends Float64Array | Uint8Array>(
   chunks: ChunkResult[],
-  pick: (chunk: ChunkResult) => Float64Array,
+  pick: (chunk: ChunkResult) => T,
   column: number,
   paths: number,
-  into?: Float64Array,
+  into?: T,
   at = 0,
-): Float64Array {
-  const out = into ?? new Float64Array(paths);
+): T {
+  const out = into ?? new (pick(chunks[0]!).constructor as new (length: number) => T)(paths);
   let offset = at;
   for (const chunk of chunks) {
     const start = column * chunk.pathCount;
@@ -96,26 +98,11 @@ function savedStats(
   return stats;
 }
 
-function blowupSummary(plan: SimulationPlan, blowupTime: Float64Array, h: number): BlowupSummary {
-  let count = 0;
-  let firstTime = Infinity;
-  for (let p = 0; p < blowupTime.length; p++) {
-    const time = blowupTime[p]!;
-    if (time === time) {
-      count++;
-      if (time < firstTime) firstTime = time;
-    }
-  }
-  if (count === 0) return { count, firstTime: null, suggestion: null };
-  const bound =
-    plan.blowupBound === null
-      ? 'became infinite or not a number'
-      : `left [−${plan.blowupBound}, ${plan.blowupBound}] or became infinite`;
-  const suggestion =
-    `${count} of ${blowupTime.length} paths ${bound} (first at t = ${firstTime.toPrecision(4)}); they are left out of the statistics. ` +
-    `Try a smaller step: h = ${(h / 4).toPrecision(3)} (${plan.steps * 4} steps) instead of ${h.toPrecision(3)}. ` +
-    'If the paths still blow up, the model itself may explode in finite time.';
-  return { count, firstTime, suggestion };
+/** The older summary the page still reads: every loss counts, the message and advice as one suggestion. */
+function blowupSummary(losses: LossSummary): BlowupSummary {
+  if (losses.count === 0) return { count: 0, firstTime: null, suggestion: null };
+  const advice = losses.advice.map((line) => `${line.charAt(0).toUpperCase()}${line.slice(1)}.`).join(' ');
+  return { count: losses.count, firstTime: losses.firstTime, suggestion: `${losses.message} ${advice}` };
 }
 
 function extinctionSummaries(plan: SimulationPlan, absorptionTime: Float64Array[]): ExtinctionSummary[] {
@@ -147,7 +134,8 @@ function extinctionSummaries(plan: SimulationPlan, absorptionTime: Float64Array[
 /**
  * Merges chunks given in path order into the run's result. Statistics are computed over the
  * concatenated columns, so the result (and its digest) does not depend on how paths were
- * chunked. Blown-up paths (NaN) are left out of every statistic; `live` says how many remain.
+ * chunked. Lost paths (NaN) are left out of every statistic; `live` says how many remain, and
+ * `losses` says why they were lost and whether the estimates are conditional on the survivors.
  */
 export function mergeChunks(plan: SimulationPlan, chunks: ChunkResult[]): SimulationResult {
   const layout = planLayout(plan);
@@ -184,11 +172,12 @@ export function mergeChunks(plan: SimulationPlan, chunks: ChunkResult[]): Simula
     gather(chunks, (c) => c.absorptionTime, i, paths),
   );
   const blowupTime = gather(chunks, (c) => c.blowupTime, 0, paths);
-  const blowups = blowupSummary(plan, blowupTime, layout.h);
+  const lossCause = gather(chunks, (c) => c.lossCause, 0, paths);
+  const losses = lossSummary(plan, blowupTime, lossCause, layout.h);
 
   const digest = runDigest({
     paths,
-    blowupCount: blowups.count,
+    lostCount: losses.count,
     savedTimes: layout.savedTimes,
     stats,
     savedValues,
@@ -197,7 +186,8 @@ export function mergeChunks(plan: SimulationPlan, chunks: ChunkResult[]): Simula
     runningMin,
     firstPassage,
     absorptionTime,
-    blowupTime,
+    lossTime: blowupTime,
+    lossCause,
   });
 
   return {
@@ -223,7 +213,9 @@ export function mergeChunks(plan: SimulationPlan, chunks: ChunkResult[]): Simula
     firstPassage,
     absorptionTime,
     blowupTime,
-    blowups,
+    lossCause,
+    losses,
+    blowups: blowupSummary(losses),
     extinctions: extinctionSummaries(plan, absorptionTime),
     stability: meanSquareStability(plan),
     digest,

@@ -29,9 +29,22 @@ function proportion(successes: number, trials: number, note?: string): ProbeEsti
   };
 }
 
-function blowupNote(result: SimulationResult): string | undefined {
-  const { count } = result.blowups;
-  return count > 0 ? `${count} of ${result.paths} paths blew up and are left out` : undefined;
+/** A note for a small loss (at most LOSS_SHARE_LIMIT); a larger one is a warning instead. */
+function lossNote(result: SimulationResult): string | undefined {
+  const { count, conditional } = result.losses;
+  return count > 0 && !conditional
+    ? `${count} of ${result.paths} paths were lost and are left out`
+    : undefined;
+}
+
+/** What every estimate of this run must carry: conditional on surviving paths. */
+function runWarnings(result: SimulationResult): string[] {
+  const { losses } = result;
+  if (!losses.conditional) return [];
+  const survivors = losses.paths - losses.count;
+  return [
+    `conditional on the ${survivors.toLocaleString('en')} surviving paths: ${losses.count.toLocaleString('en')} of ${losses.paths.toLocaleString('en')} were lost (see the simulation), so this is not an estimate for the model itself`,
+  ];
 }
 
 function joinNotes(...notes: (string | undefined)[]): string | undefined {
@@ -66,7 +79,7 @@ export function valuesAt(
   );
 }
 
-function blownUp(result: SimulationResult, path: number): boolean {
+function lost(result: SimulationResult, path: number): boolean {
   return result.blowupTime[path] === result.blowupTime[path];
 }
 
@@ -165,7 +178,7 @@ function hits(
     );
   }
   for (let p = 0; p < result.paths; p++) {
-    if (blownUp(result, p)) continue;
+    if (lost(result, p)) continue;
     live[p] = 1;
     if (watch >= 0) {
       const passage = result.firstPassage[watch]![p]!;
@@ -191,14 +204,14 @@ function firstPassage(result: SimulationResult, probe: ProbeRequest): ProbeEstim
   const reached: number[] = [];
   let live = 0;
   for (let p = 0; p < result.paths; p++) {
-    if (blownUp(result, p)) continue;
+    if (lost(result, p)) continue;
     live++;
     const passage = result.firstPassage[watch]![p]!;
     if (passage <= time + result.h / 2) reached.push(passage);
   }
   const note = joinNotes(
     `${reached.length} of ${live} paths reached ${level} by t = ${time}`,
-    blowupNote(result),
+    lossNote(result),
   );
   const times = Float64Array.from(reached);
   if (probe.probability !== undefined) return quantileEstimate(times, probe.probability, note);
@@ -226,22 +239,37 @@ function extinction(result: SimulationResult, probe: ProbeRequest): ProbeEstimat
   let live = 0;
   let extinct = 0;
   for (let p = 0; p < result.paths; p++) {
-    if (blownUp(result, p)) continue;
+    if (lost(result, p)) continue;
     live++;
     if (absorbed[p]! <= time + result.h / 2 || (fromLevel !== null && fromLevel.hit[p] === 1)) extinct++;
   }
-  return proportion(extinct, live, blowupNote(result));
+  return proportion(extinct, live, lossNote(result));
 }
 
 /**
- * A statistic read from a run with its standard error and 95 % interval. Blown-up paths are left
- * out (the note says how many). Proportions use the Wilson interval and SE √(p(1 − p)/n).
+ * A statistic read from a run with its standard error and 95 % interval. Lost paths are left
+ * out: a small loss is noted, a larger one (LOSS_SHARE_LIMIT) makes the estimate conditional on
+ * the survivors, which its warnings say; a run that lost every path has no estimate (RangeError).
+ * Proportions use the Wilson interval and SE √(p(1 − p)/n).
  */
 export function evaluateProbe(result: SimulationResult, probe: ProbeRequest): ProbeEstimate {
+  if (result.losses.allLost) {
+    throw new RangeError(
+      `no estimate: every path was lost (${result.losses.message ?? ''} ${result.losses.advice.join('; ')})`.trim(),
+    );
+  }
+  const estimate = estimateProbe(result, probe);
+  const warnings = runWarnings(result);
+  return warnings.length > 0
+    ? { ...estimate, warnings: [...(estimate.warnings ?? []), ...warnings] }
+    : estimate;
+}
+
+function estimateProbe(result: SimulationResult, probe: ProbeRequest): ProbeEstimate {
   if (!Number.isInteger(probe.state) || probe.state < 0 || probe.state >= result.stateNames.length) {
     throw new RangeError(`the probe names state ${probe.state}, which does not exist`);
   }
-  const note = blowupNote(result);
+  const note = lossNote(result);
   switch (probe.quantity) {
     case 'mean':
       return mean(valuesAt(result, probe.state, probe.time).values, note);

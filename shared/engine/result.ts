@@ -11,10 +11,21 @@ import type { WatchSpec } from './plan';
  *   runningMax/Min index i · pathCount + p
  *   firstPassage   index w · pathCount + p            w = watch index; NaN = not reached
  *   absorptionTime index i · pathCount + p            NaN = state i never absorbed
- *   blowupTime     index p                            NaN = no blow-up
- * A path that blew up holds NaN at every saved and probe time after the blow-up; its running
- * max/min cover the steps before it.
+ *   blowupTime     index p                            time the path was lost; NaN = not lost
+ *   lossCause      index p                            LOSS_CAUSE_CODES (0 = not lost)
+ * A lost path holds NaN at every saved and probe time after the loss; its running max/min cover
+ * the steps before it. ("blowupTime" keeps its old name: it records every loss, whatever the cause.)
  */
+
+/**
+ * Why a path was lost, as stored per path in `lossCause`:
+ *   domain    a state became not a number: a coefficient was evaluated outside its domain (square
+ *             root or logarithm of a negative number, 0/0, ∞ − ∞ after an overflow in one step)
+ *   infinite  a state became ±∞ (overflow, or a division by zero)
+ *   bound     a state left [−bound, bound] (the simulation's blow-up bound)
+ */
+export const LOSS_CAUSE_CODES = { none: 0, domain: 1, infinite: 2, bound: 3 } as const;
+export type LossCause = Exclude<keyof typeof LOSS_CAUSE_CODES, 'none'>;
 export interface ChunkResult {
   firstPath: number;
   /** Paths this chunk was asked for. */
@@ -33,6 +44,7 @@ export interface ChunkResult {
   firstPassage: Float64Array;
   absorptionTime: Float64Array;
   blowupTime: Float64Array;
+  lossCause: Uint8Array;
 }
 
 export interface SimulationHooks {
@@ -59,6 +71,30 @@ export interface SavedStats {
   live: Int32Array;
 }
 
+/**
+ * Paths the engine could not carry to t1, by cause. Beyond LOSS_SHARE_LIMIT of the paths, every
+ * estimate of the run describes only the surviving paths (a conditional law that can be far from
+ * the model's: survivors are those that stayed where the coefficients are defined), and says so.
+ */
+export interface LossSummary {
+  count: number;
+  paths: number;
+  /** count / paths (0 for a run with no paths). */
+  share: number;
+  byCause: Record<LossCause, number>;
+  /** Earliest loss time over all paths, or null. */
+  firstTime: number | null;
+  /** More than LOSS_SHARE_LIMIT lost: every estimate is conditional on the surviving paths. */
+  conditional: boolean;
+  /** Every path lost: the run has no estimates. */
+  allLost: boolean;
+  /** The losses in words, or null when nothing was lost. */
+  message: string | null;
+  /** What to change, by cause (empty when nothing was lost). */
+  advice: string[];
+}
+
+/** Kept for the page until it reads `losses`: count and first time of every loss, whatever the cause. */
 export interface BlowupSummary {
   count: number;
   /** Earliest blow-up time over all paths, or null. */
@@ -134,8 +170,12 @@ export interface SimulationResult {
   firstPassage: Float64Array[];
   /** Per state, per path: absorption time (NaN = not absorbed). */
   absorptionTime: Float64Array[];
-  /** Per path: blow-up time (NaN = none). */
+  /** Per path: time the path was lost (NaN = not lost). */
   blowupTime: Float64Array;
+  /** Per path: LOSS_CAUSE_CODES. */
+  lossCause: Uint8Array;
+  losses: LossSummary;
+  /** @deprecated the same losses in the older shape; read `losses`. */
   blowups: BlowupSummary;
   extinctions: ExtinctionSummary[];
   stability: StabilityReport | null;
@@ -170,6 +210,11 @@ export interface ProbeEstimate {
   /** Paths the estimate rests on (for first-passage: how many reached the level). */
   paths: number;
   note?: string;
+  /**
+   * What a reader must know before using the estimate: conditional on surviving paths, an
+   * unstable step. Absent or empty when there is nothing to say.
+   */
+  warnings?: string[];
 }
 
 export interface StudyOptions {

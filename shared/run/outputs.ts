@@ -1,5 +1,6 @@
 import type { Method, ProbeCell, StudyCell } from '../sheet/document';
 import type {
+  LossCause,
   ProbeEstimate,
   ProbeRequest,
   SimulationResult,
@@ -23,15 +24,31 @@ export interface StateSummary {
   quantiles: Record<QuantileKey, number | null>;
 }
 
+/** Paths the run could not carry to t1, by cause (see LossSummary in shared/engine/result.ts). */
+export interface LossesOutput {
+  count: number;
+  share: number;
+  byCause: Record<LossCause, number>;
+  firstTime: number | null;
+  /** More than 1 % lost: every estimate of the run describes the surviving paths only. */
+  conditional: boolean;
+  /** Every path lost: the run has no estimates (the runner exits non-zero). */
+  allLost: boolean;
+  message: string | null;
+  advice: string[];
+}
+
 export interface SimulationOutput {
   id: string;
   kind: 'simulation';
   method: Method;
   paths: number;
   steps: number;
-  /** Distribution of each state variable at t1, over paths that did not blow up. */
+  /** What a reader must know before reading the numbers below (empty when nothing). */
+  warnings: string[];
+  /** Distribution of each state variable at t1, over the paths that were not lost. */
   final: Record<string, StateSummary>;
-  blowups: number;
+  losses: LossesOutput;
   digest: string;
 }
 
@@ -42,6 +59,8 @@ export interface ProbeOutput {
   standardError: number | null;
   ci: [number | null, number | null];
   paths: number;
+  /** What a reader must know before using the estimate (empty when nothing). */
+  warnings: string[];
   note?: string;
 }
 
@@ -104,14 +123,28 @@ export function simulationOutput(id: string, result: SimulationResult): Simulati
       },
     };
   });
+  const { losses } = result;
+  const warnings = losses.conditional
+    ? [`${losses.message ?? ''} ${losses.advice.map((line) => `Advice: ${line}.`).join(' ')}`.trim()]
+    : [];
   return {
     id,
     kind: 'simulation',
     method: result.method,
     paths: result.paths,
     steps: result.steps,
+    warnings,
     final,
-    blowups: result.blowups.count,
+    losses: {
+      count: losses.count,
+      share: losses.share,
+      byCause: { ...losses.byCause },
+      firstTime: losses.firstTime,
+      conditional: losses.conditional,
+      allLost: losses.allLost,
+      message: losses.message,
+      advice: [...losses.advice],
+    },
     digest: result.digest,
   };
 }
@@ -124,6 +157,7 @@ export function probeOutput(id: string, estimate: ProbeEstimate): ProbeOutput {
     standardError: finiteOrNull(estimate.standardError),
     ci: [finiteOrNull(estimate.ci[0]), finiteOrNull(estimate.ci[1])],
     paths: estimate.paths,
+    warnings: [...(estimate.warnings ?? [])],
   };
   if (estimate.note) output.note = estimate.note;
   return output;

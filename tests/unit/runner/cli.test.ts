@@ -52,11 +52,25 @@ const simulationOutput = z
     method: z.enum(['euler-maruyama', 'milstein', 'heun']),
     paths: z.number().int().positive(),
     steps: z.number().int().positive(),
+    warnings: z.array(z.string()),
     final: z.record(
       z.string(),
       z.object({ mean: nullableNumber, variance: nullableNumber, quantiles }).strict(),
     ),
-    blowups: z.number().int().min(0),
+    losses: z
+      .object({
+        count: z.number().int().min(0),
+        share: z.number().min(0).max(1),
+        byCause: z
+          .object({ domain: z.number().int(), infinite: z.number().int(), bound: z.number().int() })
+          .strict(),
+        firstTime: nullableNumber,
+        conditional: z.boolean(),
+        allLost: z.boolean(),
+        message: z.string().nullable(),
+        advice: z.array(z.string()),
+      })
+      .strict(),
     digest: z.string().regex(/^[0-9a-f]{16}$/),
   })
   .strict();
@@ -68,8 +82,12 @@ const probeOutput = z
     standardError: nullableNumber,
     ci: z.tuple([nullableNumber, nullableNumber]),
     paths: z.number().int().min(0),
+    warnings: z.array(z.string()),
     note: z.string().optional(),
   })
+  .strict();
+const failedOutput = z
+  .object({ id: z.string(), kind: z.enum(['simulation', 'probe', 'study']), error: z.string() })
   .strict();
 const studyLevel = z
   .object({
@@ -97,8 +115,21 @@ const studyOutput = z
   })
   .strict();
 const runOutput = z
-  .object({ title: z.string(), cells: z.array(z.union([simulationOutput, probeOutput, studyOutput])) })
+  .object({
+    title: z.string(),
+    cells: z.array(z.union([simulationOutput, probeOutput, studyOutput, failedOutput])),
+  })
   .strict();
+
+type RunOutput = z.infer<typeof runOutput>;
+type ComputedCell = Exclude<RunOutput['cells'][number], { error: string }>;
+
+/** The output of cell `id`, which must have been computed (not failed). */
+function computedCell(output: RunOutput, id: string): ComputedCell {
+  const cell = output.cells.find((c) => c.id === id);
+  if (cell === undefined || 'error' in cell) throw new Error(`cell ${id} has no computed output`);
+  return cell;
+}
 
 describe('sheet run (command line)', () => {
   for (const example of exampleSheets) {
@@ -122,6 +153,7 @@ describe('sheet run (command line)', () => {
       );
       expect(output.cells.map((c) => [c.id, c.kind])).toEqual(numerical.map((c) => [c.id, c.kind]));
       for (const cell of output.cells) {
+        if ('error' in cell) throw new Error(`cell ${cell.id} failed: ${cell.error}`);
         if (cell.kind === 'simulation') {
           const source = numerical.find((c) => c.id === cell.id);
           expect(source?.kind === 'simulation' && Math.max(1, Math.round(source.paths * 0.02))).toBe(
@@ -183,5 +215,35 @@ describe('sheet run (command line)', () => {
     expect(result.stderr).toMatch(
       /cell gauge-run: this run is 1\.00e\+14 path-steps, roughly \d+ days on one core/,
     );
+  });
+
+  it('marks every estimate of a Feller-violating CIR run as conditional, with the advice for a square root', async () => {
+    const result = await runCli(['run', fixture('feller-violated-cir.json'), '--workers', '2']);
+    expect(result.code).toBe(0);
+    const output = runOutput.parse(JSON.parse(result.stdout));
+    const sim = computedCell(output, 'rate-run');
+    const probe = computedCell(output, 'rate-mean');
+    if (sim?.kind !== 'simulation' || probe?.kind !== 'probe') throw new Error('missing outputs');
+    expect(sim.losses.byCause.domain).toBeGreaterThan(sim.paths / 2);
+    expect(sim.losses.byCause.bound + sim.losses.byCause.infinite).toBe(0);
+    expect(sim.losses.conditional).toBe(true);
+    expect(sim.warnings.join(' ')).toMatch(/conditional on the [\d,]+ surviving paths/);
+    expect(sim.warnings.join(' ')).toMatch(/sqrt\(max\(r, 0\)\)/);
+    expect(probe.warnings.join(' ')).toMatch(/conditional on the [\d,]+ surviving paths/);
+    expect(result.stderr).toMatch(/warning: cell rate-mean: conditional on/);
+  });
+
+  it('exits 3 with no estimates when every path is lost', async () => {
+    const result = await runCli(['run', fixture('every-path-lost.json'), '--workers', '1']);
+    expect(result.code).toBe(3);
+    const output = runOutput.parse(JSON.parse(result.stdout));
+    const sim = computedCell(output, 'stock-run');
+    const probe = output.cells.find((c) => c.id === 'stock-mean');
+    if (sim?.kind !== 'simulation') throw new Error('missing simulation output');
+    expect(sim.losses.allLost).toBe(true);
+    expect(sim.losses.advice.join(' ')).toMatch(/logarithm in the drift of N/);
+    expect(Object.values(sim.final).every((summary) => summary.mean === null)).toBe(true);
+    expect(probe && 'error' in probe ? probe.error : '').toMatch(/no estimate: every path was lost/);
+    expect(result.stderr).toMatch(/cell stock-run: every path was lost, so it has no estimates/);
   });
 });
