@@ -12,7 +12,7 @@ import { planLayout } from './layout';
 import { moments, quantilesInPlace } from './statistics';
 import { runDigest } from './run-digest';
 import { lossSummary } from './losses';
-import { meanSquareStability } from './stability';
+import { stabilityReport } from './stability';
 
 function checkChunks(plan: SimulationPlan, chunks: ChunkResult[], stateCount: number): void {
   if (chunks.length === 0) throw new RangeError('nothing to merge: no chunks were given');
@@ -217,7 +217,10 @@ export function mergeChunks(plan: SimulationPlan, chunks: ChunkResult[]): Simula
     losses,
     blowups: blowupSummary(losses),
     extinctions: extinctionSummaries(plan, absorptionTime),
-    stability: meanSquareStability(plan),
+    stability: stabilityReport(plan, {
+      savedTimes: layout.savedTimes,
+      meanStates: stats.map((s) => s.mean),
+    }),
     digest,
   };
 }

@@ -37,14 +37,22 @@ function lossNote(result: SimulationResult): string | undefined {
     : undefined;
 }
 
-/** What every estimate of this run must carry: conditional on surviving paths. */
+/** What every estimate of this run must carry: an unstable step, conditional on surviving paths. */
 function runWarnings(result: SimulationResult): string[] {
-  const { losses } = result;
-  if (!losses.conditional) return [];
-  const survivors = losses.paths - losses.count;
-  return [
-    `conditional on the ${survivors.toLocaleString('en')} surviving paths: ${losses.count.toLocaleString('en')} of ${losses.paths.toLocaleString('en')} were lost (see the simulation), so this is not an estimate for the model itself`,
-  ];
+  const { losses, stability } = result;
+  const warnings: string[] = [];
+  if (stability !== null && !stability.stable && stability.modelStable) {
+    warnings.push(
+      `the step is unstable for this model (see the simulation): this estimate reflects the scheme's growth, not the model`,
+    );
+  }
+  if (losses.conditional) {
+    const survivors = losses.paths - losses.count;
+    warnings.push(
+      `conditional on the ${survivors.toLocaleString('en')} surviving paths: ${losses.count.toLocaleString('en')} of ${losses.paths.toLocaleString('en')} were lost (see the simulation), so this is not an estimate for the model itself`,
+    );
+  }
+  return warnings;
 }
 
 function joinNotes(...notes: (string | undefined)[]): string | undefined {

@@ -113,17 +113,31 @@ export interface ExtinctionSummary {
 }
 
 export interface StabilityReport {
+  /**
+   * 'mean-square': scalar model dX = λX dt + μX dW, the scheme's exact mean-square factor E[R²]
+   * (Higham 2000). 'linear-drift': the drift's Jacobian at the initial state and at the mean state
+   * of each saved time; the step is unstable where |R(hλ)| > 1 for an eigenvalue λ (R(z) = 1 + z
+   * for Euler–Maruyama and Milstein, 1 + z + z²/2 for Heun), which is the whole mean-square
+   * condition for additive noise and a necessary one otherwise.
+   */
+  check: 'mean-square' | 'linear-drift';
   scheme: Method;
-  /** Drift = lambda · x. */
+  /** Drift = lambda · x (mean-square), or the real part of the eigenvalue that decides (linear-drift). */
   lambda: number;
-  /** Diffusion = mu · x. */
-  mu: number;
+  /** Imaginary part of that eigenvalue (0 for the mean-square check). */
+  lambdaImag: number;
+  /** Diffusion = mu · x (mean-square check), else null. */
+  mu: number | null;
   h: number;
+  /** Time of the state where the check is worst (t0 for the initial state). */
+  time: number;
   stable: boolean;
-  /** The model's own second moment decays (2λ + μ² < 0 in Itô form); when it does not, no step is stable. */
+  /** The model's own second moment (mean-square) or linearised drift (linear-drift) decays; when it does not, no step is stable and no step is to blame. */
   modelStable: boolean;
-  /** The scheme's mean-square amplification factor E[R²]; stable iff < 1. */
+  /** E[R²] (mean-square) or the largest |R(hλ)| (linear-drift); stable iff < 1 (≤ 1 for linear-drift). */
   amplification: number;
+  /** Largest step that would be stable at the worst state, or null when none would (or no bound applies). */
+  maxStableStep: number | null;
   message: string;
 }
 

@@ -38,6 +38,21 @@ export interface LossesOutput {
   advice: string[];
 }
 
+/** The step's stability (see StabilityReport in shared/engine/result.ts). */
+export interface StabilityOutput {
+  check: 'mean-square' | 'linear-drift';
+  stable: boolean;
+  /** False when the model's own moments grow: then no step is to blame. */
+  modelStable: boolean;
+  h: number;
+  amplification: number | null;
+  lambda: number | null;
+  lambdaImag: number | null;
+  time: number;
+  maxStableStep: number | null;
+  message: string;
+}
+
 export interface SimulationOutput {
   id: string;
   kind: 'simulation';
@@ -49,6 +64,8 @@ export interface SimulationOutput {
   /** Distribution of each state variable at t1, over the paths that were not lost. */
   final: Record<string, StateSummary>;
   losses: LossesOutput;
+  /** Null when the drift could not be linearised (not finite at the initial state). */
+  stability: StabilityOutput | null;
   digest: string;
 }
 
@@ -123,10 +140,13 @@ export function simulationOutput(id: string, result: SimulationResult): Simulati
       },
     };
   });
-  const { losses } = result;
-  const warnings = losses.conditional
-    ? [`${losses.message ?? ''} ${losses.advice.map((line) => `Advice: ${line}.`).join(' ')}`.trim()]
-    : [];
+  const { losses, stability } = result;
+  const warnings = [
+    ...(stability !== null && !stability.stable && stability.modelStable ? [stability.message] : []),
+    ...(losses.conditional
+      ? [`${losses.message ?? ''} ${losses.advice.map((line) => `Advice: ${line}.`).join(' ')}`.trim()]
+      : []),
+  ];
   return {
     id,
     kind: 'simulation',
@@ -145,6 +165,21 @@ export function simulationOutput(id: string, result: SimulationResult): Simulati
       message: losses.message,
       advice: [...losses.advice],
     },
+    stability:
+      stability === null
+        ? null
+        : {
+            check: stability.check,
+            stable: stability.stable,
+            modelStable: stability.modelStable,
+            h: stability.h,
+            amplification: finiteOrNull(stability.amplification),
+            lambda: finiteOrNull(stability.lambda),
+            lambdaImag: finiteOrNull(stability.lambdaImag),
+            time: stability.time,
+            maxStableStep: stability.maxStableStep,
+            message: stability.message,
+          },
     digest: result.digest,
   };
 }

@@ -71,6 +71,21 @@ const simulationOutput = z
         advice: z.array(z.string()),
       })
       .strict(),
+    stability: z
+      .object({
+        check: z.enum(['mean-square', 'linear-drift']),
+        stable: z.boolean(),
+        modelStable: z.boolean(),
+        h: z.number(),
+        amplification: nullableNumber,
+        lambda: nullableNumber,
+        lambdaImag: nullableNumber,
+        time: z.number(),
+        maxStableStep: nullableNumber,
+        message: z.string(),
+      })
+      .strict()
+      .nullable(),
     digest: z.string().regex(/^[0-9a-f]{16}$/),
   })
   .strict();
@@ -245,5 +260,21 @@ describe('sheet run (command line)', () => {
     expect(Object.values(sim.final).every((summary) => summary.mean === null)).toBe(true);
     expect(probe && 'error' in probe ? probe.error : '').toMatch(/no estimate: every path was lost/);
     expect(result.stderr).toMatch(/cell stock-run: every path was lost, so it has no estimates/);
+  });
+
+  it('says a stiff linear model at hλ = −10 is unstable, in the simulation and in every probe', async () => {
+    const result = await runCli(['run', fixture('stiff-linear-large-step.json'), '--workers', '1']);
+    expect(result.code).toBe(0);
+    const output = runOutput.parse(JSON.parse(result.stdout));
+    const sim = computedCell(output, 'lag-run');
+    const probe = computedCell(output, 'lag-mean');
+    if (sim.kind !== 'simulation' || probe.kind !== 'probe') throw new Error('unexpected kinds');
+    expect(sim.stability).toMatchObject({ check: 'linear-drift', stable: false, modelStable: true });
+    expect(sim.stability!.maxStableStep).toBeCloseTo(0.02, 6); // h < 2/|λ| for Euler's step
+    expect(sim.warnings[0]).toMatch(/NOT stable .*\(hλ = −10\)/);
+    // The warnings come before the numbers they qualify, in the JSON text too.
+    expect(result.stdout.indexOf('NOT stable')).toBeLessThan(result.stdout.indexOf('"final"'));
+    expect(probe.warnings.join(' ')).toMatch(/step is unstable/);
+    expect(result.stderr).toMatch(/warning: cell lag-run: Euler–Maruyama with step 0\.1 is NOT stable/);
   });
 });
