@@ -12,6 +12,7 @@ import { planLayout } from './layout';
 import { moments, quantilesInPlace } from './statistics';
 import { runDigest } from './run-digest';
 import { lossSummary } from './losses';
+import { savedCovariance } from './covariance';
 import { stabilityReport } from './stability';
 
 function checkChunks(plan: SimulationPlan, chunks: ChunkResult[], stateCount: number): void {
@@ -151,6 +152,7 @@ export function mergeChunks(plan: SimulationPlan, chunks: ChunkResult[]): Simula
   });
   const scratch = new Float64Array(paths);
   const stats = savedValues.map((values) => savedStats(values, paths, saveCount, scratch));
+  const covariance = savedCovariance(savedValues, stats, paths, saveCount);
   const finalValues = savedValues.map((values) => values.slice((saveCount - 1) * paths, saveCount * paths));
   const sampleCount = Math.min(plan.samplePaths, paths);
   const samplePaths = savedValues.map((values) =>
@@ -181,6 +183,7 @@ export function mergeChunks(plan: SimulationPlan, chunks: ChunkResult[]): Simula
     savedTimes: layout.savedTimes,
     stats,
     savedValues,
+    covariance,
     probeValues: probes.map((probe) => probe.values),
     runningMax,
     runningMin,
@@ -204,6 +207,7 @@ export function mergeChunks(plan: SimulationPlan, chunks: ChunkResult[]): Simula
     savedSteps: layout.saveSteps.slice(0, saveCount),
     stats,
     savedValues,
+    covariance,
     samplePaths,
     finalValues,
     probes,

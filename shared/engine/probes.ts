@@ -1,5 +1,6 @@
 import type { ProbeEstimate, ProbeRequest, SimulationResult } from './result';
 import { moments, quantileSorted, sortFinite } from './statistics';
+import { pairMoments } from './covariance';
 
 /** Two-sided 95 % normal quantile, z_{0.975}. */
 export const Z95 = 1.959963984540054;
@@ -155,6 +156,66 @@ export function quantileEstimate(
   const upperRank = Math.min(n, Math.ceil(n * probability + spread));
   const ci: [number, number] = [scratch[lowerRank - 1]!, scratch[upperRank - 1]!];
   return { estimate, standardError: (ci[1] - ci[0]) / (2 * Z95), ci, paths: n, ...(note ? { note } : {}) };
+}
+
+function secondState(result: SimulationResult, probe: ProbeRequest): number {
+  const y = probe.stateY;
+  if (y === undefined || !Number.isInteger(y) || y < 0 || y >= result.stateNames.length || y === probe.state)
+    throw new RangeError(`the ${probe.quantity} probe needs a second state, different from the first`);
+  return y;
+}
+
+/**
+ * Covariance of two states at a time, unbiased, with the large-sample standard error of the
+ * sample covariance √((m₂₂ − s²ₓᵧ)/n), m₂₂ the mean of ((x − x̄)(y − ȳ))² (delta method; e.g.
+ * Cramér 1946, §27.8); normal 95 % interval.
+ */
+function covarianceEstimate(result: SimulationResult, probe: ProbeRequest, note?: string): ProbeEstimate {
+  const y = secondState(result, probe);
+  const m = pairMoments(
+    valuesAt(result, probe.state, probe.time).values,
+    valuesAt(result, y, probe.time).values,
+  );
+  const standardError = Math.sqrt(Math.max(0, m.productSquare - m.covariance ** 2) / m.count);
+  return {
+    estimate: m.covariance,
+    standardError,
+    ci: [m.covariance - Z95 * standardError, m.covariance + Z95 * standardError],
+    paths: m.count,
+    ...(note ? { note } : {}),
+  };
+}
+
+/**
+ * Pearson correlation of two states at a time. Interval by Fisher's transform (Fisher 1921):
+ * atanh(r) ± z/√(n − 3), mapped back with tanh; standard error (1 − r²)/√(n − 3), its delta-method
+ * counterpart. Both assume a joint law not far from normal, which the note says.
+ */
+function correlationEstimate(result: SimulationResult, probe: ProbeRequest, note?: string): ProbeEstimate {
+  const y = secondState(result, probe);
+  const m = pairMoments(
+    valuesAt(result, probe.state, probe.time).values,
+    valuesAt(result, y, probe.time).values,
+  );
+  const r = m.covariance / Math.sqrt(m.varianceX * m.varianceY);
+  const fisherNote = 'interval by Fisher’s transform, which assumes a joint law close to normal';
+  if (!(m.count > 3) || !Number.isFinite(r))
+    return {
+      estimate: r,
+      standardError: NaN,
+      ci: [NaN, NaN],
+      paths: m.count,
+      note: joinNotes(note, fisherNote),
+    };
+  const half = Z95 / Math.sqrt(m.count - 3);
+  const z = Math.atanh(Math.max(-1, Math.min(1, r)));
+  return {
+    estimate: r,
+    standardError: (1 - r * r) / Math.sqrt(m.count - 3),
+    ci: [Math.tanh(z - half), Math.tanh(z + half)],
+    paths: m.count,
+    note: joinNotes(note, fisherNote),
+  };
 }
 
 function watchIndex(
@@ -316,5 +377,9 @@ function estimateProbe(result: SimulationResult, probe: ProbeRequest): ProbeEsti
       return firstPassage(result, probe);
     case 'extinction':
       return extinction(result, probe);
+    case 'covariance':
+      return covarianceEstimate(result, probe, note);
+    case 'correlation':
+      return correlationEstimate(result, probe, note);
   }
 }

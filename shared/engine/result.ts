@@ -171,6 +171,11 @@ export interface SimulationResult {
    * probes can read the distribution at any saved time.
    */
   savedValues: Float64Array[];
+  /**
+   * Covariance matrix of the states at each saved time, index (k · d + i) · d + j (unbiased, over
+   * live paths; the diagonal is stats[i].variance), or null for a model with one state.
+   */
+  covariance: Float64Array | null;
   /** Per state, per sample path: that path's values at the saved times. */
   samplePaths: Float64Array[][];
   /** Per state: every path's value at t1 (NaN for blown-up paths). */
@@ -206,8 +211,12 @@ export interface ProbeRequest {
     | 'subceedance'
     | 'hit-before'
     | 'first-passage'
-    | 'extinction';
+    | 'extinction'
+    | 'covariance'
+    | 'correlation';
   state: number;
+  /** The second state of a covariance or correlation. */
+  stateY?: number;
   /** Default t1. */
   time?: number;
   level?: number;

@@ -7,6 +7,7 @@ import type { SavedStats } from './result';
  *   paths, lost paths, saved times;
  *   per state: mean, variance, q05, q25, q50, q75, q95, min, max, live at each saved time,
  *     then every path's value at every saved time (which includes the final values);
+ *   the covariance matrices at the saved times (models with several states);
  *   per probe time, per state: every path's value;
  *   per state: every path's running maximum, then running minimum;
  *   per watch: every path's first-passage time;
@@ -20,6 +21,7 @@ export interface DigestParts {
   savedTimes: Float64Array;
   stats: SavedStats[];
   savedValues: Float64Array[];
+  covariance: Float64Array | null;
   probeValues: Float64Array[][];
   runningMax: Float64Array[];
   runningMin: Float64Array[];
@@ -36,6 +38,7 @@ export function runDigest(parts: DigestParts): string {
       digest.addNumbers(column);
     digest.addNumbers(parts.savedValues[i]!);
   });
+  if (parts.covariance !== null) digest.addNumbers(parts.covariance);
   for (const probe of parts.probeValues) for (const values of probe) digest.addNumbers(values);
   for (const values of parts.runningMax) digest.addNumbers(values);
   for (const values of parts.runningMin) digest.addNumbers(values);

@@ -63,6 +63,8 @@ export interface SimulationOutput {
   warnings: string[];
   /** Distribution of each state variable at t1, over the paths that were not lost. */
   final: Record<string, StateSummary>;
+  /** Covariance matrix of the states at t1, rows and columns in state order; null for one state. */
+  finalCovariance: (number | null)[][] | null;
   losses: LossesOutput;
   /** Null when the drift could not be linearised (not finite at the initial state). */
   stability: StabilityOutput | null;
@@ -155,6 +157,7 @@ export function simulationOutput(id: string, result: SimulationResult): Simulati
     steps: result.steps,
     warnings,
     final,
+    finalCovariance: finalCovariance(result),
     losses: {
       count: losses.count,
       share: losses.share,
@@ -182,6 +185,16 @@ export function simulationOutput(id: string, result: SimulationResult): Simulati
           },
     digest: result.digest,
   };
+}
+
+function finalCovariance(result: SimulationResult): (number | null)[][] | null {
+  const { covariance, stateNames } = result;
+  if (covariance === null) return null;
+  const d = stateNames.length;
+  const last = result.savedTimes.length - 1;
+  return stateNames.map((_, i) =>
+    stateNames.map((__, j) => finiteOrNull(covariance[(last * d + i) * d + j]!)),
+  );
 }
 
 export function probeOutput(id: string, estimate: ProbeEstimate): ProbeOutput {

@@ -166,6 +166,7 @@ export function fakeRun(options: { paths?: number; samplePaths?: number; saveCou
     savedSteps: Int32Array.from({ length: saveCount }, (_, k) => k * 300),
     stats: [stats(saveCount, (k) => 2.5 + k * 0.01)],
     savedValues: [savedValues],
+    covariance: null,
     samplePaths: [samplePaths],
     finalValues: [savedValues.slice((saveCount - 1) * paths)],
     probes: [],

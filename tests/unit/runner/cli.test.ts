@@ -57,6 +57,7 @@ const simulationOutput = z
       z.string(),
       z.object({ mean: nullableNumber, variance: nullableNumber, quantiles }).strict(),
     ),
+    finalCovariance: z.array(z.array(nullableNumber)).nullable(),
     losses: z
       .object({
         count: z.number().int().min(0),
