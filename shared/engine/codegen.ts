@@ -100,10 +100,10 @@ function initialValues(plan: SimulationPlan): string {
   return plan.model.initial.map((value, i) => `s${i} = ${numberLiteral(value)};`).join(' ');
 }
 
-function watchUpdates(plan: SimulationPlan, time: string): string {
+function watchUpdates(plan: SimulationPlan, layout: PlanLayout, time: string): string {
   return plan.watches
     .map((watch, w) => {
-      const level = numberLiteral(watch.level);
+      const level = numberLiteral(layout.watchLevels[w]!);
       const reached =
         watch.direction === 'below' ? `s${watch.state} <= ${level}` : `s${watch.state} >= ${level}`;
       return `if (hw${w} === 0 && ${reached}) { hw${w} = 1; fp${w} = ${time}; }`;
@@ -188,7 +188,7 @@ export function buildKernelSource(plan: SimulationPlan, layout: PlanLayout): str
     ? `if (!(${outsideSeen})) {\n${blowupAndRunning}\n}`
     : blowupAndRunning;
   /** The step after its draws: increments, scheme, boundaries, checks, watches. */
-  const stepTail = `${p.increments}\n${p.stepAndBoundaries}\n${checks}\n${watchUpdates(plan, END_OF_STEP)}`;
+  const stepTail = `${p.increments}\n${p.stepAndBoundaries}\n${checks}\n${watchUpdates(plan, layout, END_OF_STEP)}`;
   const fastDraws = range(m)
     .map((j) => fastNormalDrawSource(`z${j}`, `slow = ${j}; break;`))
     .join('\n');
@@ -233,7 +233,7 @@ function runPath(p) {
   ${plan.watches.map((_, w) => `hw${w} = 0; fp${w} = NaN;`).join(' ')}
   ${p.initialBoundaries}
   ${states.map((i) => `mx${i} = s${i}; mn${i} = s${i};`).join(' ')}
-  ${watchUpdates(plan, 't0')}
+  ${watchUpdates(plan, layout, 't0')}
   while (saveSteps[k] === 0) { ${save} k++; }
   while (probeSteps[q] === 0) { j = probeOrder[q]; ${probe} q++; }
   n = 1;

@@ -1,6 +1,7 @@
 import type { SimulationPlan } from './plan';
 import { choleskyOfCorrelation } from './cholesky';
 import { MAX_PATHS, MAX_STEPS } from './limits';
+import { monitoredLevel } from './monitoring';
 
 /**
  * Everything the kernel and the merge derive from a plan, checked once: sizes, the step, the
@@ -18,6 +19,8 @@ export interface PlanLayout {
   probeTimes: Float64Array;
   /** Probe indices sorted by step, followed by a sentinel −1 (the kernel walks them in time order). */
   probeOrder: Int32Array;
+  /** Per watch, the level the kernel compares against (shifted by a continuity correction). */
+  watchLevels: Float64Array;
   /** Lower-triangular m × m factor (row-major), or null for independent noise. */
   cholesky: Float64Array | null;
 }
@@ -118,5 +121,17 @@ export function planLayout(plan: SimulationPlan): PlanLayout {
     model.correlation === null || noiseCount === 0
       ? null
       : choleskyOfCorrelation(model.correlation, noiseCount);
-  return { stateCount, noiseCount, h, saveSteps, savedTimes, probeSteps, probeTimes, probeOrder, cholesky };
+  const watchLevels = Float64Array.from(plan.watches, (watch) => monitoredLevel(plan, watch, h));
+  return {
+    stateCount,
+    noiseCount,
+    h,
+    saveSteps,
+    savedTimes,
+    probeSteps,
+    probeTimes,
+    probeOrder,
+    watchLevels,
+    cholesky,
+  };
 }

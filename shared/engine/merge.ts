@@ -214,6 +214,7 @@ export function mergeChunks(plan: SimulationPlan, chunks: ChunkResult[]): Simula
     runningMax,
     runningMin,
     watches: plan.watches.map((watch) => ({ ...watch })),
+    watchLevels: layout.watchLevels,
     firstPassage,
     absorptionTime,
     blowupTime,

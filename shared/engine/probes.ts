@@ -223,10 +223,27 @@ function watchIndex(
   state: number,
   level: number,
   direction: 'above' | 'below',
+  monitoring: ProbeRequest['monitoring'] = 'discrete',
 ): number {
+  const correction = monitoring === 'bgk' ? 'bgk' : 'none';
   return result.watches.findIndex(
-    (watch) => watch.state === state && watch.level === level && watch.direction === direction,
+    (watch) =>
+      watch.state === state &&
+      watch.level === level &&
+      watch.direction === direction &&
+      (watch.correction ?? 'none') === correction,
   );
+}
+
+/** How a crossing probe watched its level, in words (said on the probe's output). */
+function monitoringText(result: SimulationResult, watch: number): string {
+  const spec = result.watches[watch];
+  const steps = `${result.steps.toLocaleString('en')} steps`;
+  if (spec === undefined || (spec.correction ?? 'none') === 'none') {
+    return `discrete monitoring: the level is checked at the ${steps} only, so crossings between steps are missed and crossing probabilities are biased low (choose the continuity correction, or more steps)`;
+  }
+  const shift = Math.abs(result.watchLevels[watch]! - spec.level);
+  return `continuity-corrected (Broadie–Glasserman–Kou): checked at the ${steps} against the level moved ${shift.toPrecision(3)} (0.5826·σ·√h) toward the start`;
 }
 
 /** Hit indicator per live path: reached `level` from `direction` by `time`. */
@@ -235,9 +252,13 @@ function hits(
   probe: ProbeRequest,
   level: number,
   direction: 'above' | 'below',
-): { hit: Uint8Array; live: Uint8Array } {
+): { hit: Uint8Array; live: Uint8Array; watch: number } {
   const time = probe.time ?? result.t1;
-  const watch = watchIndex(result, probe.state, level, direction);
+  const watch = watchIndex(result, probe.state, level, direction, probe.monitoring);
+  if (watch < 0 && probe.monitoring === 'bgk')
+    throw new RangeError(
+      `the continuity correction needs the level ${level} to be watched with it during the run`,
+    );
   const hit = new Uint8Array(result.paths);
   const live = new Uint8Array(result.paths);
   const atEnd = Math.abs(time - result.t1) <= result.h / 2;
@@ -258,13 +279,13 @@ function hits(
       hit[p] = result.runningMin[probe.state]![p]! <= level ? 1 : 0;
     }
   }
-  return { hit, live };
+  return { hit, live, watch };
 }
 
 function firstPassage(result: SimulationResult, probe: ProbeRequest): ProbeEstimate {
   const level = requireLevel(probe);
   const direction = probe.direction ?? 'above';
-  const watch = watchIndex(result, probe.state, level, direction);
+  const watch = watchIndex(result, probe.state, level, direction, probe.monitoring);
   if (watch < 0)
     throw new RangeError(
       `first-passage times to ${level} (${direction}) were not recorded: the level must be watched during the run`,
@@ -283,16 +304,19 @@ function firstPassage(result: SimulationResult, probe: ProbeRequest): ProbeEstim
     lossNote(result),
   );
   const times = Float64Array.from(reached);
-  if (probe.probability !== undefined) return quantileEstimate(times, probe.probability, note);
+  const monitoring = monitoringText(result, watch);
+  if (probe.probability !== undefined)
+    return { ...quantileEstimate(times, probe.probability, note), monitoring };
   if (times.length < 2)
     return {
       estimate: times.length === 1 ? times[0]! : NaN,
       standardError: NaN,
       ci: [NaN, NaN],
       paths: times.length,
+      monitoring,
       ...(note ? { note } : {}),
     };
-  return mean(times, note);
+  return { ...mean(times, note), monitoring };
 }
 
 function extinction(result: SimulationResult, probe: ProbeRequest): ProbeEstimate {
@@ -364,14 +388,14 @@ function estimateProbe(result: SimulationResult, probe: ProbeRequest): ProbeEsti
     }
     case 'hit-before': {
       const level = requireLevel(probe);
-      const { hit, live } = hits(result, probe, level, probe.direction ?? 'above');
+      const { hit, live, watch } = hits(result, probe, level, probe.direction ?? 'above');
       let trials = 0;
       let successes = 0;
       for (let p = 0; p < result.paths; p++) {
         trials += live[p]!;
         successes += hit[p]!;
       }
-      return proportion(successes, trials, note);
+      return { ...proportion(successes, trials, note), monitoring: monitoringText(result, watch) };
     }
     case 'first-passage':
       return firstPassage(result, probe);

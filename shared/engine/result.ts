@@ -185,6 +185,8 @@ export interface SimulationResult {
   runningMax: Float64Array[];
   runningMin: Float64Array[];
   watches: WatchSpec[];
+  /** Per watch: the level the run compared against (the watch's own, or continuity-corrected). */
+  watchLevels: Float64Array;
   /** Per watch, per path: first time the level was reached (NaN = not reached). */
   firstPassage: Float64Array[];
   /** Per state, per path: absorption time (NaN = not absorbed). */
@@ -223,6 +225,8 @@ export interface ProbeRequest {
   probability?: number;
   /** Default 'above'. */
   direction?: 'above' | 'below';
+  /** hit-before and first-passage: steps only ('discrete', default) or continuity-corrected ('bgk'). */
+  monitoring?: 'discrete' | 'bgk';
 }
 
 export interface ProbeEstimate {
@@ -238,6 +242,8 @@ export interface ProbeEstimate {
    * unstable step. Absent or empty when there is nothing to say.
    */
   warnings?: string[];
+  /** hit-before and first-passage: how the path was watched between steps, in words. */
+  monitoring?: string;
 }
 
 export interface StudyOptions {

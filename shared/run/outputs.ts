@@ -81,6 +81,8 @@ export interface ProbeOutput {
   /** What a reader must know before using the estimate (empty when nothing). */
   warnings: string[];
   note?: string;
+  /** hit-before and first-passage: how the level was watched between steps, in words. */
+  monitoring?: string;
 }
 
 export interface StudyLevelOutput {
@@ -208,6 +210,7 @@ export function probeOutput(id: string, estimate: ProbeEstimate): ProbeOutput {
     warnings: [...(estimate.warnings ?? [])],
   };
   if (estimate.note) output.note = estimate.note;
+  if (estimate.monitoring) output.monitoring = estimate.monitoring;
   return output;
 }
 
@@ -255,6 +258,7 @@ export function probeRequest(cell: ProbeCell, stateNames: readonly string[]): Pr
   if (cell.level !== undefined) request.level = cell.level;
   if (cell.probability !== undefined) request.probability = cell.probability;
   if (cell.direction !== undefined) request.direction = cell.direction;
+  if (cell.monitoring !== undefined) request.monitoring = cell.monitoring;
   return request;
 }
 

@@ -144,6 +144,12 @@ export const probeCellSchema = z.object({
   probability: z.number().gt(0).lt(1).optional(),
   /** Which side the level is approached from for hit-before and first-passage; default 'above'. */
   direction: z.enum(['above', 'below']).optional(),
+  /**
+   * hit-before and first-passage: 'discrete' (absent = discrete) checks the level at the steps
+   * only; 'bgk' applies the Broadie–Glasserman–Kou continuity correction (needs the state's
+   * diffusion to depend on that state alone). Optional, so older documents stay valid.
+   */
+  monitoring: z.enum(['discrete', 'bgk']).optional(),
 });
 
 export const chartViewSchema = z.enum(['paths', 'fan', 'histogram', 'phase']);

@@ -131,7 +131,16 @@ function watches(doc: SheetDocument, sim: SimulationCell, model: ModelCell): Wat
       direction = cell.direction ?? 'above';
     else if (cell.quantity === 'extinction') direction = 'below';
     else continue;
-    found.set(`${state}|${cell.level}|${direction}`, { state, level: cell.level, direction });
+    const correction =
+      cell.monitoring === 'bgk' && (cell.quantity === 'hit-before' || cell.quantity === 'first-passage')
+        ? 'bgk'
+        : 'none';
+    found.set(`${state}|${cell.level}|${direction}|${correction}`, {
+      state,
+      level: cell.level,
+      direction,
+      correction,
+    });
   }
   return [...found.values()];
 }

@@ -173,6 +173,7 @@ export function fakeRun(options: { paths?: number; samplePaths?: number; saveCou
     runningMax: [new Float64Array(paths)],
     runningMin: [new Float64Array(paths)],
     watches: [],
+    watchLevels: new Float64Array(0),
     firstPassage: [],
     absorptionTime: [new Float64Array(paths).fill(Number.NaN)],
     blowupTime: new Float64Array(paths).fill(Number.NaN),

@@ -100,6 +100,7 @@ const probeOutput = z
     paths: z.number().int().min(0),
     warnings: z.array(z.string()),
     note: z.string().optional(),
+    monitoring: z.string().optional(),
   })
   .strict();
 const failedOutput = z
