@@ -18,7 +18,7 @@ async function main(argv: string[]): Promise<number> {
     console.error(USAGE);
     return 0;
   }
-  const outcome = await runCommand(args);
+  const outcome = await runCommand(args, (line) => console.error(line));
   for (const line of outcome.stderr) console.error(line);
   if (outcome.stdout) process.stdout.write(`${outcome.stdout}\n`);
   return outcome.exitCode;

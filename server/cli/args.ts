@@ -33,7 +33,11 @@ object { "title", "cells": [...] } on stdout.
   --workers N       worker threads to simulate on (default: one per core)
   --paths-scale F   multiply every path count by F (e.g. 0.1 for a quick look)
 
-Exit codes: 0 done, 1 invalid sheet (details on stderr) or a cell failed, 2 usage error.`;
+Warnings (estimates conditional on surviving paths, an unstable step) go to stderr and into
+the JSON of the cells concerned.
+
+Exit codes: 0 done, 1 invalid sheet (details on stderr) or a cell failed, 2 usage error,
+3 a simulation lost every path (no estimates).`;
 
 function positiveNumber(flag: string, text: string | undefined, integer: boolean): number {
   if (text === undefined || text.startsWith('--')) throw new UsageError(`${flag} needs a value`);

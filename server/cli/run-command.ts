@@ -1,5 +1,7 @@
 import { readFile } from 'node:fs/promises';
+import { estimateWork } from '../../shared/engine/work';
 import { runSheetToJson } from '../../shared/run/run-sheet';
+import { buildSimulationPlan, type SheetDocument } from '../../shared/sheet/index';
 import { scaleSheetPaths } from '../../shared/run/scale';
 import type { SheetRunJson } from '../../shared/run/outputs';
 import type { RunArguments } from './args';
@@ -16,8 +18,28 @@ export interface CommandOutcome {
 export const EXIT_OK = 0;
 export const EXIT_INVALID = 1;
 export const EXIT_USAGE = 2;
+/** A simulation lost every path, so it (and every probe reading it) has no estimate. */
+export const EXIT_NO_ESTIMATE = 3;
 
-export async function runCommand(args: RunArguments): Promise<CommandOutcome> {
+/** Estimates of the simulations whose work is far beyond a few minutes, printed before the run starts. */
+function workNotices(doc: SheetDocument): string[] {
+  return doc.cells.flatMap((cell) => {
+    if (cell.kind !== 'simulation') return [];
+    let estimate;
+    try {
+      estimate = estimateWork(buildSimulationPlan(doc, cell.id));
+    } catch {
+      return []; // the run itself reports what is wrong with this cell
+    }
+    return estimate.message === null ? [] : [`cell ${cell.id}: ${estimate.message}`];
+  });
+}
+
+/** `notify` prints at once (stderr): notices a user should see before a long run, not after it. */
+export async function runCommand(
+  args: RunArguments,
+  notify: (line: string) => void = () => {},
+): Promise<CommandOutcome> {
   let text: string;
   try {
     text = await readFile(args.file, 'utf8');
@@ -39,6 +61,7 @@ export async function runCommand(args: RunArguments): Promise<CommandOutcome> {
     };
   }
   const doc = args.pathsScale === null ? validation.doc : scaleSheetPaths(validation.doc, args.pathsScale);
+  for (const notice of workNotices(doc)) notify(notice);
   const threads = createThreadPool(args.workers ?? defaultThreadCount());
   let output: SheetRunJson;
   try {
@@ -47,9 +70,21 @@ export async function runCommand(args: RunArguments): Promise<CommandOutcome> {
     await threads.close();
   }
   const failed = output.cells.flatMap((cell) => ('error' in cell ? [`cell ${cell.id}: ${cell.error}`] : []));
+  const allLost = output.cells.flatMap((cell) =>
+    cell.kind === 'simulation' && 'losses' in cell && cell.losses.allLost
+      ? [`cell ${cell.id}: every path was lost, so it has no estimates`]
+      : [],
+  );
+  const warnings = output.cells.flatMap((cell) =>
+    'warnings' in cell ? cell.warnings.map((warning) => `warning: cell ${cell.id}: ${warning}`) : [],
+  );
   return {
-    exitCode: failed.length > 0 ? EXIT_INVALID : EXIT_OK,
+    exitCode: allLost.length > 0 ? EXIT_NO_ESTIMATE : failed.length > 0 ? EXIT_INVALID : EXIT_OK,
     stdout: JSON.stringify(output),
-    stderr: failed.length > 0 ? ['some cells could not be computed:', ...failed.map((p) => `  ${p}`)] : [],
+    stderr: [
+      ...warnings,
+      ...(failed.length > 0 ? ['some cells could not be computed:', ...failed.map((p) => `  ${p}`)] : []),
+      ...allLost,
+    ],
   };
 }

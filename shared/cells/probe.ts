@@ -34,6 +34,12 @@ export const probeCellSchema = z.object({
   probability: z.number().gt(0).lt(1).optional(),
   /** Which side the level is approached from for hit-before and first-passage; default 'above'. */
   direction: z.enum(['above', 'below']).optional(),
+  /**
+   * hit-before and first-passage: 'discrete' (absent = discrete) checks the level at the steps
+   * only; 'bgk' applies the Broadie–Glasserman–Kou continuity correction (needs the state's
+   * diffusion to depend on that state alone). Optional, so older documents stay valid.
+   */
+  monitoring: z.enum(['discrete', 'bgk']).optional(),
 });
 
 const PROBE_WORDS: Record<ProbeQuantity, string> = {
@@ -57,6 +63,7 @@ export function probeRequest(cell: ProbeCell, stateNames: readonly string[]): Pr
   if (cell.level !== undefined) request.level = cell.level;
   if (cell.probability !== undefined) request.probability = cell.probability;
   if (cell.direction !== undefined) request.direction = cell.direction;
+  if (cell.monitoring !== undefined) request.monitoring = cell.monitoring;
   return request;
 }
 
@@ -92,7 +99,9 @@ export const probeKind: CellKindDefinition<'probe'> = {
     const direction = watchDirection(cell);
     if (cell.level === undefined || direction === null) return { times, watches: [] };
     const state = model.states.findIndex((s) => s.name === cell.state);
-    return { times, watches: [{ state, level: cell.level, direction }] };
+    const crossing = cell.quantity === 'hit-before' || cell.quantity === 'first-passage';
+    const correction = crossing && cell.monitoring === 'bgk' ? 'bgk' : 'none';
+    return { times, watches: [{ state, level: cell.level, direction, correction }] };
   },
   run: {
     rank: 1,

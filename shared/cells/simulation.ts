@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { MAX_PATHS, MAX_STEPS } from '../engine/limits';
 import { ENGINE_VERSION } from '../engine/version';
 import { checkSimulation } from '../sheet/check-simulation';
 import { stableStringify } from '../sheet/stable-json';
@@ -26,10 +27,10 @@ export const simulationCellSchema = z.object({
   method: methodSchema.default('euler-maruyama'),
   t0: finite.default(0),
   t1: finite,
-  /** Exactly one of steps and stepSize. */
-  steps: z.number().int().min(1).max(10_000_000).optional(),
+  /** Exactly one of steps and stepSize; a step size must resolve to at most MAX_STEPS steps. */
+  steps: z.number().int().min(1).max(MAX_STEPS).optional(),
   stepSize: z.number().positive().optional(),
-  paths: z.number().int().min(1).max(10_000_000),
+  paths: z.number().int().min(1).max(MAX_PATHS),
   seed: z.number().int().min(0).max(0xffffffff),
   /** Number of saved times on an even grid from t0 to t1 (both included). */
   saveCount: z.number().int().min(2).max(10_001).default(101),

@@ -1,6 +1,9 @@
+// Over 300 lines on purpose: the kernel's source is built in one place so the order of its
+// operations (which fixes the digest) can be read from top to bottom.
 import { EXPRESSION_PRELUDE } from '../expr';
 import type { SimulationPlan } from './plan';
 import type { PlanLayout } from './layout';
+import { LOSS_CAUSE_CODES } from './result';
 import { stepSourceFor } from './methods';
 import { fastNormalDrawSource, normalDrawSource, normalSlowPathSource } from './random/ziggurat';
 
@@ -99,15 +102,28 @@ function initialValues(plan: SimulationPlan): string {
   return plan.model.initial.map((value, i) => `s${i} = ${numberLiteral(value)};`).join(' ');
 }
 
-function watchUpdates(plan: SimulationPlan, time: string): string {
+function watchUpdates(plan: SimulationPlan, layout: PlanLayout, time: string): string {
   return plan.watches
     .map((watch, w) => {
-      const level = numberLiteral(watch.level);
+      const level = numberLiteral(layout.watchLevels[w]!);
       const reached =
         watch.direction === 'below' ? `s${watch.state} <= ${level}` : `s${watch.state} >= ${level}`;
       return `if (hw${w} === 0 && ${reached}) { hw${w} = 1; fp${w} = ${time}; }`;
     })
     .join('\n');
+}
+
+/**
+ * Cause of a lost path from its state at the step it was lost (cold path, once per lost path):
+ * any state not a number means a coefficient was evaluated outside its domain (square root or
+ * logarithm of a negative number, 0/0); else any infinite state is an overflow or a division by
+ * zero; else the state left the blow-up bound. The codes are LOSS_CAUSE_CODES (result.ts).
+ */
+function lossCauseSource(d: number): string {
+  const states = range(d);
+  const notANumber = states.map((i) => `s${i} !== s${i}`).join(' || ');
+  const infinite = states.map((i) => `Math.abs(s${i}) === Infinity`).join(' || ');
+  return `(${notANumber}) ? ${LOSS_CAUSE_CODES.domain} : (${infinite}) ? ${LOSS_CAUSE_CODES.infinite} : ${LOSS_CAUSE_CODES.bound}`;
 }
 
 /**
@@ -174,7 +190,7 @@ export function buildKernelSource(plan: SimulationPlan, layout: PlanLayout): str
     ? `if (!(${outsideSeen})) {\n${blowupAndRunning}\n}`
     : blowupAndRunning;
   /** The step after its draws: increments, scheme, boundaries, checks, watches. */
-  const stepTail = `${p.increments}\n${p.stepAndBoundaries}\n${checks}\n${watchUpdates(plan, END_OF_STEP)}`;
+  const stepTail = `${p.increments}\n${p.stepAndBoundaries}\n${checks}\n${watchUpdates(plan, layout, END_OF_STEP)}`;
   const fastDraws = range(m)
     .map((j) => fastNormalDrawSource(`z${j}`, `slow = ${j}; break;`))
     .join('\n');
@@ -219,7 +235,7 @@ function runPath(p) {
   ${plan.watches.map((_, w) => `hw${w} = 0; fp${w} = NaN;`).join(' ')}
   ${p.initialBoundaries}
   ${states.map((i) => `mx${i} = s${i}; mn${i} = s${i};`).join(' ')}
-  ${watchUpdates(plan, 't0')}
+  ${watchUpdates(plan, layout, 't0')}
   while (saveSteps[k] === 0) { ${save} k++; }
   while (probeSteps[q] === 0) { j = probeOrder[q]; ${probe} q++; }
   n = 1;
@@ -236,10 +252,12 @@ function runPath(p) {
   }
   if (blown) {
     K.blowupTime[p] = t0 + n * h;
+    K.lossCause[p] = ${lossCauseSource(d)};
     for (; saveSteps[k] >= 0; k++) { ${saveNaN} }
     for (; probeSteps[q] >= 0; q++) { j = probeOrder[q]; ${probeNaN} }
   } else {
     K.blowupTime[p] = NaN;
+    K.lossCause[p] = ${LOSS_CAUSE_CODES.none};
   }
   ${states.map((i) => `K.runningMax[${i} * pathCount + p] = mx${i}; K.runningMin[${i} * pathCount + p] = mn${i};`).join('\n  ')}
   ${plan.watches.map((_, w) => `K.firstPassage[${w} * pathCount + p] = fp${w};`).join(' ')}

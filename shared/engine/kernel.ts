@@ -21,6 +21,7 @@ export interface KernelContext {
   firstPassage: Float64Array;
   absorptionTime: Float64Array;
   blowupTime: Float64Array;
+  lossCause: Uint8Array;
   saveSteps: Int32Array;
   probeStepsSorted: Int32Array;
   probeOrder: Int32Array;

@@ -1,5 +1,7 @@
 import type { SimulationPlan } from './plan';
 import { choleskyOfCorrelation } from './cholesky';
+import { MAX_PATHS, MAX_STEPS } from './limits';
+import { monitoredLevel } from './monitoring';
 
 /**
  * Everything the kernel and the merge derive from a plan, checked once: sizes, the step, the
@@ -17,6 +19,8 @@ export interface PlanLayout {
   probeTimes: Float64Array;
   /** Probe indices sorted by step, followed by a sentinel −1 (the kernel walks them in time order). */
   probeOrder: Int32Array;
+  /** Per watch, the level the kernel compares against (shifted by a continuity correction). */
+  watchLevels: Float64Array;
   /** Lower-triangular m × m factor (row-major), or null for independent noise. */
   cholesky: Float64Array | null;
 }
@@ -51,8 +55,16 @@ export function planLayout(plan: SimulationPlan): PlanLayout {
   }
   if (!Number.isInteger(plan.steps) || plan.steps < 1)
     throw new RangeError(`steps must be a positive integer, got ${plan.steps}`);
+  if (plan.steps > MAX_STEPS)
+    throw new RangeError(
+      `a run takes at most ${MAX_STEPS.toLocaleString('en')} steps, this one ${plan.steps.toLocaleString('en')}; use a larger step size`,
+    );
   if (!Number.isInteger(plan.paths) || plan.paths < 1)
     throw new RangeError(`paths must be a positive integer, got ${plan.paths}`);
+  if (plan.paths > MAX_PATHS)
+    throw new RangeError(
+      `a run takes at most ${MAX_PATHS.toLocaleString('en')} paths, this one ${plan.paths.toLocaleString('en')}`,
+    );
   if (!Number.isInteger(plan.seed) || plan.seed < 0 || plan.seed > 0xffffffff)
     throw new RangeError(`the seed must be an integer from 0 to 4294967295, got ${plan.seed}`);
   if (!Number.isInteger(plan.saveCount) || plan.saveCount < 2)
@@ -109,5 +121,17 @@ export function planLayout(plan: SimulationPlan): PlanLayout {
     model.correlation === null || noiseCount === 0
       ? null
       : choleskyOfCorrelation(model.correlation, noiseCount);
-  return { stateCount, noiseCount, h, saveSteps, savedTimes, probeSteps, probeTimes, probeOrder, cholesky };
+  const watchLevels = Float64Array.from(plan.watches, (watch) => monitoredLevel(plan, watch, h));
+  return {
+    stateCount,
+    noiseCount,
+    h,
+    saveSteps,
+    savedTimes,
+    probeSteps,
+    probeTimes,
+    probeOrder,
+    watchLevels,
+    cholesky,
+  };
 }

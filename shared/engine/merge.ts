@@ -6,11 +6,14 @@ import type {
   SavedStats,
   SimulationResult,
   BlowupSummary,
+  LossSummary,
 } from './result';
 import { planLayout } from './layout';
 import { moments, quantilesInPlace } from './statistics';
-import { Fnv1a64 } from './digest';
-import { meanSquareStability } from './stability';
+import { runDigest } from './run-digest';
+import { lossSummary } from './losses';
+import { savedCovariance } from './covariance';
+import { stabilityReport } from './stability';
 
 function checkChunks(plan: SimulationPlan, chunks: ChunkResult[], stateCount: number): void {
   if (chunks.length === 0) throw new RangeError('nothing to merge: no chunks were given');
@@ -33,15 +36,15 @@ function checkChunks(plan: SimulationPlan, chunks: ChunkResult[], stateCount: nu
 }
 
 /** Copies column `column` (of `rows` rows of chunk.pathCount) of each chunk's done paths into one array. */
-function gather(
+function gather<T extends Float64Array | Uint8Array>(
   chunks: ChunkResult[],
-  pick: (chunk: ChunkResult) => Float64Array,
+  pick: (chunk: ChunkResult) => T,
   column: number,
   paths: number,
-  into?: Float64Array,
+  into?: T,
   at = 0,
-): Float64Array {
-  const out = into ?? new Float64Array(paths);
+): T {
+  const out = into ?? new (pick(chunks[0]!).constructor as new (length: number) => T)(paths);
   let offset = at;
   for (const chunk of chunks) {
     const start = column * chunk.pathCount;
@@ -96,26 +99,11 @@ function savedStats(
   return stats;
 }
 
-function blowupSummary(plan: SimulationPlan, blowupTime: Float64Array, h: number): BlowupSummary {
-  let count = 0;
-  let firstTime = Infinity;
-  for (let p = 0; p < blowupTime.length; p++) {
-    const time = blowupTime[p]!;
-    if (time === time) {
-      count++;
-      if (time < firstTime) firstTime = time;
-    }
-  }
-  if (count === 0) return { count, firstTime: null, suggestion: null };
-  const bound =
-    plan.blowupBound === null
-      ? 'became infinite or not a number'
-      : `left [−${plan.blowupBound}, ${plan.blowupBound}] or became infinite`;
-  const suggestion =
-    `${count} of ${blowupTime.length} paths ${bound} (first at t = ${firstTime.toPrecision(4)}); they are left out of the statistics. ` +
-    `Try a smaller step: h = ${(h / 4).toPrecision(3)} (${plan.steps * 4} steps) instead of ${h.toPrecision(3)}. ` +
-    'If the paths still blow up, the model itself may explode in finite time.';
-  return { count, firstTime, suggestion };
+/** The older summary the page still reads: every loss counts, the message and advice as one suggestion. */
+function blowupSummary(losses: LossSummary): BlowupSummary {
+  if (losses.count === 0) return { count: 0, firstTime: null, suggestion: null };
+  const advice = losses.advice.map((line) => `${line.charAt(0).toUpperCase()}${line.slice(1)}.`).join(' ');
+  return { count: losses.count, firstTime: losses.firstTime, suggestion: `${losses.message} ${advice}` };
 }
 
 function extinctionSummaries(plan: SimulationPlan, absorptionTime: Float64Array[]): ExtinctionSummary[] {
@@ -147,7 +135,8 @@ function extinctionSummaries(plan: SimulationPlan, absorptionTime: Float64Array[
 /**
  * Merges chunks given in path order into the run's result. Statistics are computed over the
  * concatenated columns, so the result (and its digest) does not depend on how paths were
- * chunked. Blown-up paths (NaN) are left out of every statistic; `live` says how many remain.
+ * chunked. Lost paths (NaN) are left out of every statistic; `live` says how many remain, and
+ * `losses` says why they were lost and whether the estimates are conditional on the survivors.
  */
 export function mergeChunks(plan: SimulationPlan, chunks: ChunkResult[]): SimulationResult {
   const layout = planLayout(plan);
@@ -163,6 +152,7 @@ export function mergeChunks(plan: SimulationPlan, chunks: ChunkResult[]): Simula
   });
   const scratch = new Float64Array(paths);
   const stats = savedValues.map((values) => savedStats(values, paths, saveCount, scratch));
+  const covariance = savedCovariance(savedValues, stats, paths, saveCount);
   const finalValues = savedValues.map((values) => values.slice((saveCount - 1) * paths, saveCount * paths));
   const sampleCount = Math.min(plan.samplePaths, paths);
   const samplePaths = savedValues.map((values) =>
@@ -184,15 +174,24 @@ export function mergeChunks(plan: SimulationPlan, chunks: ChunkResult[]): Simula
     gather(chunks, (c) => c.absorptionTime, i, paths),
   );
   const blowupTime = gather(chunks, (c) => c.blowupTime, 0, paths);
-  const blowups = blowupSummary(plan, blowupTime, layout.h);
+  const lossCause = gather(chunks, (c) => c.lossCause, 0, paths);
+  const losses = lossSummary(plan, blowupTime, lossCause, layout.h);
 
-  const digest = new Fnv1a64().addNumber(paths).addNumber(blowups.count).addNumbers(layout.savedTimes);
-  for (let i = 0; i < d; i++) {
-    const s = stats[i]!;
-    for (const column of [s.mean, s.variance, s.q05, s.q25, s.q50, s.q75, s.q95, s.min, s.max, s.live])
-      digest.addNumbers(column);
-    digest.addNumbers(finalValues[i]!);
-  }
+  const digest = runDigest({
+    paths,
+    lostCount: losses.count,
+    savedTimes: layout.savedTimes,
+    stats,
+    savedValues,
+    covariance,
+    probeValues: probes.map((probe) => probe.values),
+    runningMax,
+    runningMin,
+    firstPassage,
+    absorptionTime,
+    lossTime: blowupTime,
+    lossCause,
+  });
 
   return {
     stateNames: [...plan.model.stateNames],
@@ -208,18 +207,25 @@ export function mergeChunks(plan: SimulationPlan, chunks: ChunkResult[]): Simula
     savedSteps: layout.saveSteps.slice(0, saveCount),
     stats,
     savedValues,
+    covariance,
     samplePaths,
     finalValues,
     probes,
     runningMax,
     runningMin,
     watches: plan.watches.map((watch) => ({ ...watch })),
+    watchLevels: layout.watchLevels,
     firstPassage,
     absorptionTime,
     blowupTime,
-    blowups,
+    lossCause,
+    losses,
+    blowups: blowupSummary(losses),
     extinctions: extinctionSummaries(plan, absorptionTime),
-    stability: meanSquareStability(plan),
-    digest: digest.hex(),
+    stability: stabilityReport(plan, {
+      savedTimes: layout.savedTimes,
+      meanStates: stats.map((s) => s.mean),
+    }),
+    digest,
   };
 }

@@ -37,6 +37,11 @@ export interface WatchSpec {
   state: number;
   level: number;
   direction: 'above' | 'below';
+  /**
+   * How crossings between steps are accounted for: 'none' (default) compares the state at the
+   * steps only; 'bgk' moves the compared level toward the start (see monitoring.ts).
+   */
+  correction?: 'none' | 'bgk';
 }
 
 export interface SimulationPlan {

@@ -1,5 +1,8 @@
+// Over 300 lines on purpose: every probe quantity reads the same result with the same rules for
+// lost paths, warnings and notes, and one dispatch keeps those rules in one place.
 import type { ProbeEstimate, ProbeRequest, SimulationResult } from './result';
 import { moments, quantileSorted, sortFinite } from './statistics';
+import { pairMoments } from './covariance';
 
 /** Two-sided 95 % normal quantile, z_{0.975}. */
 export const Z95 = 1.959963984540054;
@@ -29,9 +32,30 @@ function proportion(successes: number, trials: number, note?: string): ProbeEsti
   };
 }
 
-function blowupNote(result: SimulationResult): string | undefined {
-  const { count } = result.blowups;
-  return count > 0 ? `${count} of ${result.paths} paths blew up and are left out` : undefined;
+/** A note for a small loss (at most LOSS_SHARE_LIMIT); a larger one is a warning instead. */
+function lossNote(result: SimulationResult): string | undefined {
+  const { count, conditional } = result.losses;
+  return count > 0 && !conditional
+    ? `${count} of ${result.paths} paths were lost and are left out`
+    : undefined;
+}
+
+/** What every estimate of this run must carry: an unstable step, conditional on surviving paths. */
+function runWarnings(result: SimulationResult): string[] {
+  const { losses, stability } = result;
+  const warnings: string[] = [];
+  if (stability !== null && !stability.stable && stability.modelStable) {
+    warnings.push(
+      `the step is unstable for this model (see the simulation): this estimate reflects the scheme's growth, not the model`,
+    );
+  }
+  if (losses.conditional) {
+    const survivors = losses.paths - losses.count;
+    warnings.push(
+      `conditional on the ${survivors.toLocaleString('en')} surviving paths: ${losses.count.toLocaleString('en')} of ${losses.paths.toLocaleString('en')} were lost (see the simulation), so this is not an estimate for the model itself`,
+    );
+  }
+  return warnings;
 }
 
 function joinNotes(...notes: (string | undefined)[]): string | undefined {
@@ -66,7 +90,7 @@ export function valuesAt(
   );
 }
 
-function blownUp(result: SimulationResult, path: number): boolean {
+function lost(result: SimulationResult, path: number): boolean {
   return result.blowupTime[path] === result.blowupTime[path];
 }
 
@@ -136,15 +160,92 @@ export function quantileEstimate(
   return { estimate, standardError: (ci[1] - ci[0]) / (2 * Z95), ci, paths: n, ...(note ? { note } : {}) };
 }
 
+function secondState(result: SimulationResult, probe: ProbeRequest): number {
+  const y = probe.stateY;
+  if (y === undefined || !Number.isInteger(y) || y < 0 || y >= result.stateNames.length || y === probe.state)
+    throw new RangeError(`the ${probe.quantity} probe needs a second state, different from the first`);
+  return y;
+}
+
+/**
+ * Covariance of two states at a time, unbiased, with the large-sample standard error of the
+ * sample covariance √((m₂₂ − s²ₓᵧ)/n), m₂₂ the mean of ((x − x̄)(y − ȳ))² (delta method; e.g.
+ * Cramér 1946, §27.8); normal 95 % interval.
+ */
+function covarianceEstimate(result: SimulationResult, probe: ProbeRequest, note?: string): ProbeEstimate {
+  const y = secondState(result, probe);
+  const m = pairMoments(
+    valuesAt(result, probe.state, probe.time).values,
+    valuesAt(result, y, probe.time).values,
+  );
+  const standardError = Math.sqrt(Math.max(0, m.productSquare - m.covariance ** 2) / m.count);
+  return {
+    estimate: m.covariance,
+    standardError,
+    ci: [m.covariance - Z95 * standardError, m.covariance + Z95 * standardError],
+    paths: m.count,
+    ...(note ? { note } : {}),
+  };
+}
+
+/**
+ * Pearson correlation of two states at a time. Interval by Fisher's transform (Fisher 1921):
+ * atanh(r) ± z/√(n − 3), mapped back with tanh; standard error (1 − r²)/√(n − 3), its delta-method
+ * counterpart. Both assume a joint law not far from normal, which the note says.
+ */
+function correlationEstimate(result: SimulationResult, probe: ProbeRequest, note?: string): ProbeEstimate {
+  const y = secondState(result, probe);
+  const m = pairMoments(
+    valuesAt(result, probe.state, probe.time).values,
+    valuesAt(result, y, probe.time).values,
+  );
+  const r = m.covariance / Math.sqrt(m.varianceX * m.varianceY);
+  const fisherNote = 'interval by Fisher’s transform, which assumes a joint law close to normal';
+  if (!(m.count > 3) || !Number.isFinite(r))
+    return {
+      estimate: r,
+      standardError: NaN,
+      ci: [NaN, NaN],
+      paths: m.count,
+      note: joinNotes(note, fisherNote),
+    };
+  const half = Z95 / Math.sqrt(m.count - 3);
+  const z = Math.atanh(Math.max(-1, Math.min(1, r)));
+  return {
+    estimate: r,
+    standardError: (1 - r * r) / Math.sqrt(m.count - 3),
+    ci: [Math.tanh(z - half), Math.tanh(z + half)],
+    paths: m.count,
+    note: joinNotes(note, fisherNote),
+  };
+}
+
 function watchIndex(
   result: SimulationResult,
   state: number,
   level: number,
   direction: 'above' | 'below',
+  monitoring: ProbeRequest['monitoring'] = 'discrete',
 ): number {
+  const correction = monitoring === 'bgk' ? 'bgk' : 'none';
   return result.watches.findIndex(
-    (watch) => watch.state === state && watch.level === level && watch.direction === direction,
+    (watch) =>
+      watch.state === state &&
+      watch.level === level &&
+      watch.direction === direction &&
+      (watch.correction ?? 'none') === correction,
   );
+}
+
+/** How a crossing probe watched its level, in words (said on the probe's output). */
+function monitoringText(result: SimulationResult, watch: number): string {
+  const spec = result.watches[watch];
+  const steps = `${result.steps.toLocaleString('en')} steps`;
+  if (spec === undefined || (spec.correction ?? 'none') === 'none') {
+    return `discrete monitoring: the level is checked at the ${steps} only, so crossings between steps are missed and crossing probabilities are biased low (choose the continuity correction, or more steps)`;
+  }
+  const shift = Math.abs(result.watchLevels[watch]! - spec.level);
+  return `continuity-corrected (Broadie–Glasserman–Kou): checked at the ${steps} against the level moved ${shift.toPrecision(3)} (0.5826·σ·√h) toward the start`;
 }
 
 /** Hit indicator per live path: reached `level` from `direction` by `time`. */
@@ -153,9 +254,13 @@ function hits(
   probe: ProbeRequest,
   level: number,
   direction: 'above' | 'below',
-): { hit: Uint8Array; live: Uint8Array } {
+): { hit: Uint8Array; live: Uint8Array; watch: number } {
   const time = probe.time ?? result.t1;
-  const watch = watchIndex(result, probe.state, level, direction);
+  const watch = watchIndex(result, probe.state, level, direction, probe.monitoring);
+  if (watch < 0 && probe.monitoring === 'bgk')
+    throw new RangeError(
+      `the continuity correction needs the level ${level} to be watched with it during the run`,
+    );
   const hit = new Uint8Array(result.paths);
   const live = new Uint8Array(result.paths);
   const atEnd = Math.abs(time - result.t1) <= result.h / 2;
@@ -165,7 +270,7 @@ function hits(
     );
   }
   for (let p = 0; p < result.paths; p++) {
-    if (blownUp(result, p)) continue;
+    if (lost(result, p)) continue;
     live[p] = 1;
     if (watch >= 0) {
       const passage = result.firstPassage[watch]![p]!;
@@ -176,13 +281,13 @@ function hits(
       hit[p] = result.runningMin[probe.state]![p]! <= level ? 1 : 0;
     }
   }
-  return { hit, live };
+  return { hit, live, watch };
 }
 
 function firstPassage(result: SimulationResult, probe: ProbeRequest): ProbeEstimate {
   const level = requireLevel(probe);
   const direction = probe.direction ?? 'above';
-  const watch = watchIndex(result, probe.state, level, direction);
+  const watch = watchIndex(result, probe.state, level, direction, probe.monitoring);
   if (watch < 0)
     throw new RangeError(
       `first-passage times to ${level} (${direction}) were not recorded: the level must be watched during the run`,
@@ -191,26 +296,29 @@ function firstPassage(result: SimulationResult, probe: ProbeRequest): ProbeEstim
   const reached: number[] = [];
   let live = 0;
   for (let p = 0; p < result.paths; p++) {
-    if (blownUp(result, p)) continue;
+    if (lost(result, p)) continue;
     live++;
     const passage = result.firstPassage[watch]![p]!;
     if (passage <= time + result.h / 2) reached.push(passage);
   }
   const note = joinNotes(
     `${reached.length} of ${live} paths reached ${level} by t = ${time}`,
-    blowupNote(result),
+    lossNote(result),
   );
   const times = Float64Array.from(reached);
-  if (probe.probability !== undefined) return quantileEstimate(times, probe.probability, note);
+  const monitoring = monitoringText(result, watch);
+  if (probe.probability !== undefined)
+    return { ...quantileEstimate(times, probe.probability, note), monitoring };
   if (times.length < 2)
     return {
       estimate: times.length === 1 ? times[0]! : NaN,
       standardError: NaN,
       ci: [NaN, NaN],
       paths: times.length,
+      monitoring,
       ...(note ? { note } : {}),
     };
-  return mean(times, note);
+  return { ...mean(times, note), monitoring };
 }
 
 function extinction(result: SimulationResult, probe: ProbeRequest): ProbeEstimate {
@@ -226,22 +334,37 @@ function extinction(result: SimulationResult, probe: ProbeRequest): ProbeEstimat
   let live = 0;
   let extinct = 0;
   for (let p = 0; p < result.paths; p++) {
-    if (blownUp(result, p)) continue;
+    if (lost(result, p)) continue;
     live++;
     if (absorbed[p]! <= time + result.h / 2 || (fromLevel !== null && fromLevel.hit[p] === 1)) extinct++;
   }
-  return proportion(extinct, live, blowupNote(result));
+  return proportion(extinct, live, lossNote(result));
 }
 
 /**
- * A statistic read from a run with its standard error and 95 % interval. Blown-up paths are left
- * out (the note says how many). Proportions use the Wilson interval and SE √(p(1 − p)/n).
+ * A statistic read from a run with its standard error and 95 % interval. Lost paths are left
+ * out: a small loss is noted, a larger one (LOSS_SHARE_LIMIT) makes the estimate conditional on
+ * the survivors, which its warnings say; a run that lost every path has no estimate (RangeError).
+ * Proportions use the Wilson interval and SE √(p(1 − p)/n).
  */
 export function evaluateProbe(result: SimulationResult, probe: ProbeRequest): ProbeEstimate {
+  if (result.losses.allLost) {
+    throw new RangeError(
+      `no estimate: every path was lost (${result.losses.message ?? ''} ${result.losses.advice.join('; ')})`.trim(),
+    );
+  }
+  const estimate = estimateProbe(result, probe);
+  const warnings = runWarnings(result);
+  return warnings.length > 0
+    ? { ...estimate, warnings: [...(estimate.warnings ?? []), ...warnings] }
+    : estimate;
+}
+
+function estimateProbe(result: SimulationResult, probe: ProbeRequest): ProbeEstimate {
   if (!Number.isInteger(probe.state) || probe.state < 0 || probe.state >= result.stateNames.length) {
     throw new RangeError(`the probe names state ${probe.state}, which does not exist`);
   }
-  const note = blowupNote(result);
+  const note = lossNote(result);
   switch (probe.quantity) {
     case 'mean':
       return mean(valuesAt(result, probe.state, probe.time).values, note);
@@ -267,18 +390,22 @@ export function evaluateProbe(result: SimulationResult, probe: ProbeRequest): Pr
     }
     case 'hit-before': {
       const level = requireLevel(probe);
-      const { hit, live } = hits(result, probe, level, probe.direction ?? 'above');
+      const { hit, live, watch } = hits(result, probe, level, probe.direction ?? 'above');
       let trials = 0;
       let successes = 0;
       for (let p = 0; p < result.paths; p++) {
         trials += live[p]!;
         successes += hit[p]!;
       }
-      return proportion(successes, trials, note);
+      return { ...proportion(successes, trials, note), monitoring: monitoringText(result, watch) };
     }
     case 'first-passage':
       return firstPassage(result, probe);
     case 'extinction':
       return extinction(result, probe);
+    case 'covariance':
+      return covarianceEstimate(result, probe, note);
+    case 'correlation':
+      return correlationEstimate(result, probe, note);
   }
 }

@@ -11,10 +11,21 @@ import type { WatchSpec } from './plan';
  *   runningMax/Min index i · pathCount + p
  *   firstPassage   index w · pathCount + p            w = watch index; NaN = not reached
  *   absorptionTime index i · pathCount + p            NaN = state i never absorbed
- *   blowupTime     index p                            NaN = no blow-up
- * A path that blew up holds NaN at every saved and probe time after the blow-up; its running
- * max/min cover the steps before it.
+ *   blowupTime     index p                            time the path was lost; NaN = not lost
+ *   lossCause      index p                            LOSS_CAUSE_CODES (0 = not lost)
+ * A lost path holds NaN at every saved and probe time after the loss; its running max/min cover
+ * the steps before it. ("blowupTime" keeps its old name: it records every loss, whatever the cause.)
  */
+
+/**
+ * Why a path was lost, as stored per path in `lossCause`:
+ *   domain    a state became not a number: a coefficient was evaluated outside its domain (square
+ *             root or logarithm of a negative number, 0/0, ∞ − ∞ after an overflow in one step)
+ *   infinite  a state became ±∞ (overflow, or a division by zero)
+ *   bound     a state left [−bound, bound] (the simulation's blow-up bound)
+ */
+export const LOSS_CAUSE_CODES = { none: 0, domain: 1, infinite: 2, bound: 3 } as const;
+export type LossCause = Exclude<keyof typeof LOSS_CAUSE_CODES, 'none'>;
 export interface ChunkResult {
   firstPath: number;
   /** Paths this chunk was asked for. */
@@ -33,6 +44,7 @@ export interface ChunkResult {
   firstPassage: Float64Array;
   absorptionTime: Float64Array;
   blowupTime: Float64Array;
+  lossCause: Uint8Array;
 }
 
 export interface SimulationHooks {
@@ -59,6 +71,30 @@ export interface SavedStats {
   live: Int32Array;
 }
 
+/**
+ * Paths the engine could not carry to t1, by cause. Beyond LOSS_SHARE_LIMIT of the paths, every
+ * estimate of the run describes only the surviving paths (a conditional law that can be far from
+ * the model's: survivors are those that stayed where the coefficients are defined), and says so.
+ */
+export interface LossSummary {
+  count: number;
+  paths: number;
+  /** count / paths (0 for a run with no paths). */
+  share: number;
+  byCause: Record<LossCause, number>;
+  /** Earliest loss time over all paths, or null. */
+  firstTime: number | null;
+  /** More than LOSS_SHARE_LIMIT lost: every estimate is conditional on the surviving paths. */
+  conditional: boolean;
+  /** Every path lost: the run has no estimates. */
+  allLost: boolean;
+  /** The losses in words, or null when nothing was lost. */
+  message: string | null;
+  /** What to change, by cause (empty when nothing was lost). */
+  advice: string[];
+}
+
+/** Kept for the page until it reads `losses`: count and first time of every loss, whatever the cause. */
 export interface BlowupSummary {
   count: number;
   /** Earliest blow-up time over all paths, or null. */
@@ -77,17 +113,31 @@ export interface ExtinctionSummary {
 }
 
 export interface StabilityReport {
+  /**
+   * 'mean-square': scalar model dX = λX dt + μX dW, the scheme's exact mean-square factor E[R²]
+   * (Higham 2000). 'linear-drift': the drift's Jacobian at the initial state and at the mean state
+   * of each saved time; the step is unstable where |R(hλ)| > 1 for an eigenvalue λ (R(z) = 1 + z
+   * for Euler–Maruyama and Milstein, 1 + z + z²/2 for Heun), which is the whole mean-square
+   * condition for additive noise and a necessary one otherwise.
+   */
+  check: 'mean-square' | 'linear-drift';
   scheme: Method;
-  /** Drift = lambda · x. */
+  /** Drift = lambda · x (mean-square), or the real part of the eigenvalue that decides (linear-drift). */
   lambda: number;
-  /** Diffusion = mu · x. */
-  mu: number;
+  /** Imaginary part of that eigenvalue (0 for the mean-square check). */
+  lambdaImag: number;
+  /** Diffusion = mu · x (mean-square check), else null. */
+  mu: number | null;
   h: number;
+  /** Time of the state where the check is worst (t0 for the initial state). */
+  time: number;
   stable: boolean;
-  /** The model's own second moment decays (2λ + μ² < 0 in Itô form); when it does not, no step is stable. */
+  /** The model's own second moment (mean-square) or linearised drift (linear-drift) decays; when it does not, no step is stable and no step is to blame. */
   modelStable: boolean;
-  /** The scheme's mean-square amplification factor E[R²]; stable iff < 1. */
+  /** E[R²] (mean-square) or the largest |R(hλ)| (linear-drift); stable iff < 1 (≤ 1 for linear-drift). */
   amplification: number;
+  /** Largest step that would be stable at the worst state, or null when none would (or no bound applies). */
+  maxStableStep: number | null;
   message: string;
 }
 
@@ -121,6 +171,11 @@ export interface SimulationResult {
    * probes can read the distribution at any saved time.
    */
   savedValues: Float64Array[];
+  /**
+   * Covariance matrix of the states at each saved time, index (k · d + i) · d + j (unbiased, over
+   * live paths; the diagonal is stats[i].variance), or null for a model with one state.
+   */
+  covariance: Float64Array | null;
   /** Per state, per sample path: that path's values at the saved times. */
   samplePaths: Float64Array[][];
   /** Per state: every path's value at t1 (NaN for blown-up paths). */
@@ -130,16 +185,22 @@ export interface SimulationResult {
   runningMax: Float64Array[];
   runningMin: Float64Array[];
   watches: WatchSpec[];
+  /** Per watch: the level the run compared against (the watch's own, or continuity-corrected). */
+  watchLevels: Float64Array;
   /** Per watch, per path: first time the level was reached (NaN = not reached). */
   firstPassage: Float64Array[];
   /** Per state, per path: absorption time (NaN = not absorbed). */
   absorptionTime: Float64Array[];
-  /** Per path: blow-up time (NaN = none). */
+  /** Per path: time the path was lost (NaN = not lost). */
   blowupTime: Float64Array;
+  /** Per path: LOSS_CAUSE_CODES. */
+  lossCause: Uint8Array;
+  losses: LossSummary;
+  /** @deprecated the same losses in the older shape; read `losses`. */
   blowups: BlowupSummary;
   extinctions: ExtinctionSummary[];
   stability: StabilityReport | null;
-  /** FNV-1a 64 over the saved statistics and final values (hex, 16 digits). */
+  /** FNV-1a 64 over every number the run reports (hex, 16 digits; see run-digest.ts for the order). */
   digest: string;
 }
 
@@ -152,14 +213,20 @@ export interface ProbeRequest {
     | 'subceedance'
     | 'hit-before'
     | 'first-passage'
-    | 'extinction';
+    | 'extinction'
+    | 'covariance'
+    | 'correlation';
   state: number;
+  /** The second state of a covariance or correlation. */
+  stateY?: number;
   /** Default t1. */
   time?: number;
   level?: number;
   probability?: number;
   /** Default 'above'. */
   direction?: 'above' | 'below';
+  /** hit-before and first-passage: steps only ('discrete', default) or continuity-corrected ('bgk'). */
+  monitoring?: 'discrete' | 'bgk';
 }
 
 export interface ProbeEstimate {
@@ -170,6 +237,13 @@ export interface ProbeEstimate {
   /** Paths the estimate rests on (for first-passage: how many reached the level). */
   paths: number;
   note?: string;
+  /**
+   * What a reader must know before using the estimate: conditional on surviving paths, an
+   * unstable step. Absent or empty when there is nothing to say.
+   */
+  warnings?: string[];
+  /** hit-before and first-passage: how the path was watched between steps, in words. */
+  monitoring?: string;
 }
 
 export interface StudyOptions {

@@ -15,11 +15,15 @@ function now(): number {
 
 /**
  * Bytes a chunk of `pathCount` paths holds: 8 · pathCount · ((saveCount + probeCount) · d + 3d +
- * watches + 1). It grows with paths × saved times, never with steps.
+ * watches + 1) + pathCount (loss causes, one byte each). It grows with paths × saved times,
+ * never with steps.
  */
 export function chunkBytes(plan: SimulationPlan, pathCount: number): number {
   const d = plan.model.stateNames.length;
-  return 8 * pathCount * ((plan.saveCount + plan.probeTimes.length) * d + 3 * d + plan.watches.length + 1);
+  return (
+    8 * pathCount * ((plan.saveCount + plan.probeTimes.length) * d + 3 * d + plan.watches.length + 1) +
+    pathCount
+  );
 }
 
 /** Allocates the chunk's arrays (memory: pathCount · (saveCount + probeCount) · d doubles, plus per-path records). */
@@ -48,6 +52,7 @@ export function allocateChunk(
     firstPassage: new Float64Array(watchCount * pathCount),
     absorptionTime: new Float64Array(d * pathCount),
     blowupTime: new Float64Array(pathCount),
+    lossCause: new Uint8Array(pathCount),
   };
 }
 
@@ -85,6 +90,7 @@ export function simulateChunk(
     firstPassage: chunk.firstPassage,
     absorptionTime: chunk.absorptionTime,
     blowupTime: chunk.blowupTime,
+    lossCause: chunk.lossCause,
     saveSteps: layout.saveSteps,
     probeStepsSorted,
     probeOrder: layout.probeOrder,

@@ -2,6 +2,7 @@ import { EXPRESSION_PRELUDE } from '../expr';
 import type { SimulationPlan } from './plan';
 import type { StabilityReport } from './result';
 import { compileGenerated } from './compile-generated';
+import { linearDriftStability } from './linear-stability';
 
 /**
  * Mean-square stability of the chosen scheme with step h for a scalar linear model
@@ -72,7 +73,8 @@ export function meanSquareStability(plan: SimulationPlan): StabilityReport | nul
   } catch {
     return null;
   }
-  if (lambda === null || mu === null) return null;
+  // μ = 0 is additive (here: no) noise, which the linear-drift check covers.
+  if (lambda === null || mu === null || mu === 0) return null;
   const h = (plan.t1 - plan.t0) / plan.steps;
   const factor = amplification(plan.method, lambda, mu, h);
   const stable = factor < 1;
@@ -93,13 +95,52 @@ export function meanSquareStability(plan: SimulationPlan): StabilityReport | nul
     message = `This linear model's own second moment grows (${model_}; 2λ + μ² ≥ 0), so ${name}'s growing second moment (${condition}) is expected and does not call for a smaller step.`;
   }
   return {
+    check: 'mean-square',
     scheme: plan.method,
     lambda,
+    lambdaImag: 0,
     mu,
     h,
+    time: plan.t0,
     stable,
     modelStable: modelDecays,
     amplification: factor,
+    maxStableStep: stable || !modelDecays ? null : largestStableStep(plan.method, lambda, mu, h),
     message,
   };
+}
+
+/** The largest step ≤ h with E[R²] < 1 (bisection; the stable steps form an interval from 0 here). */
+function largestStableStep(scheme: StabilityReport['scheme'], lambda: number, mu: number, h: number): number {
+  let low = 0;
+  let high = h;
+  for (let i = 0; i < 60; i++) {
+    const mid = 0.5 * (low + high);
+    if (amplification(scheme, lambda, mu, mid) < 1) low = mid;
+    else high = mid;
+  }
+  return low;
+}
+
+/**
+ * The run's stability report: the exact mean-square check for a scalar linear model with
+ * multiplicative noise, else the linearised drift at the initial state and, when given, at the
+ * mean state of each saved time (`savedTimes`, `meanStates[i][k]`); null when neither applies.
+ */
+export function stabilityReport(
+  plan: SimulationPlan,
+  along?: { savedTimes: Float64Array; meanStates: Float64Array[] },
+): StabilityReport | null {
+  const meanSquare = meanSquareStability(plan);
+  if (meanSquare !== null) return meanSquare;
+  const points = [{ time: plan.t0, state: Float64Array.from(plan.model.initial) }];
+  if (along !== undefined) {
+    for (let k = 1; k < along.savedTimes.length; k++) {
+      points.push({
+        time: along.savedTimes[k]!,
+        state: Float64Array.from(along.meanStates, (means) => means[k]!),
+      });
+    }
+  }
+  return linearDriftStability(plan, points);
 }

@@ -8,6 +8,7 @@ import { Xoshiro128 } from './random/xoshiro128';
 import { normalFrom } from './random/ziggurat';
 import { fitSlope } from './regression';
 import { compileGenerated } from './compile-generated';
+import { MAX_STEPS } from './limits';
 
 type ExactSolution = (t: number, initial: Float64Array, brownian: Float64Array) => number;
 
@@ -34,7 +35,7 @@ function checkOptions(plan: SimulationPlan, options: StudyOptions): void {
   if (!Number.isInteger(options.state) || options.state < 0 || options.state >= d)
     throw new RangeError(`the study names state ${options.state}, which does not exist`);
   const finest = options.coarsestSteps * 2 ** (options.levels - 1);
-  if (finest > 10_000_000)
+  if (finest > MAX_STEPS)
     throw new RangeError(
       `the finest level would have ${finest} steps; use fewer levels or fewer coarsest steps`,
     );

@@ -1,3 +1,5 @@
+// Over 300 lines on purpose: the pool's scheduling, progress and cancel share one state machine,
+// which is easier to check whole than split.
 import { splitPaths, type ChunkRange } from './chunks';
 import type { ClaimedChunks } from './chunk-task';
 import type { RunProgress } from './progress';

@@ -1,6 +1,6 @@
 import type { Method } from '../sheet/document';
 import type { SimulationPlan } from '../engine/plan';
-import type { ProbeEstimate, SimulationResult, StudyLevel, StudyResult } from '../engine/result';
+import type { LossCause, ProbeEstimate, SimulationResult, StudyLevel, StudyResult } from '../engine/result';
 
 /**
  * What a run leaves on a cell: one type for every runner (browser, command line, tests). Charts
@@ -31,15 +31,50 @@ export interface StateSummary {
   quantiles: Record<QuantileKey, number | null>;
 }
 
+/** Paths the run could not carry to t1, by cause (see LossSummary in shared/engine/result.ts). */
+export interface LossesOutput {
+  count: number;
+  share: number;
+  byCause: Record<LossCause, number>;
+  firstTime: number | null;
+  /** More than 1 % lost: every estimate of the run describes the surviving paths only. */
+  conditional: boolean;
+  /** Every path lost: the run has no estimates (the runner exits non-zero). */
+  allLost: boolean;
+  message: string | null;
+  advice: string[];
+}
+
+/** The step's stability (see StabilityReport in shared/engine/result.ts). */
+export interface StabilityOutput {
+  check: 'mean-square' | 'linear-drift';
+  stable: boolean;
+  /** False when the model's own moments grow: then no step is to blame. */
+  modelStable: boolean;
+  h: number;
+  amplification: number | null;
+  lambda: number | null;
+  lambdaImag: number | null;
+  time: number;
+  maxStableStep: number | null;
+  message: string;
+}
+
 export interface SimulationJson {
   id: string;
   kind: 'simulation';
   method: Method;
   paths: number;
   steps: number;
-  /** Distribution of each state variable at t1, over paths that did not blow up. */
+  /** What a reader must know before reading the numbers below (empty when nothing). */
+  warnings: string[];
+  /** Distribution of each state variable at t1, over the paths that were not lost. */
   final: Record<string, StateSummary>;
-  blowups: number;
+  /** Covariance matrix of the states at t1, rows and columns in state order; null for one state. */
+  finalCovariance: (number | null)[][] | null;
+  losses: LossesOutput;
+  /** Null when the drift could not be linearised (not finite at the initial state). */
+  stability: StabilityOutput | null;
   digest: string;
   engineVersion: number;
 }
@@ -51,7 +86,11 @@ export interface ProbeJson {
   standardError: number | null;
   ci: [number | null, number | null];
   paths: number;
+  /** What a reader must know before using the estimate (empty when nothing). */
+  warnings: string[];
   note?: string;
+  /** hit-before and first-passage: how the level was watched between steps, in words. */
+  monitoring?: string;
 }
 
 export interface StudyLevelJson {
@@ -67,7 +106,12 @@ export interface StudyJson {
   id: string;
   kind: 'study';
   strongOrder: number | null;
+  /** Standard error and 95 % interval of the fitted strong order (null where it cannot be fitted). */
+  strongOrderSE: number | null;
+  strongOrderCI: [number | null, number | null];
   weakOrder: number | null;
+  weakOrderSE: number | null;
+  weakOrderCI: [number | null, number | null];
   reference: 'exact' | 'finest';
   levels: StudyLevelJson[];
   note?: string;
@@ -110,17 +154,60 @@ function simulationJson(id: string, result: SimulationResult, engineVersion: num
       },
     };
   });
+  const { losses, stability } = result;
+  const warnings = [
+    ...(stability !== null && !stability.stable && stability.modelStable ? [stability.message] : []),
+    ...(losses.conditional
+      ? [`${losses.message ?? ''} ${losses.advice.map((line) => `Advice: ${line}.`).join(' ')}`.trim()]
+      : []),
+  ];
   return {
     id,
     kind: 'simulation',
     method: result.method,
     paths: result.paths,
     steps: result.steps,
+    warnings,
     final,
-    blowups: result.blowups.count,
+    finalCovariance: finalCovariance(result),
+    losses: {
+      count: losses.count,
+      share: losses.share,
+      byCause: { ...losses.byCause },
+      firstTime: losses.firstTime,
+      conditional: losses.conditional,
+      allLost: losses.allLost,
+      message: losses.message,
+      advice: [...losses.advice],
+    },
+    stability:
+      stability === null
+        ? null
+        : {
+            check: stability.check,
+            stable: stability.stable,
+            modelStable: stability.modelStable,
+            h: stability.h,
+            amplification: finiteOrNull(stability.amplification),
+            lambda: finiteOrNull(stability.lambda),
+            lambdaImag: finiteOrNull(stability.lambdaImag),
+            time: stability.time,
+            maxStableStep: stability.maxStableStep,
+            message: stability.message,
+          },
     digest: result.digest,
     engineVersion,
   };
+}
+
+function finalCovariance(result: SimulationResult): (number | null)[][] | null {
+  const { covariance, stateNames } = result;
+  if (covariance === null) return null;
+  const d = stateNames.length;
+  const last = result.savedTimes.length - 1;
+  return stateNames.map((_, i) =>
+    stateNames.map((__, j) => finiteOrNull(covariance[(last * d + i) * d + j]!)),
+  );
 }
 
 function probeJson(id: string, estimate: ProbeEstimate): ProbeJson {
@@ -131,8 +218,10 @@ function probeJson(id: string, estimate: ProbeEstimate): ProbeJson {
     standardError: finiteOrNull(estimate.standardError),
     ci: [finiteOrNull(estimate.ci[0]), finiteOrNull(estimate.ci[1])],
     paths: estimate.paths,
+    warnings: [...(estimate.warnings ?? [])],
   };
   if (estimate.note) output.note = estimate.note;
+  if (estimate.monitoring) output.monitoring = estimate.monitoring;
   return output;
 }
 
@@ -152,7 +241,11 @@ function studyJson(id: string, result: StudyResult): StudyJson {
     id,
     kind: 'study',
     strongOrder: finiteOrNull(result.strongOrder),
+    strongOrderSE: finiteOrNull(result.strongOrderSE),
+    strongOrderCI: [finiteOrNull(result.strongOrderCI[0]), finiteOrNull(result.strongOrderCI[1])],
     weakOrder: finiteOrNull(result.weakOrder),
+    weakOrderSE: finiteOrNull(result.weakOrderSE),
+    weakOrderCI: [finiteOrNull(result.weakOrderCI[0]), finiteOrNull(result.weakOrderCI[1])],
     reference: result.reference,
     levels: result.levels.map(studyLevelJson),
   };

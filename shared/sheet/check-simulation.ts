@@ -1,7 +1,9 @@
 import { isIdentity } from './correlation';
 import type { SimulationCell } from './document';
 import type { SheetIssue } from './issues';
+import { MAX_STEPS } from '../engine/limits';
 import { hasDiagonalOrScalarNoise } from './noise-structure';
+import { stepCount } from './step-count';
 import { findModel, wrongReference, type SheetIndex } from './sheet-index';
 
 const METHOD_NAMES = {
@@ -21,6 +23,12 @@ export function checkSimulation(index: SheetIndex, sim: SimulationCell): SheetIs
   if (sim.steps === undefined && sim.stepSize === undefined)
     issue(['steps'], 'give a number of steps or a step size');
   if (!(sim.t1 > sim.t0)) issue(['t1'], `the end time (${sim.t1}) must be after the start time (${sim.t0})`);
+  else if (sim.steps === undefined && sim.stepSize !== undefined && stepCount(sim) > MAX_STEPS) {
+    issue(
+      ['stepSize'],
+      `a step size of ${sim.stepSize} over [${sim.t0}, ${sim.t1}] gives ${stepCount(sim).toLocaleString('en')} steps, more than the limit of ${MAX_STEPS.toLocaleString('en')}; use a larger step size`,
+    );
+  }
 
   for (const name of Object.keys(sim.overrides)) {
     if (!index.parameters.has(name))

@@ -6,6 +6,9 @@ import { isIdentity } from './correlation';
 import type { BoundaryRule, ModelCell, SheetDocument, SimulationCell } from './document';
 import { SheetIssuesError } from './issues';
 import { TIME_NAME } from './names';
+import { stepCount } from './step-count';
+
+export { stepCount };
 import { resolveCheckedParameters } from './resolve';
 import { findModel, findSimulation, indexSheet, modelScopes } from './sheet-index';
 
@@ -44,11 +47,6 @@ export function buildSimulationPlan(doc: SheetDocument, simulationCellId: string
     probeTimes: asks.times,
     watches: asks.watches,
   };
-}
-
-export function stepCount(sim: SimulationCell): number {
-  if (sim.steps !== undefined) return sim.steps;
-  return Math.max(1, Math.round((sim.t1 - sim.t0) / (sim.stepSize ?? sim.t1 - sim.t0)));
 }
 
 function buildModelSpec(
@@ -114,7 +112,9 @@ function simulationRequests(doc: SheetDocument, sim: SimulationCell, model: Mode
     if (!asks) continue;
     askingCellIds.push(cell.id);
     for (const time of asks.times) times.add(time);
-    for (const watch of asks.watches) watches.set(`${watch.state}|${watch.level}|${watch.direction}`, watch);
+    for (const watch of asks.watches) {
+      watches.set(`${watch.state}|${watch.level}|${watch.direction}|${watch.correction}`, watch);
+    }
   }
   times.delete(sim.t1);
   return { askingCellIds, times: [...times].sort((a, b) => a - b), watches: [...watches.values()] };

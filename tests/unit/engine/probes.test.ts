@@ -176,7 +176,7 @@ describe('extinction and blow-ups in probes', () => {
     expect(estimate.ci).toEqual(wilsonInterval(result.extinctions[0]!.count, result.paths));
   });
 
-  it('leaves blown-up paths out and says so', () => {
+  it('leaves lost paths out and, beyond 1 % lost, says the estimate is conditional on the survivors', () => {
     const plan = makePlan({
       drift: ['s0 * s0'],
       diffusion: [['0.5']],
@@ -191,6 +191,7 @@ describe('extinction and blow-ups in probes', () => {
     expect(result.blowups.count).toBeLessThan(400);
     const estimate = evaluateProbe(result, { quantity: 'mean', state: 0 });
     expect(estimate.paths).toBe(400 - result.blowups.count);
-    expect(estimate.note).toMatch(/blew up/);
+    expect(result.blowups.count / 400).toBeGreaterThan(0.01);
+    expect(estimate.warnings?.join(' ')).toMatch(/conditional on the \d+ surviving paths/);
   });
 });

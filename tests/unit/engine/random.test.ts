@@ -217,4 +217,15 @@ describe('FNV-1a 64 digest', () => {
     expect(new Fnv1a64().addNumber(NaN).hex()).toBe(new Fnv1a64().addNumber(0 / 0).hex());
     expect(new Fnv1a64().addNumber(1).hex()).not.toBe(new Fnv1a64().addNumber(1 + Number.EPSILON).hex());
   });
+
+  it('hashes an array (blockwise) exactly as the same numbers one at a time, NaNs canonical', () => {
+    const values = Float64Array.from({ length: 2500 }, (_, i) => Math.sin(i) * 10 ** (i % 7));
+    values[3] = -0;
+    values[1500] = NaN;
+    // A NaN with another payload (bit pattern 0x7ff4…), which must hash like every other NaN.
+    new Uint32Array(values.buffer, 8 * 2000, 2).set([1, 0x7ff40000]);
+    const one = new Fnv1a64();
+    for (const value of values) one.addNumber(value);
+    expect(new Fnv1a64().addNumbers(values).hex()).toBe(one.hex());
+  });
 });

@@ -130,15 +130,19 @@ describe('memory', () => {
       paths: 100_000,
       saveCount: 200,
     });
-    // 8 bytes · 100 000 paths · (200 saved + 3 per-state records + 1 blow-up time) = 163.2 MB.
-    expect(chunkBytes(big, 100_000)).toBe(8 * 100_000 * 204);
+    // 8 bytes · 100 000 paths · (200 saved + 3 per-state records + 1 loss time) + 1 byte per path
+    // (loss cause) = 163.3 MB.
+    expect(chunkBytes(big, 100_000)).toBe(8 * 100_000 * 204 + 100_000);
     expect(chunkBytes({ ...big, steps: 1_000_000 }, 100_000)).toBe(chunkBytes(big, 100_000));
     // A scaled-down run (1000 paths × 10 000 steps × 200 saved times) allocates just that.
     const chunk = simulateChunk({ ...big, paths: 1000 }, 0, 1000);
     expect(chunk.saved.length).toBe(1000 * 200);
-    expect(chunk.saved.byteLength + chunk.runningMax.byteLength * 3 + chunk.blowupTime.byteLength).toBe(
-      chunkBytes(big, 1000),
-    );
+    expect(
+      chunk.saved.byteLength +
+        chunk.runningMax.byteLength * 3 +
+        chunk.blowupTime.byteLength +
+        chunk.lossCause.byteLength,
+    ).toBe(chunkBytes(big, 1000));
   });
 });
 
@@ -435,8 +439,8 @@ describe('mean-square stability (Higham 2000, SIAM J. Numer. Anal. 38(3))', () =
     }
   });
 
-  it('reports nothing for a model that is not scalar and linear', () => {
-    expect(simulate({ ...build(8), paths: 10 }).stability).not.toBeNull();
+  it('falls back to the linearised drift for a model that is not scalar and linear', () => {
+    expect(simulate({ ...build(8), paths: 10 }).stability?.check).toBe('mean-square');
     expect(
       simulate(
         makePlan({
@@ -447,8 +451,8 @@ describe('mean-square stability (Higham 2000, SIAM J. Numer. Anal. 38(3))', () =
           steps: 10,
           paths: 10,
         }),
-      ).stability,
-    ).toBeNull();
+      ).stability?.check,
+    ).toBe('linear-drift');
   });
 });
 

@@ -17,7 +17,8 @@ interface CliRun {
   stderr: string;
 }
 
-function runCli(args: string[]): Promise<CliRun> {
+/** `until`: stop the runner (SIGTERM) as soon as stderr matches, for runs too long to finish in a test. */
+function runCli(args: string[], until?: RegExp): Promise<CliRun> {
   return new Promise((resolve, reject) => {
     const child = spawn(process.execPath, ['node_modules/tsx/dist/cli.mjs', 'server/cli.ts', ...args], {
       cwd: repoRoot,
@@ -25,7 +26,10 @@ function runCli(args: string[]): Promise<CliRun> {
     let stdout = '';
     let stderr = '';
     child.stdout.on('data', (chunk: Buffer) => (stdout += chunk.toString()));
-    child.stderr.on('data', (chunk: Buffer) => (stderr += chunk.toString()));
+    child.stderr.on('data', (chunk: Buffer) => {
+      stderr += chunk.toString();
+      if (until !== undefined && until.test(stderr)) child.kill('SIGTERM');
+    });
     child.on('error', reject);
     child.on('close', (code) => resolve({ code, stdout, stderr }));
   });
@@ -48,11 +52,41 @@ const simulationOutput = z
     method: z.enum(['euler-maruyama', 'milstein', 'heun']),
     paths: z.number().int().positive(),
     steps: z.number().int().positive(),
+    warnings: z.array(z.string()),
     final: z.record(
       z.string(),
       z.object({ mean: nullableNumber, variance: nullableNumber, quantiles }).strict(),
     ),
-    blowups: z.number().int().min(0),
+    finalCovariance: z.array(z.array(nullableNumber)).nullable(),
+    losses: z
+      .object({
+        count: z.number().int().min(0),
+        share: z.number().min(0).max(1),
+        byCause: z
+          .object({ domain: z.number().int(), infinite: z.number().int(), bound: z.number().int() })
+          .strict(),
+        firstTime: nullableNumber,
+        conditional: z.boolean(),
+        allLost: z.boolean(),
+        message: z.string().nullable(),
+        advice: z.array(z.string()),
+      })
+      .strict(),
+    stability: z
+      .object({
+        check: z.enum(['mean-square', 'linear-drift']),
+        stable: z.boolean(),
+        modelStable: z.boolean(),
+        h: z.number(),
+        amplification: nullableNumber,
+        lambda: nullableNumber,
+        lambdaImag: nullableNumber,
+        time: z.number(),
+        maxStableStep: nullableNumber,
+        message: z.string(),
+      })
+      .strict()
+      .nullable(),
     digest: z.string().regex(/^[0-9a-f]{16}$/),
     engineVersion: z.number().int().min(1),
   })
@@ -65,8 +99,13 @@ const probeOutput = z
     standardError: nullableNumber,
     ci: z.tuple([nullableNumber, nullableNumber]),
     paths: z.number().int().min(0),
+    warnings: z.array(z.string()),
     note: z.string().optional(),
+    monitoring: z.string().optional(),
   })
+  .strict();
+const failedOutput = z
+  .object({ id: z.string(), kind: z.enum(['simulation', 'probe', 'study']), error: z.string() })
   .strict();
 const studyLevel = z
   .object({
@@ -83,7 +122,11 @@ const studyOutput = z
     id: z.string(),
     kind: z.literal('study'),
     strongOrder: nullableNumber,
+    strongOrderSE: nullableNumber,
+    strongOrderCI: z.tuple([nullableNumber, nullableNumber]),
     weakOrder: nullableNumber,
+    weakOrderSE: nullableNumber,
+    weakOrderCI: z.tuple([nullableNumber, nullableNumber]),
     reference: z.enum(['exact', 'finest']),
     levels: z.array(studyLevel).min(3),
     note: z.string().optional(),
@@ -93,9 +136,19 @@ const runOutput = z
   .object({
     title: z.string(),
     engineVersion: z.number().int().min(1),
-    cells: z.array(z.union([simulationOutput, probeOutput, studyOutput])),
+    cells: z.array(z.union([simulationOutput, probeOutput, studyOutput, failedOutput])),
   })
   .strict();
+
+type RunOutput = z.infer<typeof runOutput>;
+type ComputedCell = Exclude<RunOutput['cells'][number], { error: string }>;
+
+/** The output of cell `id`, which must have been computed (not failed). */
+function computedCell(output: RunOutput, id: string): ComputedCell {
+  const cell = output.cells.find((c) => c.id === id);
+  if (cell === undefined || 'error' in cell) throw new Error(`cell ${id} has no computed output`);
+  return cell;
+}
 
 describe('sheet run (command line)', () => {
   for (const example of exampleSheets) {
@@ -119,6 +172,7 @@ describe('sheet run (command line)', () => {
       );
       expect(output.cells.map((c) => [c.id, c.kind])).toEqual(numerical.map((c) => [c.id, c.kind]));
       for (const cell of output.cells) {
+        if ('error' in cell) throw new Error(`cell ${cell.id} failed: ${cell.error}`);
         if (cell.kind === 'simulation') {
           const source = numerical.find((c) => c.id === cell.id);
           expect(source?.kind === 'simulation' && Math.max(1, Math.round(source.paths * 0.02))).toBe(
@@ -163,5 +217,68 @@ describe('sheet run (command line)', () => {
     const missing = await runCli(['run', 'no-such-sheet.json']);
     expect(missing.code).toBe(2);
     expect(missing.stderr).toMatch(/cannot read no-such-sheet\.json: no such file/);
+  });
+
+  it('refuses a step size that resolves to more steps than the cap, as an invalid sheet', async () => {
+    const result = await runCli(['run', fixture('step-size-beyond-cap.json')]);
+    expect(result.code).toBe(1);
+    expect(result.stdout).toBe('');
+    expect(result.stderr).toMatch(
+      /cell gauge-run, stepSize: .*gives 20,000,000 steps, more than the limit of 10,000,000/,
+    );
+  });
+
+  it('prints the work estimate of a run far beyond a few minutes before it starts', async () => {
+    const result = await runCli(['run', fixture('huge-work.json'), '--workers', '1'], /path-steps/);
+    expect(result.stdout).toBe('');
+    expect(result.stderr).toMatch(
+      /cell gauge-run: this run is 1\.00e\+14 path-steps, roughly \d+ days on one core/,
+    );
+  });
+
+  it('marks every estimate of a Feller-violating CIR run as conditional, with the advice for a square root', async () => {
+    const result = await runCli(['run', fixture('feller-violated-cir.json'), '--workers', '2']);
+    expect(result.code).toBe(0);
+    const output = runOutput.parse(JSON.parse(result.stdout));
+    const sim = computedCell(output, 'rate-run');
+    const probe = computedCell(output, 'rate-mean');
+    if (sim?.kind !== 'simulation' || probe?.kind !== 'probe') throw new Error('missing outputs');
+    expect(sim.losses.byCause.domain).toBeGreaterThan(sim.paths / 2);
+    expect(sim.losses.byCause.bound + sim.losses.byCause.infinite).toBe(0);
+    expect(sim.losses.conditional).toBe(true);
+    expect(sim.warnings.join(' ')).toMatch(/conditional on the [\d,]+ surviving paths/);
+    expect(sim.warnings.join(' ')).toMatch(/sqrt\(max\(r, 0\)\)/);
+    expect(probe.warnings.join(' ')).toMatch(/conditional on the [\d,]+ surviving paths/);
+    expect(result.stderr).toMatch(/warning: cell rate-mean: conditional on/);
+  });
+
+  it('exits 3 with no estimates when every path is lost', async () => {
+    const result = await runCli(['run', fixture('every-path-lost.json'), '--workers', '1']);
+    expect(result.code).toBe(3);
+    const output = runOutput.parse(JSON.parse(result.stdout));
+    const sim = computedCell(output, 'stock-run');
+    const probe = output.cells.find((c) => c.id === 'stock-mean');
+    if (sim?.kind !== 'simulation') throw new Error('missing simulation output');
+    expect(sim.losses.allLost).toBe(true);
+    expect(sim.losses.advice.join(' ')).toMatch(/logarithm in the drift of N/);
+    expect(Object.values(sim.final).every((summary) => summary.mean === null)).toBe(true);
+    expect(probe && 'error' in probe ? probe.error : '').toMatch(/no estimate: every path was lost/);
+    expect(result.stderr).toMatch(/cell stock-run: every path was lost, so it has no estimates/);
+  });
+
+  it('says a stiff linear model at hλ = −10 is unstable, in the simulation and in every probe', async () => {
+    const result = await runCli(['run', fixture('stiff-linear-large-step.json'), '--workers', '1']);
+    expect(result.code).toBe(0);
+    const output = runOutput.parse(JSON.parse(result.stdout));
+    const sim = computedCell(output, 'lag-run');
+    const probe = computedCell(output, 'lag-mean');
+    if (sim.kind !== 'simulation' || probe.kind !== 'probe') throw new Error('unexpected kinds');
+    expect(sim.stability).toMatchObject({ check: 'linear-drift', stable: false, modelStable: true });
+    expect(sim.stability!.maxStableStep).toBeCloseTo(0.02, 6); // h < 2/|λ| for Euler's step
+    expect(sim.warnings[0]).toMatch(/NOT stable .*\(hλ = −10\)/);
+    // The warnings come before the numbers they qualify, in the JSON text too.
+    expect(result.stdout.indexOf('NOT stable')).toBeLessThan(result.stdout.indexOf('"final"'));
+    expect(probe.warnings.join(' ')).toMatch(/step is unstable/);
+    expect(result.stderr).toMatch(/warning: cell lag-run: Euler–Maruyama with step 0\.1 is NOT stable/);
   });
 });

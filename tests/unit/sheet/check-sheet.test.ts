@@ -376,6 +376,17 @@ describe('checkSheet', () => {
       ]);
     });
 
+    it('applies the step cap to the step count a step size resolves to', () => {
+      // t1 = 3 with h = 1e-7 resolves to 3·10^7 steps, beyond the 10^7 cap on `steps` itself.
+      expect(checkSheet(ouWith(simulationCell({ stepSize: 1e-7 })))).toContainEqual({
+        cellId: 'run',
+        path: ['stepSize'],
+        message:
+          'a step size of 1e-7 over [0, 3] gives 30,000,000 steps, more than the limit of 10,000,000; use a larger step size',
+      });
+      expect(messages(checkSheet(ouWith(simulationCell({ stepSize: 3e-7 }))))).toEqual([]);
+    });
+
     it('wants t1 after t0', () => {
       expect(checkSheet(ouWith(simulationCell({ t0: 3, t1: 3 })))).toContainEqual({
         cellId: 'run',

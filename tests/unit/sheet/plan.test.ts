@@ -142,13 +142,24 @@ describe('buildSimulationPlan', () => {
       },
       { id: 'q7', kind: 'probe', simulation: 'run', quantity: 'extinction', state: 'x', level: 0.1 },
       { id: 'q8', kind: 'probe', simulation: 'run', quantity: 'mean', state: 'x', time: 1.5 },
+      {
+        id: 'q9',
+        kind: 'probe',
+        simulation: 'run',
+        quantity: 'hit-before',
+        state: 'x',
+        level: 2,
+        monitoring: 'bgk',
+      },
     );
     const plan = buildSimulationPlan(doc, 'run');
     expect(plan.probeTimes).toEqual([0.5, 1.5]);
     expect(plan.watches).toEqual([
-      { state: 0, level: 2, direction: 'above' },
-      { state: 0, level: -1, direction: 'below' },
-      { state: 0, level: 0.1, direction: 'below' },
+      { state: 0, level: 2, direction: 'above', correction: 'none' },
+      { state: 0, level: -1, direction: 'below', correction: 'none' },
+      { state: 0, level: 0.1, direction: 'below', correction: 'none' },
+      // The same level watched with the continuity correction is a watch of its own.
+      { state: 0, level: 2, direction: 'above', correction: 'bgk' },
     ]);
   });
 
