@@ -1,5 +1,6 @@
 import { sql } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { ENGINE_VERSION } from '@shared/engine/version';
 import { createTestContext, signUp, type SignedUpUser, type TestContext } from './helpers';
 
 let context: TestContext;
@@ -215,7 +216,8 @@ describe('forks with lineage', () => {
       forkedFromVersion: 2,
       forkSource: { sheetId, title: 'Pond source', version: 2, canRead: true },
       digests: { run: 'feed01' },
-      engineVersion: 1,
+      // The save named no engine version, so the server recorded its own; the fork keeps it.
+      engineVersion: ENGINE_VERSION,
     });
     expect(forked.body.document.cells.map((cell: { id: string }) => cell.id)).toEqual([
       'intro',
