@@ -3,6 +3,7 @@
 import type { ProbeEstimate, ProbeRequest, SimulationResult } from './result';
 import { moments, quantileSorted, sortFinite } from './statistics';
 import { pairMoments } from './covariance';
+import { PORTABLE_MATH } from '../expr/portable-math';
 
 /** Two-sided 95 % normal quantile, z_{0.975}. */
 export const Z95 = 1.959963984540054;
@@ -210,11 +211,13 @@ function correlationEstimate(result: SimulationResult, probe: ProbeRequest, note
       note: joinNotes(note, fisherNote),
     };
   const half = Z95 / Math.sqrt(m.count - 3);
-  const z = Math.atanh(Math.max(-1, Math.min(1, r)));
+  // Fisher's z = atanh(r) = ½·log1p(2r/(1 − r)), through the portable log1p.
+  const clipped = Math.max(-1, Math.min(1, r));
+  const z = 0.5 * PORTABLE_MATH.log1p((2 * clipped) / (1 - clipped));
   return {
     estimate: r,
     standardError: (1 - r * r) / Math.sqrt(m.count - 3),
-    ci: [Math.tanh(z - half), Math.tanh(z + half)],
+    ci: [PORTABLE_MATH.tanh(z - half), PORTABLE_MATH.tanh(z + half)],
     paths: m.count,
     note: joinNotes(note, fisherNote),
   };

@@ -9,6 +9,7 @@ import { normalFrom } from './random/ziggurat';
 import { fitSlope } from './regression';
 import { compileGenerated } from './compile-generated';
 import { MAX_STEPS } from './limits';
+import { PORTABLE_MATH } from '../expr/portable-math';
 
 type ExactSolution = (t: number, initial: Float64Array, brownian: Float64Array) => number;
 
@@ -162,8 +163,8 @@ export function runStudy(plan: SimulationPlan, options: StudyOptions): StudyResu
   const fit = (pick: (level: StudyLevel) => number) => {
     const usable = results.filter((level) => pick(level) > 0 && Number.isFinite(pick(level)));
     return fitSlope(
-      usable.map((level) => Math.log(level.h)),
-      usable.map((level) => Math.log(pick(level))),
+      usable.map((level) => PORTABLE_MATH.log(level.h)),
+      usable.map((level) => PORTABLE_MATH.log(pick(level))),
     );
   };
   const strong = fit((level) => level.strongError);

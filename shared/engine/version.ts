@@ -8,6 +8,6 @@
  * digests bit for bit only when the engine version is the same; otherwise it compares estimates
  * within their Monte Carlo errors.
  */
-export const ENGINE_VERSION = 2;
+export const ENGINE_VERSION = 3;
 // 2: the digest covers every reported number (saved values, probe-time values, extremes, passages,
 //    absorptions, losses and their causes, covariances); losses by cause; covariance statistics.

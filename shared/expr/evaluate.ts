@@ -1,5 +1,6 @@
 import { findConstant } from './functions';
 import { FUNCTION_IMPLEMENTATIONS } from './library';
+import { PORTABLE_MATH } from './portable-math';
 import type { CheckedExpr, ExprNode } from './tree';
 
 /**
@@ -39,7 +40,7 @@ function evaluateNode(node: ExprNode, values: Readonly<Record<string, number>>):
         case '/':
           return left / right;
         case '**':
-          return left ** right;
+          return PORTABLE_MATH.pow(left, right);
       }
       break;
     }

@@ -47,6 +47,9 @@ function emit(node: ExprNode, names: Readonly<Record<string, string>>): string {
       return node.op === '!' ? `(${operand} ? 0 : 1)` : `(${node.op}${operand})`;
     }
     case 'arithmetic':
+      // Powers go through the portable pow: the engines' own `**` differ in the last bit.
+      if (node.op === '**')
+        return `${helperName('pow')}(${emit(node.left, names)}, ${emit(node.right, names)})`;
       return `(${emit(node.left, names)} ${node.op} ${emit(node.right, names)})`;
     case 'comparison': {
       const op = node.op === '==' ? '===' : node.op === '!=' ? '!==' : node.op;

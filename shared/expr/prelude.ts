@@ -1,4 +1,5 @@
 import { EXPRESSION_FUNCTIONS, type ExpressionFunctionName } from './functions';
+import { PORTABLE_MATH_NAME } from './portable-math';
 
 /** Prefix of the helper names in generated code: never collides with `t`, `s0…` or `w0…`. */
 export const HELPER_PREFIX = 'f_';
@@ -7,33 +8,37 @@ export function helperName(fn: ExpressionFunctionName): string {
   return `${HELPER_PREFIX}${fn}`;
 }
 
-/** Source of each helper; the same definitions as FUNCTION_IMPLEMENTATIONS in library.ts. */
+/**
+ * Source of each helper; the same definitions as FUNCTION_IMPLEMENTATIONS in library.ts. The
+ * transcendental ones read PORTABLE_MATH (portable-math.ts), which compileGenerated passes in as
+ * `f_lib`, so generated code gives the same bits in every JavaScript engine.
+ */
 const HELPER_SOURCES: Readonly<Record<ExpressionFunctionName, string>> = {
-  exp: 'Math.exp',
-  log: 'Math.log',
+  exp: `${PORTABLE_MATH_NAME}.exp`,
+  log: `${PORTABLE_MATH_NAME}.log`,
   sqrt: 'Math.sqrt',
   abs: 'Math.abs',
-  sin: 'Math.sin',
-  cos: 'Math.cos',
-  tan: 'Math.tan',
-  tanh: 'Math.tanh',
-  sinh: 'Math.sinh',
-  cosh: 'Math.cosh',
-  atan: 'Math.atan',
-  atan2: 'Math.atan2',
-  asin: 'Math.asin',
-  acos: 'Math.acos',
+  sin: `${PORTABLE_MATH_NAME}.sin`,
+  cos: `${PORTABLE_MATH_NAME}.cos`,
+  tan: `${PORTABLE_MATH_NAME}.tan`,
+  tanh: `${PORTABLE_MATH_NAME}.tanh`,
+  sinh: `${PORTABLE_MATH_NAME}.sinh`,
+  cosh: `${PORTABLE_MATH_NAME}.cosh`,
+  atan: `${PORTABLE_MATH_NAME}.atan`,
+  atan2: `${PORTABLE_MATH_NAME}.atan2`,
+  asin: `${PORTABLE_MATH_NAME}.asin`,
+  acos: `${PORTABLE_MATH_NAME}.acos`,
   min: 'Math.min',
   max: 'Math.max',
-  pow: 'Math.pow',
+  pow: `${PORTABLE_MATH_NAME}.pow`,
   sign: 'Math.sign',
   floor: 'Math.floor',
   ceil: 'Math.ceil',
   round: 'Math.round',
-  log10: 'Math.log10',
-  log1p: 'Math.log1p',
-  expm1: 'Math.expm1',
-  hypot: 'Math.hypot',
+  log10: `${PORTABLE_MATH_NAME}.log10`,
+  log1p: `${PORTABLE_MATH_NAME}.log1p`,
+  expm1: `${PORTABLE_MATH_NAME}.expm1`,
+  hypot: `${PORTABLE_MATH_NAME}.hypot`,
   clamp: '(x, lo, hi) => Math.min(Math.max(x, lo), hi)',
   step: '(x) => (x >= 0 ? 1 : x < 0 ? 0 : NaN)',
   pos: '(x) => Math.max(x, 0)',

@@ -1,4 +1,5 @@
 import { XOSHIRO_NEXT_SOURCE, type Xoshiro128 } from './xoshiro128';
+import { PORTABLE_MATH } from '../../expr/portable-math';
 
 /**
  * Standard normal sampler by the ziggurat method of Marsaglia & Tsang (2000), "The ziggurat
@@ -28,18 +29,18 @@ export function buildZigguratTables(): ZigguratTables {
   const fn = new Float64Array(128);
   let dn = ZIGGURAT_R;
   let tn = dn;
-  const q = ZIGGURAT_V / Math.exp(-0.5 * dn * dn);
+  const q = ZIGGURAT_V / PORTABLE_MATH.exp(-0.5 * dn * dn);
   kn[0] = Math.trunc((dn / q) * TWO_POW_31);
   kn[1] = 0;
   wn[0] = q / TWO_POW_31;
   wn[127] = dn / TWO_POW_31;
   fn[0] = 1;
-  fn[127] = Math.exp(-0.5 * dn * dn);
+  fn[127] = PORTABLE_MATH.exp(-0.5 * dn * dn);
   for (let i = 126; i >= 1; i--) {
-    dn = Math.sqrt(-2 * Math.log(ZIGGURAT_V / dn + Math.exp(-0.5 * dn * dn)));
+    dn = Math.sqrt(-2 * PORTABLE_MATH.log(ZIGGURAT_V / dn + PORTABLE_MATH.exp(-0.5 * dn * dn)));
     kn[i + 1] = Math.trunc((dn / tn) * TWO_POW_31);
     tn = dn;
-    fn[i] = Math.exp(-0.5 * dn * dn);
+    fn[i] = PORTABLE_MATH.exp(-0.5 * dn * dn);
     wn[i] = dn / TWO_POW_31;
   }
   return { kn, wn, fn };
@@ -60,12 +61,13 @@ export function normalFrom(generator: Xoshiro128, tables: ZigguratTables = ZIGGU
       let tail: number;
       let y: number;
       do {
-        tail = -Math.log(generator.nextOpenUnit()) / ZIGGURAT_R;
-        y = -Math.log(generator.nextOpenUnit());
+        tail = -PORTABLE_MATH.log(generator.nextOpenUnit()) / ZIGGURAT_R;
+        y = -PORTABLE_MATH.log(generator.nextOpenUnit());
       } while (y + y < tail * tail);
       return hz > 0 ? ZIGGURAT_R + tail : -ZIGGURAT_R - tail;
     }
-    if (fn[iz]! + generator.nextOpenUnit() * (fn[iz - 1]! - fn[iz]!) < Math.exp(-0.5 * x * x)) return x;
+    if (fn[iz]! + generator.nextOpenUnit() * (fn[iz - 1]! - fn[iz]!) < PORTABLE_MATH.exp(-0.5 * x * x))
+      return x;
     hz = generator.nextUint32() | 0;
     iz = hz & 127;
     if (Math.abs(hz) < kn[iz]!) return hz * wn[iz]!;
@@ -109,12 +111,12 @@ export function normalSlowPath(firstHz: number, firstIz: number, gen: Int32Array
       let tail: number;
       let y: number;
       do {
-        tail = -Math.log(openUnit(gen)) / ZIGGURAT_R;
-        y = -Math.log(openUnit(gen));
+        tail = -PORTABLE_MATH.log(openUnit(gen)) / ZIGGURAT_R;
+        y = -PORTABLE_MATH.log(openUnit(gen));
       } while (y + y < tail * tail);
       return hz > 0 ? ZIGGURAT_R + tail : -ZIGGURAT_R - tail;
     }
-    if (fn[iz]! + openUnit(gen) * (fn[iz - 1]! - fn[iz]!) < Math.exp(-0.5 * x * x)) return x;
+    if (fn[iz]! + openUnit(gen) * (fn[iz - 1]! - fn[iz]!) < PORTABLE_MATH.exp(-0.5 * x * x)) return x;
     hz = nextInt32(gen);
     iz = hz & 127;
     if (Math.abs(hz) < kn[iz]!) return hz * wn[iz]!;

@@ -9,14 +9,11 @@ import {
   type CheckedExpr,
 } from '@shared/expr';
 import { FUNCTION_IMPLEMENTATIONS } from '@shared/expr/library';
+import { compileGenerated } from '@shared/engine/compile-generated';
 
-// new Function appears here, in a test only, to run generated source the way the engine will.
+// Runs generated source the way the engine does, through its one compile function.
 function compile(source: string): (t: number, s0: number, s1: number) => number {
-  return new Function('t', 's0', 's1', `${EXPRESSION_PRELUDE}\nreturn ${source};`) as (
-    t: number,
-    s0: number,
-    s1: number,
-  ) => number;
+  return compileGenerated(['t', 's0', 's1'], `${EXPRESSION_PRELUDE}\nreturn ${source};`);
 }
 
 const SCOPE = ['t', 'x', 'y', 'k', 'm'];
@@ -114,9 +111,10 @@ describe('generateSource on a tree not made by checkExpression', () => {
 });
 
 describe('EXPRESSION_PRELUDE', () => {
-  const helpers = new Function(
+  const helpers = compileGenerated<() => Record<string, (...args: number[]) => number>>(
+    [],
     `${EXPRESSION_PRELUDE}\nreturn { ${EXPRESSION_FUNCTIONS.map((f) => `${f.name}: f_${f.name}`).join(', ')} };`,
-  )() as Record<string, (...args: number[]) => number>;
+  )();
 
   it('defines every function with the f_ prefix', () => {
     for (const fn of EXPRESSION_FUNCTIONS) {

@@ -1,12 +1,13 @@
 import { describe, expect, it } from 'vitest';
 import { buildSimulationPlan, SheetIssuesError } from '@shared/sheet';
 import { EXPRESSION_PRELUDE } from '@shared/expr';
+import { compileGenerated } from '@shared/engine/compile-generated';
 import { modelCell, ouSheet, ouWith, simulationCell } from './fixtures';
 
-// new Function in a test only: runs a plan's source the way the engine's generator would.
+// Runs a plan's source the way the engine's generator does, through its one compile function.
 function run(source: string, t: number, states: number[], noises: number[] = []): number {
   const args = ['t', ...states.map((_, i) => `s${i}`), ...noises.map((_, j) => `w${j}`)];
-  return (new Function(...args, `${EXPRESSION_PRELUDE}\nreturn ${source};`) as (...a: number[]) => number)(
+  return compileGenerated<(...a: number[]) => number>(args, `${EXPRESSION_PRELUDE}\nreturn ${source};`)(
     t,
     ...states,
     ...noises,
