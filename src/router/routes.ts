@@ -64,7 +64,8 @@ export const routes: RouteRecordRaw[] = [
     path: '/mailbox',
     name: 'mailbox',
     component: () => import('@/views/MailboxView.vue'),
-    meta: { title: 'Mailbox', public: true },
+    // It shows live reset links: the site admin's page only.
+    meta: { title: 'Mailbox', requiresAdmin: true },
   },
   {
     path: '/:pathMatch(.*)*',

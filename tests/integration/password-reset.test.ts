@@ -141,11 +141,11 @@ describe('password reset', () => {
     expect(short.body.error.path).toEqual(['password']);
   });
 
-  it('shows captured mail on the development mailbox route', async () => {
+  it('shows a member their own captured mail on the development mailbox route', async () => {
     const user = await signUp(context);
     await requestReset(user.email);
     await waitForMail(context.mailFake, user.email);
-    const mailbox = await context.agent().get('/api/dev/mailbox');
+    const mailbox = await user.agent.get('/api/dev/mailbox');
     expect(mailbox.status).toBe(200);
     const message = mailbox.body.messages.find((entry: { to: string[] }) => entry.to.includes(user.email));
     expect(message).toMatchObject({
