@@ -16,7 +16,10 @@ export const envSchema = z.object({
     .url({ protocol: /^postgres(ql)?$/, error: 'DATABASE_URL must be a postgres:// URL' })
     .optional(),
   PGPORT_MEANDER: port.default(54329),
-  /** The public origin (scheme://host:port); reset links and the Origin check use it. */
+  /**
+   * The public origin (scheme://host:port): reset links, the Origin check and the Host check use
+   * it, never a request's headers. Defaults to http://HOST:PORT of the server itself.
+   */
   APP_ORIGIN: z
     .url({
       protocol: /^https?$/,
@@ -36,7 +39,8 @@ export type Env = z.infer<typeof envSchema>;
 /** What createApp needs, independent of where it came from. */
 export interface AppConfig {
   nodeEnv: Env['NODE_ENV'];
-  appOrigin?: string;
+  /** scheme://host[:port], as URL.origin writes it. */
+  appOrigin: string;
   secureCookies: boolean;
   /** Built client to serve (dist/); omitted in tests and in `npm run dev`. */
   clientDir?: string;
@@ -52,10 +56,16 @@ export function loadEnv(source: NodeJS.ProcessEnv = process.env): Env {
   throw new Error(`The environment is not valid:\n${problems}`);
 }
 
+/** http://HOST:PORT; a wildcard address is reached as localhost (set APP_ORIGIN on a public server). */
+export function defaultOrigin(host: string, port: number): string {
+  const reachable = host === '0.0.0.0' || host === '::' ? 'localhost' : host;
+  return new URL(`http://${reachable.includes(':') ? `[${reachable}]` : reachable}:${port}`).origin;
+}
+
 export function appConfigFromEnv(env: Env, clientDir?: string): AppConfig {
   return {
     nodeEnv: env.NODE_ENV,
-    appOrigin: env.APP_ORIGIN,
+    appOrigin: env.APP_ORIGIN ?? defaultOrigin(env.HOST, env.PORT),
     secureCookies: env.SESSION_SECURE ?? env.NODE_ENV === 'production',
     clientDir: clientDir ? path.resolve(clientDir) : undefined,
   };

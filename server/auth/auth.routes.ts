@@ -1,4 +1,4 @@
-import { Router, type Request } from 'express';
+import { Router } from 'express';
 import {
   changePasswordRequestSchema,
   passwordResetConfirmSchema,
@@ -14,12 +14,8 @@ import { currentSession, currentUser, requireSignedIn } from './session-middlewa
 
 export interface AuthRoutesDeps {
   auth: AuthUsecases;
-  /** Where reset links point; without it, the origin the request came to. */
-  appOrigin?: string;
-}
-
-function requestOrigin(req: Request, appOrigin?: string): string {
-  return appOrigin ?? `${req.protocol}://${req.get('host') ?? 'localhost'}`;
+  /** Where reset links point: configuration only, never the request's Host. */
+  appOrigin: string;
 }
 
 /** /api/auth/*: sign-up, sign-in, sign-out, the current user, password reset. */
@@ -50,7 +46,7 @@ export function authRoutes({ auth, appOrigin }: AuthRoutesDeps): Router {
 
   router.post('/password-reset', (req, res) => {
     const { email } = parseOr400(passwordResetRequestSchema, req.body);
-    auth.requestPasswordReset(email, requestOrigin(req, appOrigin));
+    auth.requestPasswordReset(email, appOrigin);
     res.status(202).json({ message: 'If an account uses this address, a reset link is on its way.' });
   });
 

@@ -1,4 +1,3 @@
-import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { appConfigFromEnv, loadEnv } from '../../server/config';
 import { createTestContext, DEFAULT_PASSWORD, type TestContext, uniqueEmail } from './helpers';
@@ -53,9 +52,9 @@ describe('secure cookies', () => {
   });
 
   it('marks the session cookie Secure when configured for production', async () => {
-    const response = await request(context.app)
+    const response = await context
+      .agent()
       .post('/api/auth/sign-up')
-      .set('Origin', 'http://meander.test')
       .send({ email: uniqueEmail(), name: 'Secure Cookie', password: DEFAULT_PASSWORD });
     expect(response.status).toBe(201);
     const cookies = ([] as string[]).concat(response.headers['set-cookie'] ?? []);

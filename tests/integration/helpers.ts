@@ -12,6 +12,8 @@ import { createMailer } from '../../server/mail/mailer';
 
 /** The origin the test app believes it has; state-changing requests must name it. */
 export const TEST_ORIGIN = 'http://meander.test';
+/** The Host header of TEST_ORIGIN: requests naming another host are refused. */
+export const TEST_HOST = new URL(TEST_ORIGIN).host;
 
 export interface TestContext {
   app: ReturnType<typeof createApp>;
@@ -20,8 +22,10 @@ export interface TestContext {
   signInLimiter: RateLimiter;
   /** Errors the app reported as unexpected (a test can assert there were none). */
   reported: unknown[];
-  /** A cookie-keeping client that sends our Origin. */
+  /** A cookie-keeping client that sends our Host and Origin. */
   agent(): TestAgent;
+  /** A client that sends our Host but no Origin and no cookie (a plain GET, a hostile form). */
+  anonymous(): TestAgent;
   close(): Promise<void>;
 }
 
@@ -82,7 +86,8 @@ export async function createTestContext(
     mailFake,
     signInLimiter,
     reported,
-    agent: () => request.agent(app).set('Origin', TEST_ORIGIN),
+    agent: () => request.agent(app).host(TEST_HOST).set('Origin', TEST_ORIGIN),
+    anonymous: () => request.agent(app).host(TEST_HOST),
     async close() {
       mailer.close();
       await mailFake.stop();
