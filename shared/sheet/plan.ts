@@ -43,7 +43,10 @@ export function buildSimulationPlan(doc: SheetDocument, simulationCellId: string
     seed: sim.seed,
     saveCount: sim.saveCount,
     samplePaths: sim.samplePaths,
-    boundaries: model.states.map((s): BoundaryRule => sim.boundaries[s.name] ?? { rule: 'none' }),
+    boundaries: model.states.map(
+      (s): BoundaryRule =>
+        (Object.hasOwn(sim.boundaries, s.name) ? sim.boundaries[s.name] : undefined) ?? { rule: 'none' },
+    ),
     blowupBound: sim.blowupBound ?? null,
     probeTimes: probeTimes(doc, sim),
     watches: watches(doc, sim, model),
