@@ -13,10 +13,11 @@ import { loadSession } from './auth/session-middleware';
 import type { AppConfig } from './config';
 import type { Db } from './db/client';
 import { devRoutes } from './dev/dev.routes';
-import { requireSameOrigin } from './http/csrf';
 import { errorMiddleware, type ErrorReporter } from './http/error-middleware';
 import { healthRoutes } from './http/health.routes';
 import { routeNotFound } from './http/http.errors';
+import { allowedOrigins, requireKnownHost, requireSameOrigin } from './http/origin';
+import { jsonBody, rejectMalformedUrl } from './http/request-shape';
 import { securityHeaders } from './http/security-headers';
 import type { MailboxReader } from './mail/mail-fake';
 import type { Mailer } from './mail/mailer';
@@ -61,15 +62,20 @@ export function createApp(deps: AppDeps): Express {
   const sheets = createSheetsUsecases({ db, sheets: createSheetsRepository({ db }) });
   const admin = createAdminUsecases({ db, users });
 
+  const origins = allowedOrigins(config.appOrigin);
+
   const app = express();
   app.disable('x-powered-by');
   app.use(securityHeaders());
+  app.use(requireKnownHost(origins));
+  app.use(rejectMalformedUrl());
 
   const api = express.Router();
-  api.use(express.json({ limit: '2mb' }));
-  api.use(requireSameOrigin(config.appOrigin));
-  api.use(loadSession(lucia));
+  api.use(jsonBody({ limit: '2mb' }));
+  api.use(requireSameOrigin(origins));
+  // Before the session lookup: health must answer 503, not fail, when the database is down.
   api.use('/health', healthRoutes({ db }));
+  api.use(loadSession(lucia));
   api.use('/auth', authRoutes({ auth, appOrigin: config.appOrigin }));
   api.use('/account', accountRoutes({ auth }));
   api.use('/admin', adminRoutes({ admin }));
