@@ -37,12 +37,14 @@ export async function createTestDatabase(): Promise<{ url: string; drop(): Promi
   const templateUrl = new URL(inject('databaseUrl'));
   const template = templateUrl.pathname.slice(1);
   const name = `meander_t_${randomBytes(6).toString('hex')}`;
-  const adminUrl = new URL(templateUrl);
+  // The app's role may not create databases: the superuser does, and hands the copy to that role.
+  const adminUrl = new URL(inject('databaseAdminUrl'));
   adminUrl.pathname = '/postgres';
+  const owner = templateUrl.username;
   const admin = new pg.Client({ connectionString: adminUrl.toString() });
   await admin.connect();
   try {
-    await admin.query(`CREATE DATABASE ${name} TEMPLATE ${template}`);
+    await admin.query(`CREATE DATABASE ${name} TEMPLATE ${template} OWNER ${owner}`);
   } finally {
     await admin.end();
   }
