@@ -8,7 +8,7 @@ import { createAuthUsecases } from './auth/auth.usecases';
 import { createLucia } from './auth/lucia';
 import { createPasswordResetsRepository } from './auth/password-resets.repository';
 import { createPasswordHasher } from './auth/passwords';
-import { createRateLimiter, type RateLimiter, SIGN_IN_LIMIT } from './auth/rate-limiter';
+import { type AuthLimits, createAuthLimiters } from './auth/auth-limits';
 import { loadSession } from './auth/session-middleware';
 import type { AppConfig } from './config';
 import type { Db } from './db/client';
@@ -32,8 +32,8 @@ export interface AppDeps {
   /** The in-process mail fake, for the development mailbox route. */
   mailbox?: MailboxReader;
   config: AppConfig;
-  /** Sign-in attempts per client address and e-mail; 10 per 15 minutes by default. */
-  signInLimiter?: RateLimiter;
+  /** Sign-in, sign-up and reset limits (counted in PostgreSQL); AUTH_LIMITS by default. */
+  limits?: Partial<AuthLimits>;
   /** Where unexpected errors go; stderr by default. */
   report?: ErrorReporter;
 }
@@ -56,7 +56,7 @@ export function createApp(deps: AppDeps): Express {
     lucia,
     hasher: createPasswordHasher(),
     mailer,
-    signInLimiter: deps.signInLimiter ?? createRateLimiter(SIGN_IN_LIMIT),
+    limiters: createAuthLimiters(db, deps.limits),
     report,
   });
   const sheets = createSheetsUsecases({ db, sheets: createSheetsRepository({ db }) });
@@ -66,6 +66,8 @@ export function createApp(deps: AppDeps): Express {
 
   const app = express();
   app.disable('x-powered-by');
+  // Which proxies may name the client in X-Forwarded-For (TRUST_PROXY); none by default.
+  app.set('trust proxy', config.trustProxy ?? false);
   app.use(securityHeaders());
   app.use(requireKnownHost(origins));
   app.use(rejectMalformedUrl());

@@ -32,6 +32,19 @@ export const envSchema = z.object({
   MAIL_FROM: z.string().min(3).default('Meander <no-reply@meander.example.test>'),
   /** Secure cookies; defaults to on in production. */
   SESSION_SECURE: flag.optional(),
+  /**
+   * Express's `trust proxy`: which proxies may name the client in X-Forwarded-For (rate limits
+   * and logs use it). `false` (default), `true`, a hop count, or addresses and subnets such as
+   * `loopback` or `10.0.0.0/8, 10.1.2.3`.
+   */
+  TRUST_PROXY: z
+    .string()
+    .trim()
+    .min(1)
+    .transform((value): boolean | number | string =>
+      value === 'true' ? true : value === 'false' ? false : /^\d+$/.test(value) ? Number(value) : value,
+    )
+    .optional(),
 });
 
 export type Env = z.infer<typeof envSchema>;
@@ -42,6 +55,8 @@ export interface AppConfig {
   /** scheme://host[:port], as URL.origin writes it. */
   appOrigin: string;
   secureCookies: boolean;
+  /** Express's `trust proxy` setting; false unless TRUST_PROXY says otherwise. */
+  trustProxy?: boolean | number | string;
   /** Built client to serve (dist/); omitted in tests and in `npm run dev`. */
   clientDir?: string;
 }
@@ -67,6 +82,7 @@ export function appConfigFromEnv(env: Env, clientDir?: string): AppConfig {
     nodeEnv: env.NODE_ENV,
     appOrigin: env.APP_ORIGIN ?? defaultOrigin(env.HOST, env.PORT),
     secureCookies: env.SESSION_SECURE ?? env.NODE_ENV === 'production',
+    trustProxy: env.TRUST_PROXY ?? false,
     clientDir: clientDir ? path.resolve(clientDir) : undefined,
   };
 }

@@ -18,11 +18,12 @@ export const emailTaken = () =>
     },
   );
 
-export const rateLimited = (retryAfterSeconds: number) =>
+/** Says when the lock ends, in minutes, and in Retry-After. */
+export const rateLimited = (retryAfterSeconds: number, what = 'attempts') =>
   new AppError(
     429,
     API_ERROR_CODES.rateLimited,
-    `Too many sign-in attempts. Try again in ${Math.ceil(retryAfterSeconds / 60)} minute(s).`,
+    `Too many ${what}. Try again in ${Math.ceil(retryAfterSeconds / 60)} minute(s).`,
     { retryAfterSeconds },
     { 'Retry-After': String(retryAfterSeconds) },
   );

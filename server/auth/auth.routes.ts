@@ -1,4 +1,4 @@
-import { Router } from 'express';
+import { type Request, Router } from 'express';
 import {
   changePasswordRequestSchema,
   passwordResetConfirmSchema,
@@ -18,19 +18,24 @@ export interface AuthRoutesDeps {
   appOrigin: string;
 }
 
+/** The client's address: the socket's peer, or X-Forwarded-For only from proxies TRUST_PROXY names. */
+function clientAddress(req: Request): string {
+  return req.ip ?? req.socket.remoteAddress ?? 'unknown';
+}
+
 /** /api/auth/*: sign-up, sign-in, sign-out, the current user, password reset. */
 export function authRoutes({ auth, appOrigin }: AuthRoutesDeps): Router {
   const router = Router();
 
   router.post('/sign-up', async (req, res) => {
     const input = parseOr400(signUpRequestSchema, req.body);
-    const { user, cookie } = await auth.signUp(input);
+    const { user, cookie } = await auth.signUp(input, clientAddress(req));
     res.appendHeader('Set-Cookie', cookie).status(201).json(user);
   });
 
   router.post('/sign-in', async (req, res) => {
     const input = parseOr400(signInRequestSchema, req.body);
-    const { user, cookie } = await auth.signIn(input, req.ip ?? 'unknown');
+    const { user, cookie } = await auth.signIn(input, clientAddress(req));
     res.appendHeader('Set-Cookie', cookie).json(user);
   });
 
@@ -44,9 +49,9 @@ export function authRoutes({ auth, appOrigin }: AuthRoutesDeps): Router {
     res.json(toCurrentUser(currentUser(res)));
   });
 
-  router.post('/password-reset', (req, res) => {
+  router.post('/password-reset', async (req, res) => {
     const { email } = parseOr400(passwordResetRequestSchema, req.body);
-    auth.requestPasswordReset(email, appOrigin);
+    await auth.requestPasswordReset(email, clientAddress(req), appOrigin);
     res.status(202).json({ message: 'If an account uses this address, a reset link is on its way.' });
   });
 

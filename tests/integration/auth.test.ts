@@ -1,13 +1,12 @@
 import { sql } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createRateLimiter } from '../../server/auth/rate-limiter';
 import { createTestContext, DEFAULT_PASSWORD, signUp, type TestContext, uniqueEmail } from './helpers';
 
 let context: TestContext;
 beforeAll(async () => {
   // A small limit keeps the rate-limit test short; the production default is 10 per 15 minutes.
   context = await createTestContext({
-    signInLimiter: createRateLimiter({ limit: 5, windowMs: 15 * 60 * 1000 }),
+    limits: { signInPerAddressAndAccount: { limit: 5, windowMs: 15 * 60 * 1000 } },
   });
 });
 afterAll(async () => {

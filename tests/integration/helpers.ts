@@ -4,7 +4,7 @@ import request from 'supertest';
 import type TestAgent from 'supertest/lib/agent';
 import { inject } from 'vitest';
 import { createApp } from '../../server/app';
-import { createRateLimiter, type RateLimiter, SIGN_IN_LIMIT } from '../../server/auth/rate-limiter';
+import { AUTH_LIMITS, type AuthLimits } from '../../server/auth/auth-limits';
 import type { AppConfig } from '../../server/config';
 import { connectDatabase, type Database } from '../../server/db/client';
 import { type MailFake, startMailFake } from '../../server/mail/mail-fake';
@@ -19,7 +19,6 @@ export interface TestContext {
   app: ReturnType<typeof createApp>;
   database: Database;
   mailFake: MailFake;
-  signInLimiter: RateLimiter;
   /** Errors the app reported as unexpected (a test can assert there were none). */
   reported: unknown[];
   /** A cookie-keeping client that sends our Host and Origin. */
@@ -60,8 +59,16 @@ export async function createTestDatabase(): Promise<{ url: string; drop(): Promi
   };
 }
 
+/**
+ * Every test signs up and signs in from the same address: the limits are lifted far out of the
+ * way unless a test sets its own (the limits' own tests do).
+ */
+export const GENEROUS_LIMITS: AuthLimits = Object.fromEntries(
+  Object.keys(AUTH_LIMITS).map((name) => [name, { limit: 100_000, windowMs: 60_000 }]),
+) as AuthLimits;
+
 export async function createTestContext(
-  options: { config?: Partial<AppConfig>; signInLimiter?: RateLimiter; mountMailbox?: boolean } = {},
+  options: { config?: Partial<AppConfig>; limits?: Partial<AuthLimits>; mountMailbox?: boolean } = {},
 ): Promise<TestContext> {
   const testDb = await createTestDatabase();
   const database = connectDatabase(testDb.url, { max: 5 });
@@ -72,21 +79,19 @@ export async function createTestContext(
     port: mailFake.port,
     from: 'Meander <no-reply@meander.example.test>',
   });
-  const signInLimiter = options.signInLimiter ?? createRateLimiter(SIGN_IN_LIMIT);
   const reported: unknown[] = [];
   const app = createApp({
     db: database.db,
     mailer,
     mailbox: options.mountMailbox === false ? undefined : mailFake,
     config: { nodeEnv: 'test', appOrigin: TEST_ORIGIN, secureCookies: false, ...options.config },
-    signInLimiter,
+    limits: { ...GENEROUS_LIMITS, ...options.limits },
     report: (error) => reported.push(error),
   });
   return {
     app,
     database,
     mailFake,
-    signInLimiter,
     reported,
     agent: () => request.agent(app).host(TEST_HOST).set('Origin', TEST_ORIGIN),
     anonymous: () => request.agent(app).host(TEST_HOST),
