@@ -18,7 +18,7 @@ import { healthRoutes } from './http/health.routes';
 import { routeNotFound } from './http/http.errors';
 import { allowedOrigins, requireKnownHost, requireSameOrigin } from './http/origin';
 import { jsonBody, rejectMalformedUrl } from './http/request-shape';
-import { securityHeaders } from './http/security-headers';
+import { noStore, securityHeaders } from './http/security-headers';
 import type { MailboxReader } from './mail/mail-fake';
 import type { Mailer } from './mail/mailer';
 import { createSheetsRepository } from './sheets/sheets.repository';
@@ -73,6 +73,7 @@ export function createApp(deps: AppDeps): Express {
   app.use(rejectMalformedUrl());
 
   const api = express.Router();
+  api.use(noStore());
   api.use(jsonBody({ limit: '2mb' }));
   api.use(requireSameOrigin(origins));
   // Before the session lookup: health must answer 503, not fail, when the database is down.

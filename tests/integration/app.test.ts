@@ -117,3 +117,32 @@ describe('development mailbox', () => {
     expect(response.body).toEqual({ messages: expect.any(Array) });
   });
 });
+
+describe('security headers', () => {
+  it('marks authenticated API answers Cache-Control: no-store', async () => {
+    const { agent } = await signUp(context);
+    for (const path of ['/api/auth/me', '/api/sheets']) {
+      const response = await agent.get(path);
+      expect(response.status).toBe(200);
+      expect(response.headers['cache-control']).toBe('no-store');
+    }
+  });
+
+  it("forbids the worker every connection (connect-src 'none')", async () => {
+    const worker = await context.anonymous().get('/assets/simulation.worker-def456.js');
+    expect(worker.headers['content-security-policy']).toContain("connect-src 'none'");
+    const page = await context.anonymous().get('/sheets/abc');
+    expect(page.headers['content-security-policy']).toContain("connect-src 'self'");
+  });
+
+  it('makes the page cross-origin isolated and turns off features the app does not use', async () => {
+    for (const path of ['/sheets/abc', '/assets/index-abc123.js', '/assets/simulation.worker-def456.js']) {
+      const response = await context.anonymous().get(path);
+      expect(response.headers['cross-origin-opener-policy']).toBe('same-origin');
+      expect(response.headers['cross-origin-embedder-policy']).toBe('require-corp');
+    }
+    const policy = (await context.anonymous().get('/sheets/abc')).headers['permissions-policy'];
+    for (const feature of ['camera=()', 'microphone=()', 'geolocation=()', 'payment=()', 'usb=()'])
+      expect(policy).toContain(feature);
+  });
+});
