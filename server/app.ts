@@ -18,7 +18,9 @@ import { healthRoutes } from './http/health.routes';
 import { routeNotFound } from './http/http.errors';
 import { allowedOrigins, requireKnownHost, requireSameOrigin } from './http/origin';
 import { jsonBody, rejectMalformedUrl } from './http/request-shape';
+import { requestLog } from './http/request-log';
 import { noStore, securityHeaders } from './http/security-headers';
+import { type Logger, loggableError, silentLogger } from './logger';
 import type { MailboxReader } from './mail/mail-fake';
 import type { Mailer } from './mail/mailer';
 import { createSheetsRepository } from './sheets/sheets.repository';
@@ -34,20 +36,18 @@ export interface AppDeps {
   config: AppConfig;
   /** Sign-in, sign-up and reset limits (counted in PostgreSQL); AUTH_LIMITS by default. */
   limits?: Partial<AuthLimits>;
-  /** Where unexpected errors go; stderr by default. */
+  /** Request lines and unexpected errors; silent by default (start.ts and dev.ts pass one). */
+  logger?: Logger;
+  /** Where unexpected errors go; the logger by default. */
   report?: ErrorReporter;
 }
-
-const defaultReport: ErrorReporter = (error) => {
-  process.stderr.write(
-    `[meander] ${error instanceof Error ? (error.stack ?? error.message) : String(error)}\n`,
-  );
-};
 
 /** Builds the Express app from its dependencies; listening is the caller's business. */
 export function createApp(deps: AppDeps): Express {
   const { db, mailer, config } = deps;
-  const report = deps.report ?? defaultReport;
+  const logger = deps.logger ?? silentLogger;
+  const report: ErrorReporter =
+    deps.report ?? ((error) => logger.error({ err: loggableError(error) }, 'unexpected error'));
   const lucia = createLucia({ db, secureCookies: config.secureCookies });
   const users = createUsersRepository({ db });
   const auth = createAuthUsecases({
@@ -68,6 +68,7 @@ export function createApp(deps: AppDeps): Express {
   app.disable('x-powered-by');
   // Which proxies may name the client in X-Forwarded-For (TRUST_PROXY); none by default.
   app.set('trust proxy', config.trustProxy ?? false);
+  app.use(requestLog(logger));
   app.use(securityHeaders());
   app.use(requireKnownHost(origins));
   app.use(rejectMalformedUrl());

@@ -1,5 +1,6 @@
 import path from 'node:path';
 import { z } from 'zod';
+import { LOG_LEVELS } from './logger';
 
 const port = z.coerce.number().int().min(1).max(65_535);
 const flag = z.enum(['true', 'false', '1', '0']).transform((value) => value === 'true' || value === '1');
@@ -32,6 +33,8 @@ export const envSchema = z.object({
   MAIL_FROM: z.string().min(3).default('Meander <no-reply@meander.example.test>'),
   /** Secure cookies; defaults to on in production. */
   SESSION_SECURE: flag.optional(),
+  /** Structured logs (JSON lines on stdout) from this level up. */
+  LOG_LEVEL: z.enum(LOG_LEVELS).default('info'),
   /**
    * Express's `trust proxy`: which proxies may name the client in X-Forwarded-For (rate limits
    * and logs use it). `false` (default), `true`, a hop count, or addresses and subnets such as

@@ -1,6 +1,7 @@
 import { spawn } from 'node:child_process';
 import { appConfigFromEnv, loadEnv } from './config';
 import { listen } from './index';
+import { createLogger } from './logger';
 import { onShutdown, startServices } from './services';
 
 /** `npm run dev`: local services and the API on API_PORT, then Vite's dev server, which proxies /api here. */
@@ -21,6 +22,7 @@ async function main() {
       db: services.database.db,
       mailer: services.mailer,
       mailbox: services.mailFake,
+      logger: createLogger(env.LOG_LEVEL),
       // The browser talks to Vite's dev server, which passes /api and its Host on to us.
       config: appConfigFromEnv({ ...env, APP_ORIGIN: env.APP_ORIGIN ?? VITE_ORIGIN }),
     },

@@ -28,6 +28,13 @@ describe('loadEnv', () => {
     );
   });
 
+  it('reads TRUST_PROXY as a flag, a hop count or a list of proxies, and trusts none by default', () => {
+    expect(appConfigFromEnv(loadEnv({})).trustProxy).toBe(false);
+    expect(loadEnv({ TRUST_PROXY: 'true' }).TRUST_PROXY).toBe(true);
+    expect(loadEnv({ TRUST_PROXY: '2' }).TRUST_PROXY).toBe(2);
+    expect(loadEnv({ TRUST_PROXY: 'loopback, 10.0.0.0/8' }).TRUST_PROXY).toBe('loopback, 10.0.0.0/8');
+  });
+
   it('fails fast with every problem named', () => {
     let message = '';
     try {

@@ -8,6 +8,7 @@ import { AUTH_LIMITS, type AuthLimits } from '../../server/auth/auth-limits';
 import type { AppConfig } from '../../server/config';
 import { connectDatabase, type Database } from '../../server/db/client';
 import { type MailFake, startMailFake } from '../../server/mail/mail-fake';
+import type { Logger } from '../../server/logger';
 import { createMailer } from '../../server/mail/mailer';
 
 /** The origin the test app believes it has; state-changing requests must name it. */
@@ -68,7 +69,12 @@ export const GENEROUS_LIMITS: AuthLimits = Object.fromEntries(
 ) as AuthLimits;
 
 export async function createTestContext(
-  options: { config?: Partial<AppConfig>; limits?: Partial<AuthLimits>; mountMailbox?: boolean } = {},
+  options: {
+    config?: Partial<AppConfig>;
+    limits?: Partial<AuthLimits>;
+    mountMailbox?: boolean;
+    logger?: Logger;
+  } = {},
 ): Promise<TestContext> {
   const testDb = await createTestDatabase();
   const database = connectDatabase(testDb.url, { max: 5 });
@@ -86,6 +92,7 @@ export async function createTestContext(
     mailbox: options.mountMailbox === false ? undefined : mailFake,
     config: { nodeEnv: 'test', appOrigin: TEST_ORIGIN, secureCookies: false, ...options.config },
     limits: { ...GENEROUS_LIMITS, ...options.limits },
+    logger: options.logger,
     report: (error) => reported.push(error),
   });
   return {
