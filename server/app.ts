@@ -10,6 +10,8 @@ import { createPasswordResetsRepository } from './auth/password-resets.repositor
 import { createPasswordHasher } from './auth/passwords';
 import { type AuthLimits, createAuthLimiters } from './auth/auth-limits';
 import { loadSession } from './auth/session-middleware';
+import { createSignUpRequestsRepository } from './auth/sign-up-requests.repository';
+import { createSignUpUsecases } from './auth/sign-up.usecases';
 import type { AppConfig } from './config';
 import type { Db } from './db/client';
 import { devRoutes } from './dev/dev.routes';
@@ -50,13 +52,24 @@ export function createApp(deps: AppDeps): Express {
     deps.report ?? ((error) => logger.error({ err: loggableError(error) }, 'unexpected error'));
   const lucia = createLucia({ db, secureCookies: config.secureCookies });
   const users = createUsersRepository({ db });
+  const hasher = createPasswordHasher();
+  const limiters = createAuthLimiters(db, deps.limits);
   const auth = createAuthUsecases({
     users,
     resets: createPasswordResetsRepository({ db }),
     lucia,
-    hasher: createPasswordHasher(),
+    hasher,
     mailer,
-    limiters: createAuthLimiters(db, deps.limits),
+    limiters,
+    report,
+  });
+  const signUp = createSignUpUsecases({
+    users,
+    requests: createSignUpRequestsRepository({ db }),
+    lucia,
+    hasher,
+    mailer,
+    limiters,
     report,
   });
   const sheets = createSheetsUsecases({ db, sheets: createSheetsRepository({ db }) });
@@ -80,7 +93,7 @@ export function createApp(deps: AppDeps): Express {
   // Before the session lookup: health must answer 503, not fail, when the database is down.
   api.use('/health', healthRoutes({ db }));
   api.use(loadSession(lucia));
-  api.use('/auth', authRoutes({ auth, appOrigin: config.appOrigin }));
+  api.use('/auth', authRoutes({ auth, signUp, appOrigin: config.appOrigin }));
   api.use('/account', accountRoutes({ auth }));
   api.use('/admin', adminRoutes({ admin }));
   api.use('/sheets', sheetsRoutes({ sheets }));

@@ -17,6 +17,8 @@ export const AUTH_LIMITS = {
   signUpPerAddress: { limit: 5, windowMs: 60 * MINUTE },
   resetRequestsPerAddress: { limit: 10, windowMs: 60 * MINUTE },
   resetMailsPerAccount: { limit: 3, windowMs: 60 * MINUTE },
+  /** Confirmation or notice mails per address, so sign-up cannot be used to flood a mailbox. */
+  signUpMailsPerAddress: { limit: 3, windowMs: 60 * MINUTE },
 } satisfies Record<string, RateLimit>;
 
 export type AuthLimits = { [Name in keyof typeof AUTH_LIMITS]: RateLimit };
@@ -31,6 +33,7 @@ export function createAuthLimiters(db: DbExecutor, overrides: Partial<AuthLimits
     signUpPerAddress: make('signUpPerAddress'),
     resetRequestsPerAddress: make('resetRequestsPerAddress'),
     resetMailsPerAccount: make('resetMailsPerAccount'),
+    signUpMailsPerAddress: make('signUpMailsPerAddress'),
   };
 }
 

@@ -36,6 +36,14 @@ export const badResetToken = () =>
     { path: ['token'] },
   );
 
+export const badSignUpToken = () =>
+  new AppError(
+    400,
+    API_ERROR_CODES.badSignUpToken,
+    'This confirmation link is invalid, expired or already used. Sign up again, or sign in.',
+    { path: ['token'] },
+  );
+
 export const wrongPassword = () =>
   new AppError(400, API_ERROR_CODES.wrongPassword, 'The current password is not correct.', {
     path: ['currentPassword'],

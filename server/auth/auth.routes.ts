@@ -4,16 +4,20 @@ import {
   passwordResetConfirmSchema,
   passwordResetRequestSchema,
   signInRequestSchema,
+  type SignUpAccepted,
+  signUpConfirmSchema,
   signUpRequestSchema,
   updateAccountRequestSchema,
 } from '@shared/api/auth';
 import { parseOr400 } from '../http/validate';
 import type { AuthUsecases } from './auth.usecases';
+import type { SignUpUsecases } from './sign-up.usecases';
 import { toCurrentUser } from './auth.usecases';
 import { currentSession, currentUser, requireSignedIn } from './session-middleware';
 
 export interface AuthRoutesDeps {
   auth: AuthUsecases;
+  signUp: SignUpUsecases;
   /** Where reset links point: configuration only, never the request's Host. */
   appOrigin: string;
 }
@@ -24,12 +28,18 @@ function clientAddress(req: Request): string {
 }
 
 /** /api/auth/*: sign-up, sign-in, sign-out, the current user, password reset. */
-export function authRoutes({ auth, appOrigin }: AuthRoutesDeps): Router {
+export function authRoutes({ auth, signUp, appOrigin }: AuthRoutesDeps): Router {
   const router = Router();
 
   router.post('/sign-up', async (req, res) => {
     const input = parseOr400(signUpRequestSchema, req.body);
-    const { user, cookie } = await auth.signUp(input, clientAddress(req));
+    const body: SignUpAccepted = { message: await signUp.request(input, clientAddress(req), appOrigin) };
+    res.status(202).json(body);
+  });
+
+  router.post('/sign-up/confirm', async (req, res) => {
+    const input = parseOr400(signUpConfirmSchema, req.body);
+    const { user, cookie } = await signUp.confirm(input);
     res.appendHeader('Set-Cookie', cookie).status(201).json(user);
   });
 

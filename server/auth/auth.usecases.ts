@@ -1,19 +1,17 @@
 import { createHash, randomBytes } from 'node:crypto';
-import { generateIdFromEntropySize, type User } from 'lucia';
+import type { User } from 'lucia';
 import type {
   ChangePasswordRequest,
   CurrentUser,
   PasswordResetConfirm,
   SignInRequest,
-  SignUpRequest,
   UpdateAccountRequest,
 } from '@shared/api/auth';
-import { isUniqueViolation } from '../db/client';
 import type { Mailer } from '../mail/mailer';
 import { passwordResetMail } from '../mail/reset-mail';
 import type { UsersRepository } from '../users/users.repository';
 import type { UserRow } from '../users/users.table';
-import { badCredentials, badResetToken, emailTaken, rateLimited, wrongPassword } from './auth.errors';
+import { badCredentials, badResetToken, rateLimited, wrongPassword } from './auth.errors';
 import type { AuthLucia } from './lucia';
 import type { PasswordResetsRepository } from './password-resets.repository';
 import type { PasswordHasher } from './passwords';
@@ -63,28 +61,6 @@ export function createAuthUsecases(deps: AuthUsecaseDeps) {
   }
 
   return {
-    async signUp(
-      input: SignUpRequest,
-      clientAddress: string,
-      role: UserRow['role'] = 'member',
-    ): Promise<SignedIn> {
-      enforce(await limiters.signUpPerAddress.consume(clientAddress), 'sign-up attempts');
-      if (await users.findByEmail(input.email)) throw emailTaken();
-      const passwordHash = await hasher.hash(input.password);
-      const user = await users
-        .insert({
-          id: generateIdFromEntropySize(10),
-          email: input.email,
-          name: input.name,
-          passwordHash,
-          role,
-        })
-        .catch((error: unknown) => {
-          throw isUniqueViolation(error) ? emailTaken() : error;
-        });
-      return startSession(user);
-    },
-
     /**
      * Three limits, checked in order and each counted only when the ones before allow the
      * attempt: per client address (spraying many accounts), per address and account (guessing

@@ -3,4 +3,5 @@ export * from '../users/users.table';
 export * from '../auth/sessions.table';
 export * from '../auth/password-resets.table';
 export * from '../auth/rate-limits.table';
+export * from '../auth/sign-up-requests.table';
 export * from '../sheets/sheets.table';

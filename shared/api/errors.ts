@@ -35,6 +35,7 @@ export const API_ERROR_CODES = {
   emailTaken: 'auth.email_taken',
   rateLimited: 'auth.rate_limited',
   badResetToken: 'auth.bad_reset_token',
+  badSignUpToken: 'auth.bad_sign_up_token',
   wrongPassword: 'auth.wrong_password',
   forbidden: 'auth.forbidden',
   lastAdmin: 'admin.last_admin',

@@ -1,6 +1,14 @@
 import { sql } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createTestContext, DEFAULT_PASSWORD, signUp, type TestContext, uniqueEmail } from './helpers';
+import {
+  createTestContext,
+  DEFAULT_PASSWORD,
+  MAIL_SUBJECTS,
+  signUp,
+  type TestContext,
+  uniqueEmail,
+  waitForMail,
+} from './helpers';
 
 let context: TestContext;
 beforeAll(async () => {
@@ -19,12 +27,19 @@ function sessionCookie(setCookie: string[] | string | undefined): string | undef
 }
 
 describe('sign-up', () => {
-  it('creates a member, answers 201 with the user and sets an httpOnly SameSite=Lax session cookie', async () => {
+  it('creates a member on confirmation, answering 201 with the user and an httpOnly SameSite=Lax session cookie', async () => {
     const email = uniqueEmail('Estuary.Modeller');
-    const response = await context
-      .agent()
+    const agent = context.agent();
+    const started = await agent
       .post('/api/auth/sign-up')
       .send({ email, name: 'Rhea Castell', password: DEFAULT_PASSWORD });
+    expect(started.status).toBe(202);
+    const link = (await waitForMail(context.mailFake, email.toLowerCase(), MAIL_SUBJECTS.confirmSignUp)).text
+      .split(/\s+/)
+      .find((word) => word.includes('/confirm-sign-up?token='))!;
+    const response = await agent
+      .post('/api/auth/sign-up/confirm')
+      .send({ token: new URL(link).searchParams.get('token') });
     expect(response.status).toBe(201);
     expect(response.body).toEqual({
       id: expect.any(String),
@@ -61,14 +76,19 @@ describe('sign-up', () => {
     expect(response.body.error.message).toMatch(/10 characters/);
   });
 
-  it('rejects a second account for the same e-mail in any letter case with 409', async () => {
+  it('never makes a second account for the same e-mail in any letter case', async () => {
     const user = await signUp(context);
     const response = await context
       .agent()
       .post('/api/auth/sign-up')
       .send({ email: user.email.toUpperCase(), name: 'Copy Cat', password: DEFAULT_PASSWORD });
-    expect(response.status).toBe(409);
-    expect(response.body.error.code).toBe('auth.email_taken');
+    expect(response.status).toBe(202);
+    const notice = await waitForMail(context.mailFake, user.email, MAIL_SUBJECTS.alreadyRegistered);
+    expect(notice.text).not.toContain('/confirm-sign-up');
+    const rows = await context.database.db.execute(
+      sql`select count(*)::int as n from users where lower(email) = ${user.email}`,
+    );
+    expect(rows.rows).toEqual([{ n: 1 }]);
   });
 });
 

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { appConfigFromEnv, loadEnv } from '../../server/config';
-import { createTestContext, DEFAULT_PASSWORD, type TestContext, uniqueEmail } from './helpers';
+import { createTestContext, signUp, type TestContext } from './helpers';
 
 describe('loadEnv', () => {
   it('fills the documented defaults', () => {
@@ -59,11 +59,12 @@ describe('secure cookies', () => {
   });
 
   it('marks the session cookie Secure when configured for production', async () => {
+    const user = await signUp(context, { name: 'Secure Cookie' });
     const response = await context
       .agent()
-      .post('/api/auth/sign-up')
-      .send({ email: uniqueEmail(), name: 'Secure Cookie', password: DEFAULT_PASSWORD });
-    expect(response.status).toBe(201);
+      .post('/api/auth/sign-in')
+      .send({ email: user.email, password: user.password });
+    expect(response.status).toBe(200);
     const cookies = ([] as string[]).concat(response.headers['set-cookie'] ?? []);
     expect(cookies.find((cookie) => cookie.startsWith('meander_session='))).toMatch(/;\s*Secure/i);
   });

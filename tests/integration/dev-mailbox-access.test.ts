@@ -1,5 +1,12 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createTestContext, signUp, type SignedUpUser, type TestContext, waitForMail } from './helpers';
+import {
+  createTestContext,
+  signUp,
+  type SignedUpUser,
+  type TestContext,
+  MAIL_SUBJECTS,
+  waitForMail,
+} from './helpers';
 
 let context: TestContext;
 let admin: SignedUpUser;
@@ -17,8 +24,8 @@ beforeAll(async () => {
   other = await signUp(context, { name: 'Other Member' });
   for (const user of [member, other])
     await context.agent().post('/api/auth/password-reset').send({ email: user.email });
-  await waitForMail(context.mailFake, member.email);
-  await waitForMail(context.mailFake, other.email);
+  await waitForMail(context.mailFake, member.email, MAIL_SUBJECTS.reset);
+  await waitForMail(context.mailFake, other.email, MAIL_SUBJECTS.reset);
 });
 afterAll(async () => {
   await context.close();

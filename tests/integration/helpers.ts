@@ -129,7 +129,10 @@ export interface SignedUpUser {
   password: string;
 }
 
-/** Signs up a new member through the API and returns a client holding its session. */
+/**
+ * Signs up a new member through the API as a person would: the sign-up, the mailed link, the
+ * confirmation; returns a client holding the new session.
+ */
 export async function signUp(
   context: TestContext,
   fields: { email?: string; name?: string; password?: string } = {},
@@ -139,18 +142,36 @@ export async function signUp(
   const name = fields.name ?? 'Hydrology Tester';
   const password = fields.password ?? DEFAULT_PASSWORD;
   const response = await agent.post('/api/auth/sign-up').send({ email, name, password });
-  if (response.status !== 201)
+  if (response.status !== 202)
     throw new Error(`sign-up failed: ${response.status} ${JSON.stringify(response.body)}`);
-  return { agent, id: response.body.id as string, email: email.toLowerCase(), name, password };
+  const mail = await waitForMail(context.mailFake, email.toLowerCase(), MAIL_SUBJECTS.confirmSignUp);
+  const link = mail.text.split(/\s+/).find((word) => word.includes('/confirm-sign-up?token='));
+  if (!link) throw new Error(`no confirmation link in:\n${mail.text}`);
+  const confirmed = await agent
+    .post('/api/auth/sign-up/confirm')
+    .send({ token: new URL(link).searchParams.get('token') });
+  if (confirmed.status !== 201)
+    throw new Error(`sign-up confirmation failed: ${confirmed.status} ${JSON.stringify(confirmed.body)}`);
+  return { agent, id: confirmed.body.id as string, email: email.toLowerCase(), name, password };
 }
 
-/** Waits for the mail fake to hold a message to `to` (the app sends reset mail after answering). */
-export async function waitForMail(mailFake: MailFake, to: string, timeoutMs = 5000) {
+/** Subjects of the mails the tests wait for. */
+export const MAIL_SUBJECTS = {
+  reset: /new Meander password/,
+  confirmSignUp: /Confirm your new Meander account/,
+  alreadyRegistered: /tried to sign up with your address/,
+} as const;
+
+/**
+ * Waits for the mail fake to hold a message to `to` whose subject matches (the app sends its mail
+ * after answering); the newest such message.
+ */
+export async function waitForMail(mailFake: MailFake, to: string, subject: RegExp, timeoutMs = 5000) {
   const started = Date.now();
   for (;;) {
     const found = mailFake
       .messages()
-      .filter((message) => message.to.includes(to))
+      .filter((message) => message.to.includes(to) && subject.test(message.subject))
       .at(-1);
     if (found) return found;
     if (Date.now() - started > timeoutMs) throw new Error(`no mail to ${to} within ${timeoutMs} ms`);

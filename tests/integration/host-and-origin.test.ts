@@ -8,6 +8,7 @@ import {
   TEST_ORIGIN,
   type TestContext,
   uniqueEmail,
+  MAIL_SUBJECTS,
   waitForMail,
 } from './helpers';
 
@@ -28,7 +29,7 @@ describe('reset links', () => {
       .set('X-Forwarded-Host', 'attacker.example')
       .post('/api/auth/password-reset')
       .send({ email: user.email });
-    const mail = await waitForMail(context.mailFake, user.email);
+    const mail = await waitForMail(context.mailFake, user.email, MAIL_SUBJECTS.reset);
     expect(mail.text).toContain(`${TEST_ORIGIN}/reset-password?token=`);
     expect(mail.text).not.toContain('attacker.example');
   });
@@ -88,6 +89,6 @@ describe('Origin check', () => {
   });
 
   it('accepts the configured origin exactly', async () => {
-    expect((await signUpWithOrigin(TEST_ORIGIN)).status).toBe(201);
+    expect((await signUpWithOrigin(TEST_ORIGIN)).status).toBe(202);
   });
 });

@@ -33,6 +33,7 @@ export default async function setup(project: TestProject) {
       signUpPerAddress: lifted,
       resetRequestsPerAddress: lifted,
       resetMailsPerAccount: lifted,
+      signUpMailsPerAddress: lifted,
     },
   });
   project.provide('appUrl', server.url);

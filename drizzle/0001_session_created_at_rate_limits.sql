@@ -1,8 +1,0 @@
-CREATE TABLE "rate_limits" (
-	"key" text PRIMARY KEY NOT NULL,
-	"count" integer NOT NULL,
-	"resets_at" timestamp with time zone NOT NULL
-);
---> statement-breakpoint
-ALTER TABLE "sessions" ADD COLUMN "created_at" timestamp with time zone DEFAULT now() NOT NULL;--> statement-breakpoint
-CREATE INDEX "rate_limits_resets_at_idx" ON "rate_limits" USING btree ("resets_at");
