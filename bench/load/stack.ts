@@ -21,7 +21,7 @@ export interface LoadStack {
  * site, and the app on 127.0.0.1 as `npm start` builds it (request log included, written to
  * /dev/null); sign-in limits lifted so the benchmark's own sign-ins are not refused.
  */
-export async function startLoadStack(port: number): Promise<LoadStack> {
+export async function startLoadStack(port: number, clientDir?: string): Promise<LoadStack> {
   const root = await mkdtemp(path.join(os.tmpdir(), 'meander-load-'));
   await chmod(root, 0o755);
   let postgres: LocalPostgres | undefined;
@@ -37,7 +37,7 @@ export async function startLoadStack(port: number): Promise<LoadStack> {
       {
         db: database.db,
         mailer: { send: async () => undefined },
-        config: { nodeEnv: 'production', secureCookies: false },
+        config: { nodeEnv: 'production', secureCookies: false, clientDir },
         limits: lifted,
         logger: pino({ level: 'info' }, pino.destination('/dev/null')),
       },

@@ -8,16 +8,6 @@ export const unauthenticated = () =>
 export const badCredentials = () =>
   new AppError(401, API_ERROR_CODES.badCredentials, 'That e-mail and password do not match an account.');
 
-export const emailTaken = () =>
-  new AppError(
-    409,
-    API_ERROR_CODES.emailTaken,
-    'An account with this e-mail already exists. Sign in, or reset its password.',
-    {
-      path: ['email'],
-    },
-  );
-
 /** Says when the lock ends, in minutes, and in Retry-After. */
 export const rateLimited = (retryAfterSeconds: number, what = 'attempts') =>
   new AppError(

@@ -32,7 +32,6 @@ export const API_ERROR_CODES = {
   badOrigin: 'auth.bad_origin',
   unauthenticated: 'auth.unauthenticated',
   badCredentials: 'auth.bad_credentials',
-  emailTaken: 'auth.email_taken',
   rateLimited: 'auth.rate_limited',
   badResetToken: 'auth.bad_reset_token',
   badSignUpToken: 'auth.bad_sign_up_token',

@@ -18,6 +18,12 @@ export const routes: RouteRecordRaw[] = [
     meta: { title: 'Sign up', public: true, guestOnly: true },
   },
   {
+    path: '/confirm-sign-up',
+    name: 'confirm-sign-up',
+    component: () => import('@/views/ConfirmSignUpView.vue'),
+    meta: { title: 'Finish signing up', public: true },
+  },
+  {
     path: '/forgot-password',
     name: 'forgot-password',
     component: () => import('@/views/ForgotPasswordView.vue'),
