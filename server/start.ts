@@ -28,7 +28,9 @@ async function main() {
     throw error;
   });
   if (services.mailFake)
-    log(`mail goes to the local fake on port ${services.mailFake.port}; read it at ${server.url}/mailbox`);
+    log(
+      `mail goes to the local fake on port ${services.mailFake.port}; the site admin reads it at ${server.url}/mailbox`,
+    );
   log(`Meander is running at ${server.url}`);
   onShutdown(async () => {
     await server.close();
