@@ -8,7 +8,7 @@ import { median } from './median';
 import { prepareReferences, type Reference } from './references';
 
 /**
- * `npm run bench [-- --case NAME] [--rounds N] [--threads N]`: one JSON line per case and
+ * `npm run bench:engine [-- --case NAME] [--rounds N] [--threads N]`: one JSON line per case and
  * reference (medians over rounds), then a ratio line. Engine cases and the reference programs
  * run alternately in every round, so a machine that slows down mid-run slows both.
  */

@@ -8,17 +8,22 @@ import { createAuthUsecases } from './auth/auth.usecases';
 import { createLucia } from './auth/lucia';
 import { createPasswordResetsRepository } from './auth/password-resets.repository';
 import { createPasswordHasher } from './auth/passwords';
-import { createRateLimiter, type RateLimiter, SIGN_IN_LIMIT } from './auth/rate-limiter';
+import { type AuthLimits, createAuthLimiters } from './auth/auth-limits';
 import { loadSession } from './auth/session-middleware';
+import { createSignUpRequestsRepository } from './auth/sign-up-requests.repository';
+import { createSignUpUsecases } from './auth/sign-up.usecases';
 import type { AppConfig } from './config';
 import type { Db } from './db/client';
 import { createTransact } from './db/transact';
 import { devRoutes } from './dev/dev.routes';
-import { requireSameOrigin } from './http/csrf';
 import { errorMiddleware, type ErrorReporter } from './http/error-middleware';
 import { healthRoutes } from './http/health.routes';
 import { routeNotFound } from './http/http.errors';
-import { securityHeaders } from './http/security-headers';
+import { allowedOrigins, requireKnownHost, requireSameOrigin } from './http/origin';
+import { jsonBody, rejectMalformedUrl } from './http/request-shape';
+import { requestLog } from './http/request-log';
+import { noStore, securityHeaders } from './http/security-headers';
+import { type Logger, loggableError, silentLogger } from './logger';
 import type { MailboxReader } from './mail/mail-fake';
 import type { Mailer } from './mail/mailer';
 import { createSheetFeatures, sheetFeatureRoutes } from './sheets/sheet-features';
@@ -30,31 +35,40 @@ export interface AppDeps {
   /** The in-process mail fake, for the development mailbox route. */
   mailbox?: MailboxReader;
   config: AppConfig;
-  /** Sign-in attempts per client address and e-mail; 10 per 15 minutes by default. */
-  signInLimiter?: RateLimiter;
-  /** Where unexpected errors go; stderr by default. */
+  /** Sign-in, sign-up and reset limits (counted in PostgreSQL); AUTH_LIMITS by default. */
+  limits?: Partial<AuthLimits>;
+  /** Request lines and unexpected errors; silent by default (start.ts and dev.ts pass one). */
+  logger?: Logger;
+  /** Where unexpected errors go; the logger by default. */
   report?: ErrorReporter;
 }
-
-const defaultReport: ErrorReporter = (error) => {
-  process.stderr.write(
-    `[meander] ${error instanceof Error ? (error.stack ?? error.message) : String(error)}\n`,
-  );
-};
 
 /** Builds the Express app from its dependencies; listening is the caller's business. */
 export function createApp(deps: AppDeps): Express {
   const { db, mailer, config } = deps;
-  const report = deps.report ?? defaultReport;
+  const logger = deps.logger ?? silentLogger;
+  const report: ErrorReporter =
+    deps.report ?? ((error) => logger.error({ err: loggableError(error) }, 'unexpected error'));
   const lucia = createLucia({ db, secureCookies: config.secureCookies });
   const users = createUsersRepository({ db });
+  const hasher = createPasswordHasher();
+  const limiters = createAuthLimiters(db, deps.limits);
   const auth = createAuthUsecases({
     users,
     resets: createPasswordResetsRepository({ db }),
     lucia,
-    hasher: createPasswordHasher(),
+    hasher,
     mailer,
-    signInLimiter: deps.signInLimiter ?? createRateLimiter(SIGN_IN_LIMIT),
+    limiters,
+    report,
+  });
+  const signUp = createSignUpUsecases({
+    users,
+    requests: createSignUpRequestsRepository({ db }),
+    lucia,
+    hasher,
+    mailer,
+    limiters,
     report,
   });
   const sheetFeatures = createSheetFeatures({ db, mailer, report });
@@ -63,16 +77,25 @@ export function createApp(deps: AppDeps): Express {
     transact: createTransact(db, (tx) => createUsersRepository({ db: tx })),
   });
 
+  const origins = allowedOrigins(config.appOrigin);
+
   const app = express();
   app.disable('x-powered-by');
+  // Which proxies may name the client in X-Forwarded-For (TRUST_PROXY); none by default.
+  app.set('trust proxy', config.trustProxy ?? false);
+  app.use(requestLog(logger));
   app.use(securityHeaders());
+  app.use(requireKnownHost(origins));
+  app.use(rejectMalformedUrl());
 
   const api = express.Router();
-  api.use(express.json({ limit: '2mb' }));
-  api.use(requireSameOrigin(config.appOrigin));
-  api.use(loadSession(lucia));
+  api.use(noStore());
+  api.use(jsonBody({ limit: '2mb' }));
+  api.use(requireSameOrigin(origins));
+  // Before the session lookup: health must answer 503, not fail, when the database is down.
   api.use('/health', healthRoutes({ db }));
-  api.use('/auth', authRoutes({ auth, appOrigin: config.appOrigin }));
+  api.use(loadSession(lucia));
+  api.use('/auth', authRoutes({ auth, signUp, appOrigin: config.appOrigin }));
   api.use('/account', accountRoutes({ auth }));
   api.use('/admin', adminRoutes({ admin }));
   api.use(sheetFeatureRoutes(sheetFeatures, { appOrigin: config.appOrigin }));

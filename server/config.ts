@@ -1,5 +1,6 @@
 import path from 'node:path';
 import { z } from 'zod';
+import { LOG_LEVELS } from './logger';
 
 const port = z.coerce.number().int().min(1).max(65_535);
 const flag = z.enum(['true', 'false', '1', '0']).transform((value) => value === 'true' || value === '1');
@@ -16,7 +17,10 @@ export const envSchema = z.object({
     .url({ protocol: /^postgres(ql)?$/, error: 'DATABASE_URL must be a postgres:// URL' })
     .optional(),
   PGPORT_MEANDER: port.default(54329),
-  /** The public origin (scheme://host:port); reset links and the Origin check use it. */
+  /**
+   * The public origin (scheme://host:port): reset links, the Origin check and the Host check use
+   * it, never a request's headers. Defaults to http://HOST:PORT of the server itself.
+   */
   APP_ORIGIN: z
     .url({
       protocol: /^https?$/,
@@ -29,6 +33,21 @@ export const envSchema = z.object({
   MAIL_FROM: z.string().min(3).default('Meander <no-reply@meander.example.test>'),
   /** Secure cookies; defaults to on in production. */
   SESSION_SECURE: flag.optional(),
+  /** Structured logs (JSON lines on stdout) from this level up. */
+  LOG_LEVEL: z.enum(LOG_LEVELS).default('info'),
+  /**
+   * Express's `trust proxy`: which proxies may name the client in X-Forwarded-For (rate limits
+   * and logs use it). `false` (default), `true`, a hop count, or addresses and subnets such as
+   * `loopback` or `10.0.0.0/8, 10.1.2.3`.
+   */
+  TRUST_PROXY: z
+    .string()
+    .trim()
+    .min(1)
+    .transform((value): boolean | number | string =>
+      value === 'true' ? true : value === 'false' ? false : /^\d+$/.test(value) ? Number(value) : value,
+    )
+    .optional(),
 });
 
 export type Env = z.infer<typeof envSchema>;
@@ -36,8 +55,11 @@ export type Env = z.infer<typeof envSchema>;
 /** What createApp needs, independent of where it came from. */
 export interface AppConfig {
   nodeEnv: Env['NODE_ENV'];
-  appOrigin?: string;
+  /** scheme://host[:port], as URL.origin writes it. */
+  appOrigin: string;
   secureCookies: boolean;
+  /** Express's `trust proxy` setting; false unless TRUST_PROXY says otherwise. */
+  trustProxy?: boolean | number | string;
   /** Built client to serve (dist/); omitted in tests and in `npm run dev`. */
   clientDir?: string;
 }
@@ -52,11 +74,18 @@ export function loadEnv(source: NodeJS.ProcessEnv = process.env): Env {
   throw new Error(`The environment is not valid:\n${problems}`);
 }
 
+/** http://HOST:PORT; a wildcard address is reached as localhost (set APP_ORIGIN on a public server). */
+export function defaultOrigin(host: string, port: number): string {
+  const reachable = host === '0.0.0.0' || host === '::' ? 'localhost' : host;
+  return new URL(`http://${reachable.includes(':') ? `[${reachable}]` : reachable}:${port}`).origin;
+}
+
 export function appConfigFromEnv(env: Env, clientDir?: string): AppConfig {
   return {
     nodeEnv: env.NODE_ENV,
-    appOrigin: env.APP_ORIGIN,
+    appOrigin: env.APP_ORIGIN ?? defaultOrigin(env.HOST, env.PORT),
     secureCookies: env.SESSION_SECURE ?? env.NODE_ENV === 'production',
+    trustProxy: env.TRUST_PROXY ?? false,
     clientDir: clientDir ? path.resolve(clientDir) : undefined,
   };
 }

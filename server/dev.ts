@@ -1,10 +1,13 @@
 import { spawn } from 'node:child_process';
 import { appConfigFromEnv, loadEnv } from './config';
 import { listen } from './index';
+import { createLogger } from './logger';
 import { onShutdown, startServices } from './services';
 
 /** `npm run dev`: local services and the API on API_PORT, then Vite's dev server, which proxies /api here. */
 const log = (line: string) => process.stdout.write(`[meander] ${line}\n`);
+/** Vite's dev server address (its default port); set APP_ORIGIN when Vite runs elsewhere. */
+const VITE_ORIGIN = 'http://localhost:5173';
 
 async function main() {
   const env = loadEnv({ NODE_ENV: 'development', ...process.env });
@@ -19,7 +22,9 @@ async function main() {
       db: services.database.db,
       mailer: services.mailer,
       mailbox: services.mailFake,
-      config: appConfigFromEnv(env),
+      logger: createLogger(env.LOG_LEVEL),
+      // The browser talks to Vite's dev server, which passes /api and its Host on to us.
+      config: appConfigFromEnv({ ...env, APP_ORIGIN: env.APP_ORIGIN ?? VITE_ORIGIN }),
     },
     { port: env.API_PORT, host: '127.0.0.1' },
   ).catch(async (error: unknown) => {

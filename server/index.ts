@@ -1,6 +1,7 @@
-import type { Server } from 'node:http';
+import { createServer, type Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { type AppDeps, createApp } from './app';
+import { type AppConfig, defaultOrigin } from './config';
 
 export interface ListeningServer {
   server: Server;
@@ -9,20 +10,33 @@ export interface ListeningServer {
   close(): Promise<void>;
 }
 
-/** Builds the app from ready dependencies and listens; close() stops taking connections and waits. */
+/** The app's dependencies; without an appOrigin, the origin is the address this server listens on. */
+export type ListenDeps = Omit<AppDeps, 'config'> & {
+  config: Omit<AppConfig, 'appOrigin'> & { appOrigin?: string };
+};
+
+/**
+ * Listens, then builds the app (a free port is known only once bound, and the app's origin may
+ * depend on it); close() stops taking connections and waits.
+ */
 export async function listen(
-  deps: AppDeps,
+  deps: ListenDeps,
   { port, host = '127.0.0.1' }: { port: number; host?: string },
 ): Promise<ListeningServer> {
-  const app = createApp(deps);
-  const server = await new Promise<Server>((resolve, reject) => {
-    const started = app.listen(port, host, (error?: Error) => (error ? reject(error) : resolve(started)));
+  const server = createServer();
+  await new Promise<void>((resolve, reject) => {
+    server.once('error', reject);
+    server.listen(port, host, () => {
+      server.off('error', reject);
+      resolve();
+    });
   });
-  const address = server.address() as AddressInfo;
-  const shownHost = host === '0.0.0.0' || host === '::' ? 'localhost' : host;
+  const url = defaultOrigin(host, (server.address() as AddressInfo).port);
+  const app = createApp({ ...deps, config: { ...deps.config, appOrigin: deps.config.appOrigin ?? url } });
+  server.on('request', app);
   return {
     server,
-    url: `http://${shownHost.includes(':') ? `[${shownHost}]` : shownHost}:${address.port}`,
+    url,
     close: () =>
       new Promise<void>((resolve, reject) => {
         server.close((error) => (error ? reject(error) : resolve()));

@@ -1,5 +1,6 @@
 import { appConfigFromEnv, loadEnv } from './config';
 import { listen } from './index';
+import { createLogger } from './logger';
 import { onShutdown, startServices } from './services';
 
 /** `npm start`: local services, the API and the built client from dist/ on PORT. */
@@ -18,6 +19,7 @@ async function main() {
       db: services.database.db,
       mailer: services.mailer,
       mailbox: services.mailFake,
+      logger: createLogger(env.LOG_LEVEL),
       config: appConfigFromEnv(env, 'dist'),
     },
     { port: env.PORT, host: env.HOST },
@@ -26,7 +28,9 @@ async function main() {
     throw error;
   });
   if (services.mailFake)
-    log(`mail goes to the local fake on port ${services.mailFake.port}; read it at ${server.url}/mailbox`);
+    log(
+      `mail goes to the local fake on port ${services.mailFake.port}; the site admin reads it at ${server.url}/mailbox`,
+    );
   log(`Meander is running at ${server.url}`);
   onShutdown(async () => {
     await server.close();

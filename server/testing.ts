@@ -1,4 +1,4 @@
-import type { RateLimiter } from './auth/rate-limiter';
+import type { AuthLimits } from './auth/auth-limits';
 import type { AppConfig } from './config';
 import { connectDatabase } from './db/client';
 import { migrate } from './db/migrate';
@@ -18,7 +18,7 @@ export interface TestServerOptions {
   /** The mail fake's reader, for /api/dev/mailbox; defaults to the one shared in this process. */
   mailbox?: MailboxReader;
   config?: Partial<AppConfig>;
-  signInLimiter?: RateLimiter;
+  limits?: Partial<AuthLimits>;
 }
 
 export interface TestServer {
@@ -58,7 +58,7 @@ export async function startTestServer(options: TestServerOptions): Promise<TestS
         mailer,
         mailbox: options.mailbox ?? sharedMailbox(),
         config: { nodeEnv: 'test', secureCookies: false, clientDir: options.clientDir, ...options.config },
-        signInLimiter: options.signInLimiter,
+        limits: options.limits,
       },
       { port: options.port ?? 0, host: '127.0.0.1' },
     );

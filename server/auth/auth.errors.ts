@@ -8,21 +8,12 @@ export const unauthenticated = () =>
 export const badCredentials = () =>
   new AppError(401, API_ERROR_CODES.badCredentials, 'That e-mail and password do not match an account.');
 
-export const emailTaken = () =>
-  new AppError(
-    409,
-    API_ERROR_CODES.emailTaken,
-    'An account with this e-mail already exists. Sign in, or reset its password.',
-    {
-      path: ['email'],
-    },
-  );
-
-export const rateLimited = (retryAfterSeconds: number) =>
+/** Says when the lock ends, in minutes, and in Retry-After. */
+export const rateLimited = (retryAfterSeconds: number, what = 'attempts') =>
   new AppError(
     429,
     API_ERROR_CODES.rateLimited,
-    `Too many sign-in attempts. Try again in ${Math.ceil(retryAfterSeconds / 60)} minute(s).`,
+    `Too many ${what}. Try again in ${Math.ceil(retryAfterSeconds / 60)} minute(s).`,
     { retryAfterSeconds },
     { 'Retry-After': String(retryAfterSeconds) },
   );
@@ -32,6 +23,14 @@ export const badResetToken = () =>
     400,
     API_ERROR_CODES.badResetToken,
     'This reset link is invalid, expired or already used. Ask for a new one.',
+    { path: ['token'] },
+  );
+
+export const badSignUpToken = () =>
+  new AppError(
+    400,
+    API_ERROR_CODES.badSignUpToken,
+    'This confirmation link is invalid, expired or already used. Sign up again, or sign in.',
     { path: ['token'] },
   );
 

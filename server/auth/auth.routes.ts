@@ -1,40 +1,51 @@
-import { Router, type Request } from 'express';
+import { type Request, Router } from 'express';
 import {
   changePasswordRequestSchema,
   passwordResetConfirmSchema,
   passwordResetRequestSchema,
   signInRequestSchema,
+  type SignUpAccepted,
+  signUpConfirmSchema,
   signUpRequestSchema,
   updateAccountRequestSchema,
 } from '@shared/api/auth';
 import { parseOr400 } from '../http/validate';
 import type { AuthUsecases } from './auth.usecases';
+import type { SignUpUsecases } from './sign-up.usecases';
 import { toCurrentUser } from './auth.usecases';
 import { currentSession, currentUser, requireSignedIn } from './session-middleware';
 
 export interface AuthRoutesDeps {
   auth: AuthUsecases;
-  /** Where reset links point; without it, the origin the request came to. */
-  appOrigin?: string;
+  signUp: SignUpUsecases;
+  /** Where reset links point: configuration only, never the request's Host. */
+  appOrigin: string;
 }
 
-function requestOrigin(req: Request, appOrigin?: string): string {
-  return appOrigin ?? `${req.protocol}://${req.get('host') ?? 'localhost'}`;
+/** The client's address: the socket's peer, or X-Forwarded-For only from proxies TRUST_PROXY names. */
+function clientAddress(req: Request): string {
+  return req.ip ?? req.socket.remoteAddress ?? 'unknown';
 }
 
 /** /api/auth/*: sign-up, sign-in, sign-out, the current user, password reset. */
-export function authRoutes({ auth, appOrigin }: AuthRoutesDeps): Router {
+export function authRoutes({ auth, signUp, appOrigin }: AuthRoutesDeps): Router {
   const router = Router();
 
   router.post('/sign-up', async (req, res) => {
     const input = parseOr400(signUpRequestSchema, req.body);
-    const { user, cookie } = await auth.signUp(input);
+    const body: SignUpAccepted = { message: await signUp.request(input, clientAddress(req), appOrigin) };
+    res.status(202).json(body);
+  });
+
+  router.post('/sign-up/confirm', async (req, res) => {
+    const input = parseOr400(signUpConfirmSchema, req.body);
+    const { user, cookie } = await signUp.confirm(input);
     res.appendHeader('Set-Cookie', cookie).status(201).json(user);
   });
 
   router.post('/sign-in', async (req, res) => {
     const input = parseOr400(signInRequestSchema, req.body);
-    const { user, cookie } = await auth.signIn(input, req.ip ?? 'unknown');
+    const { user, cookie } = await auth.signIn(input, clientAddress(req));
     res.appendHeader('Set-Cookie', cookie).json(user);
   });
 
@@ -48,9 +59,9 @@ export function authRoutes({ auth, appOrigin }: AuthRoutesDeps): Router {
     res.json(toCurrentUser(currentUser(res)));
   });
 
-  router.post('/password-reset', (req, res) => {
+  router.post('/password-reset', async (req, res) => {
     const { email } = parseOr400(passwordResetRequestSchema, req.body);
-    auth.requestPasswordReset(email, requestOrigin(req, appOrigin));
+    await auth.requestPasswordReset(email, clientAddress(req), appOrigin);
     res.status(202).json({ message: 'If an account uses this address, a reset link is on its way.' });
   });
 

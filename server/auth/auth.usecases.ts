@@ -1,23 +1,22 @@
 import { createHash, randomBytes } from 'node:crypto';
-import { generateIdFromEntropySize, type User } from 'lucia';
+import type { User } from 'lucia';
 import type {
   ChangePasswordRequest,
   CurrentUser,
   PasswordResetConfirm,
   SignInRequest,
-  SignUpRequest,
   UpdateAccountRequest,
 } from '@shared/api/auth';
-import { isUniqueViolation } from '../db/client';
 import type { Mailer } from '../mail/mailer';
 import { passwordResetMail } from '../mail/reset-mail';
 import type { UsersRepository } from '../users/users.repository';
 import type { UserRow } from '../users/users.table';
-import { badCredentials, badResetToken, emailTaken, rateLimited, wrongPassword } from './auth.errors';
+import { badCredentials, badResetToken, rateLimited, wrongPassword } from './auth.errors';
 import type { AuthLucia } from './lucia';
 import type { PasswordResetsRepository } from './password-resets.repository';
 import type { PasswordHasher } from './passwords';
-import type { RateLimiter } from './rate-limiter';
+import type { AuthLimiters } from './auth-limits';
+import type { RateLimitDecision } from './rate-limiter';
 
 export const RESET_TOKEN_LIFETIME_MS = 60 * 60 * 1000;
 
@@ -27,7 +26,7 @@ export interface AuthUsecaseDeps {
   lucia: AuthLucia;
   hasher: PasswordHasher;
   mailer: Mailer;
-  signInLimiter: RateLimiter;
+  limiters: AuthLimiters;
   /** Called with errors of work done after the response (sending the reset mail). */
   report: (error: unknown) => void;
   now?: () => Date;
@@ -43,12 +42,17 @@ export function toCurrentUser(user: Pick<UserRow, 'id' | 'email' | 'name' | 'rol
   return { id: user.id, email: user.email, name: user.name, role: user.role };
 }
 
+/** Refuses with 429 when the decision says so. */
+function enforce(decision: RateLimitDecision, action: string): void {
+  if (!decision.allowed) throw rateLimited(decision.retryAfterSeconds, action);
+}
+
 export function hashResetToken(token: string): string {
   return createHash('sha256').update(token).digest('hex');
 }
 
 export function createAuthUsecases(deps: AuthUsecaseDeps) {
-  const { users, resets, lucia, hasher, mailer, signInLimiter, report } = deps;
+  const { users, resets, lucia, hasher, mailer, limiters, report } = deps;
   const now = deps.now ?? (() => new Date());
 
   async function startSession(user: UserRow): Promise<SignedIn> {
@@ -57,33 +61,24 @@ export function createAuthUsecases(deps: AuthUsecaseDeps) {
   }
 
   return {
-    async signUp(input: SignUpRequest, role: UserRow['role'] = 'member'): Promise<SignedIn> {
-      if (await users.findByEmail(input.email)) throw emailTaken();
-      const passwordHash = await hasher.hash(input.password);
-      const user = await users
-        .insert({
-          id: generateIdFromEntropySize(10),
-          email: input.email,
-          name: input.name,
-          passwordHash,
-          role,
-        })
-        .catch((error: unknown) => {
-          throw isUniqueViolation(error) ? emailTaken() : error;
-        });
-      return startSession(user);
-    },
-
+    /**
+     * Three limits, checked in order and each counted only when the ones before allow the
+     * attempt: per client address (spraying many accounts), per address and account (guessing
+     * one), per account from all addresses together (guessing from many; a short window).
+     */
     async signIn(input: SignInRequest, clientAddress: string): Promise<SignedIn> {
-      const limiterKey = `${clientAddress}|${input.email}`;
-      const decision = signInLimiter.consume(limiterKey);
-      if (!decision.allowed) throw rateLimited(decision.retryAfterSeconds);
+      const account = input.email.toLowerCase();
+      const pairKey = `${clientAddress}|${account}`;
+      enforce(await limiters.signInPerAddress.consume(clientAddress), 'sign-in attempts');
+      enforce(await limiters.signInPerAddressAndAccount.consume(pairKey), 'sign-in attempts');
+      enforce(await limiters.signInPerAccount.consume(account), 'sign-in attempts for this account');
       const user = await users.findByEmail(input.email);
       const valid = user
         ? await hasher.verify(user.passwordHash, input.password)
         : await hasher.verifyDummy(input.password);
       if (!user || !valid) throw badCredentials();
-      signInLimiter.reset(limiterKey);
+      await limiters.signInPerAddressAndAccount.reset(pairKey);
+      await limiters.signInPerAccount.reset(account);
       return startSession(user);
     },
 
@@ -93,13 +88,16 @@ export function createAuthUsecases(deps: AuthUsecaseDeps) {
     },
 
     /**
-     * Always answers the same way; the mail goes out after the response, so neither the answer
-     * nor its timing tells whether the account exists.
+     * Limited per client address (429); otherwise always answers the same way. The mail goes out
+     * after the response, at most a few per account and hour, so neither the answer nor its
+     * timing tells whether the account exists.
      */
-    requestPasswordReset(email: string, appOrigin: string): void {
+    async requestPasswordReset(email: string, clientAddress: string, appOrigin: string): Promise<void> {
+      enforce(await limiters.resetRequestsPerAddress.consume(clientAddress), 'reset requests');
       const work = async () => {
         const user = await users.findByEmail(email);
         if (!user) return;
+        if (!(await limiters.resetMailsPerAccount.consume(user.id)).allowed) return;
         const token = randomBytes(32).toString('base64url');
         await resets.insert({
           tokenHash: hashResetToken(token),

@@ -1,45 +1,51 @@
+import { lt, sql } from 'drizzle-orm';
+import type { DbExecutor } from '../db/client';
+import { rateLimits } from './rate-limits.table';
+
 export type RateLimitDecision = { allowed: true } | { allowed: false; retryAfterSeconds: number };
 
-export interface RateLimiterOptions {
+export interface RateLimit {
   /** Attempts allowed per window and key. */
   limit: number;
   windowMs: number;
-  now?: () => number;
 }
 
+/** Expired windows are deleted now and then, by whichever server happens to count. */
+const PRUNE_EVERY = 500;
+
 /**
- * Fixed-window counter per key, in memory (one process serves the API). Passed in, so tests and
- * a future shared store can replace it.
+ * A fixed-window counter per key, kept in PostgreSQL: one upsert per attempt counts it and
+ * reads the window, atomically, so two app servers (or two requests at once) never both slip
+ * under the limit. The database's clock decides, not each server's.
  */
-export function createRateLimiter({ limit, windowMs, now = Date.now }: RateLimiterOptions) {
-  const windows = new Map<string, { count: number; resetsAt: number }>();
-
-  function prune(at: number) {
-    for (const [key, window] of windows) if (window.resetsAt <= at) windows.delete(key);
-  }
-
+export function createRateLimiter({
+  db,
+  name,
+  limit,
+  windowMs,
+}: RateLimit & { db: DbExecutor; name: string }) {
+  let calls = 0;
+  const windowSql = sql`make_interval(secs => ${windowMs / 1000})`;
   return {
-    consume(key: string): RateLimitDecision {
-      const at = now();
-      if (windows.size > 10_000) prune(at);
-      let window = windows.get(key);
-      if (!window || window.resetsAt <= at) {
-        window = { count: 0, resetsAt: at + windowMs };
-        windows.set(key, window);
-      }
-      if (window.count >= limit) {
-        return { allowed: false, retryAfterSeconds: Math.max(1, Math.ceil((window.resetsAt - at) / 1000)) };
-      }
-      window.count += 1;
-      return { allowed: true };
+    async consume(key: string): Promise<RateLimitDecision> {
+      calls += 1;
+      if (calls % PRUNE_EVERY === 0) await db.delete(rateLimits).where(lt(rateLimits.resetsAt, sql`now()`));
+      const result = await db.execute<{ count: number; retry_ms: number }>(sql`
+        insert into ${rateLimits} (key, count, resets_at)
+        values (${`${name}:${key}`}, 1, now() + ${windowSql})
+        on conflict (key) do update set
+          count = case when ${rateLimits}.resets_at <= now() then 1 else ${rateLimits}.count + 1 end,
+          resets_at = case when ${rateLimits}.resets_at <= now() then excluded.resets_at
+                      else ${rateLimits}.resets_at end
+        returning count, (extract(epoch from resets_at - now()) * 1000)::float8 as retry_ms`);
+      const row = result.rows[0]!;
+      if (Number(row.count) <= limit) return { allowed: true };
+      return { allowed: false, retryAfterSeconds: Math.max(1, Math.ceil(Number(row.retry_ms) / 1000)) };
     },
-    reset(key: string) {
-      windows.delete(key);
+    async reset(key: string): Promise<void> {
+      await db.delete(rateLimits).where(sql`${rateLimits.key} = ${`${name}:${key}`}`);
     },
   };
 }
 
 export type RateLimiter = ReturnType<typeof createRateLimiter>;
-
-/** Sign-in attempts: 10 per 15 minutes per client address and e-mail (common practice, no source). */
-export const SIGN_IN_LIMIT = { limit: 10, windowMs: 15 * 60 * 1000 };

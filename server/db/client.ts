@@ -27,7 +27,8 @@ export function connectDatabase(
   const onConnectionError =
     options.onConnectionError ??
     ((error: Error) => console.warn(`[meander] a database connection was lost: ${error.message}`));
-  const pool = new pg.Pool({ connectionString: url, max: options.max ?? 10 });
+  // A bounded wait for a connection: with PostgreSQL unreachable a request fails (503) instead of hanging.
+  const pool = new pg.Pool({ connectionString: url, max: options.max ?? 10, connectionTimeoutMillis: 5000 });
   pool.on('error', onConnectionError);
   pool.on('connect', (client) => client.on('error', onConnectionError));
   const db = drizzle(pool, { schema });

@@ -8,7 +8,13 @@ async function main() {
   const env = loadEnv();
   const postgres = env.DATABASE_URL
     ? null
-    : await ensurePostgres({ dataDir: '.data/pg', port: env.PGPORT_MEANDER, database: 'meander' });
+    : // Beside a running `npm start`, its PostgreSQL is used and left running.
+      await ensurePostgres({
+        dataDir: '.data/pg',
+        port: env.PGPORT_MEANDER,
+        database: 'meander',
+        adoptRunning: false,
+      });
   const database = connectDatabase(env.DATABASE_URL ?? postgres!.url, { max: 1 });
   try {
     await migrate(database.db);

@@ -40,6 +40,14 @@ export const signInRequestSchema = z.object({
 });
 export type SignInRequest = z.infer<typeof signInRequestSchema>;
 
+/** POST /api/auth/sign-up/confirm: the token from the mailed link. */
+export const signUpConfirmSchema = z.object({ token: z.string().min(1).max(200) });
+export type SignUpConfirm = z.infer<typeof signUpConfirmSchema>;
+
+/** The one answer to every sign-up, whether or not the address already has an account. */
+export const signUpAcceptedSchema = z.object({ message: z.string() });
+export type SignUpAccepted = z.infer<typeof signUpAcceptedSchema>;
+
 export const passwordResetRequestSchema = z.object({ email: emailSchema });
 export type PasswordResetRequest = z.infer<typeof passwordResetRequestSchema>;
 

@@ -60,7 +60,7 @@ function checkExtinction(
   sim: SimulationCell,
   issue: (path: (string | number)[], message: string) => void,
 ): void {
-  const boundary = sim.boundaries[cell.state];
+  const boundary = Object.hasOwn(sim.boundaries, cell.state) ? sim.boundaries[cell.state] : undefined;
   const absorbsBelow = boundary?.rule === 'absorb' && boundary.side === 'below';
   if (cell.level === undefined && !absorbsBelow) {
     issue(

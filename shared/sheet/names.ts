@@ -63,6 +63,12 @@ const JS_RESERVED = new Set([
   '__proto__',
 ]);
 
+/**
+ * Names every plain object inherits (`constructor`, `toString`, `valueOf`, …): a record keyed by
+ * user names would find an inherited function under them, so they are refused outright.
+ */
+const OBJECT_PROPERTY_NAMES = new Set(Object.getOwnPropertyNames(Object.prototype));
+
 const FUNCTION_NAMES = new Set<string>(EXPRESSION_FUNCTIONS.map((f) => f.name));
 const CONSTANT_NAMES = new Set<string>(EXPRESSION_CONSTANTS.map((c) => c.name));
 
@@ -72,5 +78,7 @@ export function reservedNameProblem(name: string): string | null {
   if (CONSTANT_NAMES.has(name)) return `'${name}' is a built-in constant; choose another name`;
   if (FUNCTION_NAMES.has(name)) return `'${name}' is the name of a built-in function; choose another name`;
   if (JS_RESERVED.has(name)) return `'${name}' is a reserved word; choose another name`;
+  if (OBJECT_PROPERTY_NAMES.has(name))
+    return `'${name}' is a property every JavaScript object has; choose another name`;
   return null;
 }

@@ -42,7 +42,10 @@ export function buildSimulationPlan(doc: SheetDocument, simulationCellId: string
     seed: sim.seed,
     saveCount: sim.saveCount,
     samplePaths: sim.samplePaths,
-    boundaries: model.states.map((s): BoundaryRule => sim.boundaries[s.name] ?? { rule: 'none' }),
+    boundaries: model.states.map(
+      (s): BoundaryRule =>
+        (Object.hasOwn(sim.boundaries, s.name) ? sim.boundaries[s.name] : undefined) ?? { rule: 'none' },
+    ),
     blowupBound: sim.blowupBound ?? null,
     probeTimes: asks.times,
     watches: asks.watches,

@@ -1,5 +1,6 @@
 import {
   currentUserSchema,
+  signUpAcceptedSchema,
   type ChangePasswordRequest,
   type CurrentUser,
   type SignInRequest,
@@ -22,11 +23,21 @@ export async function fetchCurrentUser(): Promise<CurrentUser | null> {
   }
 }
 
-export async function signUp(body: SignUpRequest): Promise<CurrentUser> {
+/** Starts a sign-up; the answer is the same whether or not the address has an account: a message. */
+export async function signUp(body: SignUpRequest): Promise<string> {
   return parseAnswer(
-    currentUserSchema,
+    signUpAcceptedSchema,
     await request('/api/auth/sign-up', { method: 'POST', body }),
     'sign-up',
+  ).message;
+}
+
+/** Creates the account from the mailed link's token and signs it in. */
+export async function confirmSignUp(token: string): Promise<CurrentUser> {
+  return parseAnswer(
+    currentUserSchema,
+    await request('/api/auth/sign-up/confirm', { method: 'POST', body: { token } }),
+    'sign-up confirmation',
   );
 }
 

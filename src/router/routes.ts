@@ -18,6 +18,12 @@ export const routes: RouteRecordRaw[] = [
     meta: { title: 'Sign up', public: true, guestOnly: true },
   },
   {
+    path: '/confirm-sign-up',
+    name: 'confirm-sign-up',
+    component: () => import('@/views/ConfirmSignUpView.vue'),
+    meta: { title: 'Finish signing up', public: true },
+  },
+  {
     path: '/forgot-password',
     name: 'forgot-password',
     component: () => import('@/views/ForgotPasswordView.vue'),
@@ -64,7 +70,8 @@ export const routes: RouteRecordRaw[] = [
     path: '/mailbox',
     name: 'mailbox',
     component: () => import('@/views/MailboxView.vue'),
-    meta: { title: 'Mailbox', public: true },
+    // It shows live reset links: the site admin's page only.
+    meta: { title: 'Mailbox', requiresAdmin: true },
   },
   {
     path: '/:pathMatch(.*)*',

@@ -4,7 +4,7 @@ import * as devApi from '@/api/dev';
 import type { CapturedMail } from '@/api/dev';
 import { errorMessage } from '@/api/http';
 
-/** The development mailbox: mail the local fake SMTP server caught (password resets and the like). */
+/** The development mailbox (site admin only): mail the local fake SMTP server caught (password resets and the like). */
 export const useMailboxStore = defineStore('mailbox', () => {
   const messages = ref<CapturedMail[]>([]);
   /** null until asked; false when the server has no mailbox (production). */
@@ -26,5 +26,12 @@ export const useMailboxStore = defineStore('mailbox', () => {
     }
   }
 
-  return { messages, available, loading, error, refresh };
+  /** After sign-out: nothing of the last reader's mail stays in memory. */
+  function forget(): void {
+    messages.value = [];
+    available.value = null;
+    error.value = null;
+  }
+
+  return { messages, available, loading, error, refresh, forget };
 });

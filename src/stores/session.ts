@@ -41,8 +41,13 @@ export const useSessionStore = defineStore('session', () => {
     loadError.value = null;
   }
 
-  async function signUp(email: string, name: string, password: string): Promise<void> {
-    me.value = await authApi.signUp({ email, name, password });
+  /** Starts a sign-up; resolves with the message to show (the account comes from the mailed link). */
+  async function signUp(email: string, name: string, password: string): Promise<string> {
+    return authApi.signUp({ email, name, password });
+  }
+
+  async function confirmSignUp(token: string): Promise<void> {
+    me.value = await authApi.confirmSignUp(token);
     loaded.value = true;
     loadError.value = null;
   }
@@ -85,6 +90,7 @@ export const useSessionStore = defineStore('session', () => {
     ensureLoaded,
     signIn,
     signUp,
+    confirmSignUp,
     signOut,
     updateName,
     changePassword,

@@ -10,7 +10,7 @@ export const SIMULATION_FINISHED_MARK = 'meander:simulation-finished';
 
 /**
  * The browser's simulation pool: hardwareConcurrency − 1 Web Workers (at least one), chunks
- * handed out as workers free up, merged in path order by a helper worker (the main thread only
+ * taken from a shared counter (cross-origin isolated page) or else handed out as workers free up, merged in path order by a helper worker (the main thread only
  * schedules). The scheduling itself lives in the framework-free ChunkPool (shared/run), tested in
  * Node with fake workers and with worker_threads.
  */
@@ -36,6 +36,17 @@ function chunkWorker(cancelFlag: Int32Array | null): ChunkWorker<SimulationPlan,
       const onProgress = Comlink.proxy((pathsDone: number) => job.onPathsDone(pathsDone));
       return await api.simulateChunk(job.plan, job.range.firstPath, job.range.pathCount, cancel, onProgress);
     },
+    // With shared memory (the page is cross-origin isolated), a worker takes its chunks from the
+    // run's shared counter, as the command-line pool does: one message per worker and run.
+    simulateClaimed: cancelFlag
+      ? (job) =>
+          api.simulateClaimed(job.plan, {
+            ranges: job.ranges,
+            claim: job.claim,
+            progress: job.progress,
+            cancel: { flag: job.cancelEpoch, epoch: job.epoch },
+          })
+      : undefined,
     terminate() {
       api[Comlink.releaseProxy]();
       worker.terminate();

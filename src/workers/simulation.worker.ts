@@ -4,7 +4,14 @@ import type { SimulationPlan } from '@shared/engine/plan';
 import type { ChunkResult, SimulationResult, StudyOptions, StudyResult } from '@shared/engine/result';
 import { mergeChunks as engineMergeChunks } from '@shared/engine/merge';
 import { runStudy as engineRunStudy } from '@shared/engine/study';
-import { chunkTransferables, runChunkTask, type ChunkCancel } from '@shared/run/chunk-task';
+import {
+  chunkTransferables,
+  runChunkTask,
+  runClaimedChunks,
+  type ChunkCancel,
+  type ClaimedChunks,
+  type ClaimTask,
+} from '@shared/run/chunk-task';
 import { collectTransferables } from '@shared/run/transferables';
 
 /**
@@ -34,6 +41,12 @@ const api = {
     } finally {
       releaseCallback(onProgress);
     }
+  },
+
+  /** Takes chunks from the run's shared counter until none is left (a cross-origin isolated page only). */
+  simulateClaimed(plan: SimulationPlan, task: ClaimTask): ClaimedChunks<ChunkResult> {
+    const claimed = runClaimedChunks(plan, task);
+    return Comlink.transfer(claimed, collectTransferables(claimed.chunks));
   },
 
   mergeChunks(plan: SimulationPlan, chunks: ChunkResult[]): SimulationResult {

@@ -1,5 +1,6 @@
 import { chromium, type Browser, type Page } from 'playwright-core';
 import { inject } from 'vitest';
+import { DEMO_ACCOUNTS } from '../../server/seed';
 
 /** Debian's Chromium, headless, with the flags this machine needs (no background network, no GPU). */
 export async function launchBrowser(): Promise<Browser> {
@@ -54,6 +55,38 @@ export async function signUp(
   await page.getByLabel('Display name').fill(user.name);
   await page.getByLabel('Password', { exact: true }).fill(user.password);
   await page.getByRole('button', { name: 'Sign up' }).last().click();
+  await page.getByText('Check your mail').waitFor();
+  // The account comes from the mailed link, read here as the site admin reads the mailbox.
+  await page.goto(await confirmationLink(user.email));
+  await page.waitForURL(/\/sheets$/);
+}
+
+const SITE_ADMIN = DEMO_ACCOUNTS.find((account) => account.role === 'admin')!;
+
+/** The newest sign-up link mailed to `email`, from the development mailbox (as the site admin). */
+async function confirmationLink(email: string): Promise<string> {
+  const origin = new URL(appUrl()).origin;
+  const signIn = await fetch(appUrl('/api/auth/sign-in'), {
+    method: 'POST',
+    headers: { 'Content-Type': 'application/json', Origin: origin },
+    body: JSON.stringify(SITE_ADMIN),
+  });
+  if (!signIn.ok) throw new Error(`the site admin could not sign in: ${signIn.status}`);
+  const cookie = signIn.headers.get('set-cookie')!.split(';')[0]!;
+  for (let waited = 0; waited < 10_000; waited += 100) {
+    const mailbox = (await (
+      await fetch(appUrl('/api/dev/mailbox'), { headers: { Cookie: cookie } })
+    ).json()) as {
+      messages: { to: string[]; subject: string; text: string }[];
+    };
+    const mail = mailbox.messages.find(
+      (message) => message.to.includes(email.toLowerCase()) && /Confirm your new/.test(message.subject),
+    );
+    const link = mail?.text.split(/\s+/).find((word) => word.includes('/confirm-sign-up?token='));
+    if (link) return link;
+    await new Promise((resolve) => setTimeout(resolve, 100));
+  }
+  throw new Error(`no sign-up link mailed to ${email}`);
 }
 
 export async function signIn(page: Page, user: { email: string; password: string }): Promise<void> {

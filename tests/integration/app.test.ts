@@ -1,9 +1,8 @@
 import { mkdtemp, mkdir, rm, writeFile } from 'node:fs/promises';
 import os from 'node:os';
 import path from 'node:path';
-import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createTestContext, type TestContext } from './helpers';
+import { createTestContext, signUp, type TestContext } from './helpers';
 
 let context: TestContext;
 let clientDir: string;
@@ -29,7 +28,7 @@ afterAll(async () => {
 
 describe('health', () => {
   it('reports the database up', async () => {
-    const response = await request(context.app).get('/api/health');
+    const response = await context.anonymous().get('/api/health');
     expect(response.status).toBe(200);
     expect(response.body).toEqual({ ok: true, db: 'up' });
   });
@@ -57,7 +56,7 @@ describe('request handling', () => {
   });
 
   it('answers an unknown API path with a JSON 404, not the client page', async () => {
-    const response = await request(context.app).get('/api/no-such-thing');
+    const response = await context.anonymous().get('/api/no-such-thing');
     expect(response.status).toBe(404);
     expect(response.body.error.code).toBe('request.not_found');
   });
@@ -65,7 +64,7 @@ describe('request handling', () => {
 
 describe('serving the built client', () => {
   it('serves index.html for client routes with a CSP that forbids eval', async () => {
-    const response = await request(context.app).get('/sheets/abc');
+    const response = await context.anonymous().get('/sheets/abc');
     expect(response.status).toBe(200);
     expect(response.headers['content-type']).toMatch(/text\/html/);
     expect(response.text).toContain('<div id="app">');
@@ -79,15 +78,15 @@ describe('serving the built client', () => {
   });
 
   it("gives worker scripts a policy that allows the engine's generated code", async () => {
-    const worker = await request(context.app).get('/assets/simulation.worker-def456.js');
+    const worker = await context.anonymous().get('/assets/simulation.worker-def456.js');
     expect(worker.status).toBe(200);
     expect(worker.headers['content-security-policy']).toMatch(/script-src 'self' 'unsafe-eval'/);
-    const page = await request(context.app).get('/assets/index-abc123.js');
+    const page = await context.anonymous().get('/assets/index-abc123.js');
     expect(page.headers['content-security-policy']).not.toContain('unsafe-eval');
   });
 
   it('answers a missing asset with 404 instead of the page', async () => {
-    const response = await request(context.app).get('/assets/missing-000.js');
+    const response = await context.anonymous().get('/assets/missing-000.js');
     expect(response.status).toBe(404);
   });
 });
@@ -96,7 +95,7 @@ describe('development mailbox', () => {
   it('is not mounted in production', async () => {
     const production = await createTestContext({ config: { nodeEnv: 'production' } });
     try {
-      expect((await request(production.app).get('/api/dev/mailbox')).status).toBe(404);
+      expect((await production.anonymous().get('/api/dev/mailbox')).status).toBe(404);
     } finally {
       await production.close();
     }
@@ -105,15 +104,45 @@ describe('development mailbox', () => {
   it('is not mounted without an in-process mail fake', async () => {
     const withoutFake = await createTestContext({ mountMailbox: false });
     try {
-      expect((await request(withoutFake.app).get('/api/dev/mailbox')).status).toBe(404);
+      expect((await withoutFake.anonymous().get('/api/dev/mailbox')).status).toBe(404);
     } finally {
       await withoutFake.close();
     }
   });
 
-  it('lists captured mail outside production when the fake runs in-process', async () => {
-    const response = await request(context.app).get('/api/dev/mailbox');
+  it('lists captured mail outside production when the fake runs in-process, to a signed-in caller', async () => {
+    const { agent } = await signUp(context);
+    const response = await agent.get('/api/dev/mailbox');
     expect(response.status).toBe(200);
     expect(response.body).toEqual({ messages: expect.any(Array) });
+  });
+});
+
+describe('security headers', () => {
+  it('marks authenticated API answers Cache-Control: no-store', async () => {
+    const { agent } = await signUp(context);
+    for (const path of ['/api/auth/me', '/api/sheets']) {
+      const response = await agent.get(path);
+      expect(response.status).toBe(200);
+      expect(response.headers['cache-control']).toBe('no-store');
+    }
+  });
+
+  it("forbids the worker every connection (connect-src 'none')", async () => {
+    const worker = await context.anonymous().get('/assets/simulation.worker-def456.js');
+    expect(worker.headers['content-security-policy']).toContain("connect-src 'none'");
+    const page = await context.anonymous().get('/sheets/abc');
+    expect(page.headers['content-security-policy']).toContain("connect-src 'self'");
+  });
+
+  it('makes the page cross-origin isolated and turns off features the app does not use', async () => {
+    for (const path of ['/sheets/abc', '/assets/index-abc123.js', '/assets/simulation.worker-def456.js']) {
+      const response = await context.anonymous().get(path);
+      expect(response.headers['cross-origin-opener-policy']).toBe('same-origin');
+      expect(response.headers['cross-origin-embedder-policy']).toBe('require-corp');
+    }
+    const policy = (await context.anonymous().get('/sheets/abc')).headers['permissions-policy'];
+    for (const feature of ['camera=()', 'microphone=()', 'geolocation=()', 'payment=()', 'usb=()'])
+      expect(policy).toContain(feature);
   });
 });

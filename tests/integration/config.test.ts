@@ -1,7 +1,6 @@
-import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { appConfigFromEnv, loadEnv } from '../../server/config';
-import { createTestContext, DEFAULT_PASSWORD, type TestContext, uniqueEmail } from './helpers';
+import { createTestContext, signUp, type TestContext } from './helpers';
 
 describe('loadEnv', () => {
   it('fills the documented defaults', () => {
@@ -29,6 +28,13 @@ describe('loadEnv', () => {
     );
   });
 
+  it('reads TRUST_PROXY as a flag, a hop count or a list of proxies, and trusts none by default', () => {
+    expect(appConfigFromEnv(loadEnv({})).trustProxy).toBe(false);
+    expect(loadEnv({ TRUST_PROXY: 'true' }).TRUST_PROXY).toBe(true);
+    expect(loadEnv({ TRUST_PROXY: '2' }).TRUST_PROXY).toBe(2);
+    expect(loadEnv({ TRUST_PROXY: 'loopback, 10.0.0.0/8' }).TRUST_PROXY).toBe('loopback, 10.0.0.0/8');
+  });
+
   it('fails fast with every problem named', () => {
     let message = '';
     try {
@@ -53,11 +59,12 @@ describe('secure cookies', () => {
   });
 
   it('marks the session cookie Secure when configured for production', async () => {
-    const response = await request(context.app)
-      .post('/api/auth/sign-up')
-      .set('Origin', 'http://meander.test')
-      .send({ email: uniqueEmail(), name: 'Secure Cookie', password: DEFAULT_PASSWORD });
-    expect(response.status).toBe(201);
+    const user = await signUp(context, { name: 'Secure Cookie' });
+    const response = await context
+      .agent()
+      .post('/api/auth/sign-in')
+      .send({ email: user.email, password: user.password });
+    expect(response.status).toBe(200);
     const cookies = ([] as string[]).concat(response.headers['set-cookie'] ?? []);
     expect(cookies.find((cookie) => cookie.startsWith('meander_session='))).toMatch(/;\s*Secure/i);
   });

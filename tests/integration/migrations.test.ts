@@ -9,15 +9,19 @@ import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { connectDatabase, type Database } from '../../server/db/client';
 import { migrate, MIGRATIONS_FOLDER } from '../../server/db/migrate';
 
-/** An empty database (not the migrated template), to replay migrations from the start. */
+/**
+ * An empty database (not the migrated template), to replay migrations from the start. As in
+ * helpers.ts, the superuser creates it for the app's role, which may not create databases.
+ */
 async function createEmptyDatabase() {
-  const adminUrl = new URL(inject('databaseUrl'));
+  const appUrl = new URL(inject('databaseUrl'));
+  const adminUrl = new URL(inject('databaseAdminUrl'));
   adminUrl.pathname = '/postgres';
   const name = `meander_m_${randomBytes(6).toString('hex')}`;
   const admin = new pg.Client({ connectionString: adminUrl.toString() });
   await admin.connect();
-  await admin.query(`CREATE DATABASE ${name}`).finally(() => admin.end());
-  const url = new URL(adminUrl);
+  await admin.query(`CREATE DATABASE ${name} OWNER ${appUrl.username}`).finally(() => admin.end());
+  const url = new URL(appUrl);
   url.pathname = `/${name}`;
   return {
     url: url.toString(),

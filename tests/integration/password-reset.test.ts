@@ -7,6 +7,7 @@ import {
   TEST_ORIGIN,
   type TestContext,
   uniqueEmail,
+  MAIL_SUBJECTS,
   waitForMail,
 } from './helpers';
 
@@ -47,7 +48,7 @@ describe('password reset', () => {
 
     const response = await requestReset(user.email.toUpperCase());
     expect(response.status).toBe(202);
-    const mail = await waitForMail(context.mailFake, user.email);
+    const mail = await waitForMail(context.mailFake, user.email, MAIL_SUBJECTS.reset);
     expect(mail.subject).toMatch(/password/i);
     expect(mail.text).toContain('Odile Brenner');
     const token = tokenFrom(mail.text);
@@ -97,7 +98,7 @@ describe('password reset', () => {
   it('rejects an expired token and keeps the old password', async () => {
     const user = await signUp(context);
     await requestReset(user.email);
-    const token = tokenFrom((await waitForMail(context.mailFake, user.email)).text);
+    const token = tokenFrom((await waitForMail(context.mailFake, user.email, MAIL_SUBJECTS.reset)).text);
     await context.database.db.execute(
       sql`update password_resets set expires_at = now() - interval '1 minute' where token_hash = ${hashResetToken(token)}`,
     );
@@ -117,7 +118,7 @@ describe('password reset', () => {
     const user = await signUp(context);
     const before = Date.now();
     await requestReset(user.email);
-    const token = tokenFrom((await waitForMail(context.mailFake, user.email)).text);
+    const token = tokenFrom((await waitForMail(context.mailFake, user.email, MAIL_SUBJECTS.reset)).text);
     const result = await context.database.db.execute(
       sql`select expires_at from password_resets where token_hash = ${hashResetToken(token)}`,
     );
@@ -141,11 +142,11 @@ describe('password reset', () => {
     expect(short.body.error.path).toEqual(['password']);
   });
 
-  it('shows captured mail on the development mailbox route', async () => {
+  it('shows a member their own captured mail on the development mailbox route', async () => {
     const user = await signUp(context);
     await requestReset(user.email);
-    await waitForMail(context.mailFake, user.email);
-    const mailbox = await context.agent().get('/api/dev/mailbox');
+    await waitForMail(context.mailFake, user.email, MAIL_SUBJECTS.reset);
+    const mailbox = await user.agent.get('/api/dev/mailbox');
     expect(mailbox.status).toBe(200);
     const message = mailbox.body.messages.find((entry: { to: string[] }) => entry.to.includes(user.email));
     expect(message).toMatchObject({

@@ -5,7 +5,7 @@ import { type MailFake, startMailFake } from '../../server/mail/mail-fake';
 import { createMailer } from '../../server/mail/mailer';
 import { DEMO_ACCOUNTS, seedDemo } from '../../server/seed';
 import { DEMO_INVITEE } from '../../server/seed-group';
-import { createTestDatabase, waitForMail } from './helpers';
+import { createTestDatabase, MAIL_SUBJECTS, waitForMail } from './helpers';
 
 describe('the demo research group', () => {
   let testDb: Awaited<ReturnType<typeof createTestDatabase>>;
@@ -82,7 +82,7 @@ describe('the demo research group', () => {
     expect(await query(sql`select email, role from sheet_invitations`)).toEqual([
       { email: DEMO_INVITEE, role: 'viewer' },
     ]);
-    const mail = await waitForMail(mailFake, DEMO_INVITEE);
+    const mail = await waitForMail(mailFake, DEMO_INVITEE, MAIL_SUBJECTS.invitation);
     expect(mail.text).toMatch(/http:\/\/meander\.test\/invitations\/[A-Za-z0-9_-]{40,}/);
   });
 });

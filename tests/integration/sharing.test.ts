@@ -7,6 +7,7 @@ import {
   type TestContext,
   uniqueEmail,
   waitForMail,
+  MAIL_SUBJECTS,
 } from './helpers';
 
 let context: TestContext;
@@ -91,7 +92,7 @@ describe('invitations by e-mail', () => {
     expect(Math.abs(lifetime - 7 * 24 * 3600 * 1000)).toBeLessThan(60_000);
 
     const token = await invitationToken(email);
-    const mail = await waitForMail(context.mailFake, email);
+    const mail = await waitForMail(context.mailFake, email, MAIL_SUBJECTS.invitation);
     expect(mail.subject).toContain('Rosalind Achterberg');
     const stored = await context.database.db.execute(
       sql`select token_hash from sheet_invitations where email = ${email}`,
@@ -223,7 +224,7 @@ describe('sharing with registered people', () => {
     });
     const sheet = await colleague.agent.get(`/api/sheets/${sheetId}`);
     expect(sheet.body.role).toBe('editor');
-    const mail = await waitForMail(context.mailFake, colleague.email);
+    const mail = await waitForMail(context.mailFake, colleague.email, MAIL_SUBJECTS.shared);
     expect(mail.subject).toBe('Hanne Villadsen shared "Ditch shared" with you');
     expect(mail.text).toContain(`/sheets/${sheetId}`);
   });

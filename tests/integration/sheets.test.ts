@@ -1,8 +1,7 @@
 import { sql } from 'drizzle-orm';
-import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { SheetDocumentInput } from '@shared/sheet/document';
-import { createTestContext, signUp, type SignedUpUser, type TestContext } from './helpers';
+import { createTestContext, signUp, type SignedUpUser, TEST_ORIGIN, type TestContext } from './helpers';
 
 let context: TestContext;
 let owner: SignedUpUser;
@@ -137,7 +136,7 @@ describe('creating and reading sheets', () => {
 describe('who may see a sheet', () => {
   it('answers 401 to every sheet route without a session', async () => {
     const created = await createSheet(owner, 'Private');
-    const anonymous = request.agent(context.app).set('Origin', 'http://meander.test');
+    const anonymous = context.anonymous().set('Origin', TEST_ORIGIN);
     expect((await anonymous.get('/api/sheets')).status).toBe(401);
     expect((await anonymous.get(`/api/sheets/${created.id}`)).status).toBe(401);
     expect((await anonymous.post('/api/sheets').send({ title: 'x' })).status).toBe(401);

@@ -20,7 +20,22 @@ export default async function setup(project: TestProject) {
     throw new Error('dist/ has no built client: run `npm run build` first (`npm test` does it).');
   }
   const { databaseUrl, smtpPort } = project.getProvidedContext();
-  const server = await startTestServer({ databaseUrl, smtpPort, clientDir });
+  // Every browser test signs up from 127.0.0.1: the auth limits are lifted out of the way.
+  const lifted = { limit: 100_000, windowMs: 60_000 };
+  const server = await startTestServer({
+    databaseUrl,
+    smtpPort,
+    clientDir,
+    limits: {
+      signInPerAddressAndAccount: lifted,
+      signInPerAccount: lifted,
+      signInPerAddress: lifted,
+      signUpPerAddress: lifted,
+      resetRequestsPerAddress: lifted,
+      resetMailsPerAccount: lifted,
+      signUpMailsPerAddress: lifted,
+    },
+  });
   project.provide('appUrl', server.url);
   return async () => {
     await server.stop();

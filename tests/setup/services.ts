@@ -11,8 +11,10 @@ import { shareMailboxInProcess } from '../../server/testing';
 
 declare module 'vitest' {
   export interface ProvidedContext {
-    /** A migrated, empty database on a throwaway PostgreSQL. */
+    /** A migrated, empty database on a throwaway PostgreSQL, as the app's role (not a superuser). */
     databaseUrl: string;
+    /** The same database as the superuser over the private socket: for creating test databases. */
+    databaseAdminUrl: string;
     /** The mail fake on 127.0.0.1. */
     smtpPort: number;
   }
@@ -58,6 +60,7 @@ export default async function setup(project: TestProject) {
   }
   shareMailboxInProcess(mailFake);
   project.provide('databaseUrl', postgres.url);
+  project.provide('databaseAdminUrl', postgres.adminUrl);
   project.provide('smtpPort', mailFake.port);
 
   return async () => {

@@ -31,7 +31,15 @@ describe('route access', () => {
     });
   });
   it('lets anyone reach public pages', () => {
-    expect(accessDecision(route('/mailbox', { public: true }), null)).toBe(true);
+    expect(accessDecision(route('/forgot-password', { public: true }), null)).toBe(true);
+  });
+  it('keeps the development mailbox for the site admin', async () => {
+    const { routes } = await import('@/router/routes');
+    const mailbox = routes.find((entry) => entry.path === '/mailbox');
+    expect(mailbox?.meta).toMatchObject({ requiresAdmin: true });
+    expect(mailbox?.meta?.public).toBeUndefined();
+    expect(accessDecision(route('/mailbox', mailbox?.meta), null)).toMatchObject({ name: 'sign-in' });
+    expect(accessDecision(route('/mailbox', mailbox?.meta), member)).toEqual({ name: 'admins-only' });
   });
   it('sends a member away from admin pages and lets an admin in', () => {
     expect(accessDecision(route('/admin', { requiresAdmin: true }), member)).toEqual({ name: 'admins-only' });

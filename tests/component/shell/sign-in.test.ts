@@ -8,6 +8,7 @@ vi.mock('@/api/auth', () => ({
   fetchCurrentUser: vi.fn(),
   signIn: vi.fn(),
   signUp: vi.fn(),
+  confirmSignUp: vi.fn(),
   signOut: vi.fn(),
   requestPasswordReset: vi.fn(),
   confirmPasswordReset: vi.fn(),
@@ -46,6 +47,33 @@ describe('sign-in page', () => {
     await click(buttonByText('Sign up'));
     expect(document.body.textContent).toContain('A password has at least 10 characters.');
     expect(api.signUp).not.toHaveBeenCalled();
+  });
+
+  it('after a sign-up, says to open the mailed link and stays signed out', async () => {
+    api.signUp.mockResolvedValue('Check your mail: we sent a link to finish signing up.');
+    const mounted = await mountAt('/sign-up');
+    wrapper = mounted.wrapper;
+    await fillByLabel('Email', 'lena.brook@example.test');
+    await fillByLabel('Display name', 'Lena Brook');
+    await fillByLabel('Password', 'a-long-enough-password');
+    await click(buttonByText('Sign up'));
+    expect(api.signUp).toHaveBeenCalledWith({
+      email: 'lena.brook@example.test',
+      name: 'Lena Brook',
+      password: 'a-long-enough-password',
+    });
+    await vi.waitFor(() => expect(document.body.textContent).toContain('Check your mail'));
+    expect(mounted.router.currentRoute.value.name).toBe('sign-up');
+  });
+
+  it('finishes a sign-up from the mailed link: signs in and opens the sheets', async () => {
+    api.confirmSignUp.mockResolvedValue(member);
+    const mounted = await mountAt('/confirm-sign-up?token=mailed-token');
+    wrapper = mounted.wrapper;
+    await vi.waitFor(() => expect(mounted.router.currentRoute.value.name).toBe('sheets'), {
+      timeout: 10_000,
+    });
+    expect(api.confirmSignUp).toHaveBeenCalledWith('mailed-token');
   });
 
   it('shows the server refusal of a sign-in and stays on the page', async () => {

@@ -47,6 +47,24 @@ describe('SimulationPool (browser pool over comlink)', () => {
     expect(again.digest).toBe(simulate(plan).digest);
   });
 
+  it('with shared memory, workers take chunks from a shared counter: one message each per run', async () => {
+    const calls: string[] = [];
+    const post = ShimWorker.prototype.postMessage;
+    ShimWorker.prototype.postMessage = function (this: ShimWorker, message: unknown, transfer) {
+      const path = (message as { path?: unknown[] } | null)?.path;
+      if (Array.isArray(path) && typeof path[0] === 'string') calls.push(path[0]);
+      post.call(this, message, transfer);
+    };
+    try {
+      const result = await pool.simulate({ ...plan, paths: 20_000 });
+      expect(result.digest).toBe(simulate({ ...plan, paths: 20_000 }).digest);
+    } finally {
+      ShimWorker.prototype.postMessage = post;
+    }
+    expect(calls.filter((name) => name === 'simulateChunk')).toEqual([]);
+    expect(calls.filter((name) => name === 'simulateClaimed')).toHaveLength(2);
+  });
+
   it('without shared memory, cancels by replacing the busy workers', async () => {
     const isolated = new SimulationPool(2, { sharedMemory: false });
     try {
