@@ -9,7 +9,6 @@ export const meanderLocale = createLocale(
     Input: { placeholder: '' },
     Select: { placeholder: '' },
     Cascader: { placeholder: '' },
-    TreeSelect: { placeholder: '' },
     DynamicTags: { add: 'Add' },
   },
   enUS,

@@ -122,7 +122,7 @@ describe('saving from two pages and opening hostile sheets', () => {
       await pageB.getByRole('button', { name: 'Save', exact: true }).click();
       await pageB.getByRole('button', { name: 'Load their version' }).click();
       await pageB.getByLabel('Version 2').waitFor();
-      await pageB.getByRole('button', { name: 'Restore my copy' }).click();
+      await pageB.getByRole('button', { name: 'Keep my changes on top of version 2' }).click();
       await pageB.getByRole('textbox', { name: 'value of parameter 1 (k)' }).waitFor();
     });
   });
