@@ -88,8 +88,14 @@ describe('the page does not hide a wrong number or lose a result', () => {
       await page.getByRole('button', { name: 'Run all' }).click();
       const summary = page.getByRole('region', { name: 'Simulation summary' });
       await summary.waitFor({ timeout: 60_000 });
-      await summary.getByText(/conditional on the [\d,]+ surviving paths/).first().waitFor();
-      await summary.getByText(/were lost/).first().waitFor();
+      await summary
+        .getByText(/conditional on the [\d,]+ surviving paths/)
+        .first()
+        .waitFor();
+      await summary
+        .getByText(/were lost/)
+        .first()
+        .waitFor();
     });
   });
 
