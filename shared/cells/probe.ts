@@ -17,6 +17,8 @@ export const probeQuantitySchema = z.enum([
   'hit-before', // P(path reaches level before t1)
   'first-passage', // first-passage time summary among paths that reach level
   'extinction', // P(path absorbed at its lower boundary, or ≤ level, by t1)
+  'covariance', // Cov(X_t, Y_t) of `state` and `stateY`
+  'correlation', // Corr(X_t, Y_t) of `state` and `stateY`
 ]);
 export type ProbeQuantity = z.infer<typeof probeQuantitySchema>;
 
@@ -27,6 +29,8 @@ export const probeCellSchema = z.object({
   simulation: cellIdSchema,
   quantity: probeQuantitySchema,
   state: symbolNameSchema,
+  /** The second state variable of a covariance or correlation. */
+  stateY: symbolNameSchema.optional(),
   /** Time the quantity is read at; default t1. */
   time: finite.optional(),
   level: finite.optional(),
@@ -51,6 +55,8 @@ const PROBE_WORDS: Record<ProbeQuantity, string> = {
   'hit-before': 'P(reach level)',
   'first-passage': 'first-passage time',
   extinction: 'extinction probability',
+  covariance: 'covariance',
+  correlation: 'correlation',
 };
 
 /** The engine's view of a probe cell: states by index rather than by name. */
@@ -59,6 +65,7 @@ export function probeRequest(cell: ProbeCell, stateNames: readonly string[]): Pr
     quantity: cell.quantity,
     state: stateIndex(stateNames, cell.state, 'probe'),
   };
+  if (cell.stateY !== undefined) request.stateY = stateIndex(stateNames, cell.stateY, 'probe');
   if (cell.time !== undefined) request.time = cell.time;
   if (cell.level !== undefined) request.level = cell.level;
   if (cell.probability !== undefined) request.probability = cell.probability;
@@ -90,7 +97,10 @@ export const probeKind: CellKindDefinition<'probe'> = {
       state: firstStateOf(doc, simulation),
     };
   },
-  title: (cell) => `${PROBE_WORDS[cell.quantity]} of ${cell.state}`,
+  title: (cell) =>
+    cell.stateY !== undefined && (cell.quantity === 'covariance' || cell.quantity === 'correlation')
+      ? `${PROBE_WORDS[cell.quantity]} of ${cell.state} and ${cell.stateY}`
+      : `${PROBE_WORDS[cell.quantity]} of ${cell.state}`,
   reads: (cell) => [cell.simulation],
   check: (cell, { index }) => checkReader(index, cell),
   asksOf(cell, simulation, model) {

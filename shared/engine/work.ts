@@ -1,4 +1,4 @@
-import type { SimulationPlan } from './plan';
+import type { ModelSpec, SimulationPlan } from './plan';
 
 /**
  * A rough estimate of a run's work, shown before it starts so nobody launches a day-long job by a
@@ -26,7 +26,9 @@ function duration(seconds: number): string {
   return `${Math.round(seconds / 86400)} days`;
 }
 
-export function estimateWork(plan: Pick<SimulationPlan, 'paths' | 'steps' | 'model'>): WorkEstimate {
+export function estimateWork(
+  plan: Pick<SimulationPlan, 'paths' | 'steps'> & { model: Pick<ModelSpec, 'stateNames'> },
+): WorkEstimate {
   const pathSteps = plan.paths * plan.steps;
   const states = Math.max(1, plan.model.stateNames.length);
   const seconds = (pathSteps * states) / NOMINAL_STATE_STEPS_PER_SECOND;

@@ -5,6 +5,8 @@ import type { SimulationPlan } from '../engine/plan';
 import { sheetCellDependencies } from '../sheet/dependencies';
 import type { SheetDocument } from '../sheet/document';
 import { sheetFingerprints } from '../sheet/fingerprint';
+import { SheetIssuesError } from '../sheet/issues';
+import { issueInWords } from '../sheet/issue-words';
 import { buildSimulationPlan } from '../sheet/plan';
 import { RunCancelledError } from './chunk-pool';
 import { cellOutputJson, type CellOutput, type SheetRunJson } from './outputs';
@@ -53,8 +55,13 @@ export function isCancellation(error: unknown): boolean {
   return error instanceof Error && error.name === 'RunCancelledError';
 }
 
-/** A thrown value in plain words for the cell that caused it. */
-export function describeRunError(error: unknown): string {
+/**
+ * A thrown value in plain words for the cell that caused it. Problems found in the sheet name
+ * their cells by title and their fields by label (shared/sheet/issue-words.ts), never by id.
+ */
+export function describeRunError(error: unknown, doc?: SheetDocument): string {
+  if (doc && error instanceof SheetIssuesError && error.issues.length > 0)
+    return error.issues.map((issue) => issueInWords(doc, issue)).join('; ');
   if (error instanceof Error && error.message) return error.message;
   if (typeof error === 'string' && error) return error;
   return 'the run failed for an unknown reason';
@@ -108,7 +115,7 @@ export async function runSheet(doc: SheetDocument, options: RunSheetOptions): Pr
       if (isCancellation(error) || cancelled()) {
         return { outputs, cancelled: true, engineVersion: ENGINE_VERSION };
       }
-      output = { kind: 'error', message: describeRunError(error), finishedAt: new Date() };
+      output = { kind: 'error', message: describeRunError(error, doc), finishedAt: new Date() };
     }
     const result = { output, fingerprint };
     outputs.set(step.cellId, result);

@@ -23,6 +23,11 @@ export function checkReader(index: SheetIndex, cell: Reader): SheetIssue[] {
     if (what && cell.level === undefined) issue(['level'], `${what} needs a level`);
     if (cell.quantity === 'quantile' && cell.probability === undefined)
       issue(['probability'], 'a quantile needs a probability between 0 and 1');
+    if (cell.quantity === 'covariance' || cell.quantity === 'correlation') {
+      if (cell.stateY === undefined) issue(['stateY'], `a ${cell.quantity} needs a second state variable`);
+      else if (cell.stateY === cell.state)
+        issue(['stateY'], `a ${cell.quantity} needs two different state variables`);
+    }
   }
   if (cell.kind === 'chart' && cell.view === 'phase' && cell.stateY === undefined) {
     issue(['stateY'], 'a phase chart needs a second state variable');
@@ -45,7 +50,7 @@ export function checkReader(index: SheetIndex, cell: Reader): SheetIssue[] {
     }
   };
   checkState('state', cell.state);
-  if (cell.kind === 'chart') checkState('stateY', cell.stateY);
+  if (cell.kind === 'chart' || cell.kind === 'probe') checkState('stateY', cell.stateY);
 
   if (cell.kind !== 'study' && cell.time !== undefined && !(cell.time >= sim.t0 && cell.time <= sim.t1)) {
     issue(['time'], `the time ${cell.time} lies outside the simulated interval [${sim.t0}, ${sim.t1}]`);

@@ -122,7 +122,7 @@ describe('saving from two pages and opening hostile sheets', () => {
       await pageB.getByRole('button', { name: 'Save', exact: true }).click();
       await pageB.getByRole('button', { name: 'Load their version' }).click();
       await pageB.getByLabel('Version 2').waitFor();
-      await pageB.getByRole('button', { name: 'Restore my copy' }).click();
+      await pageB.getByRole('button', { name: 'Keep my changes on top of version 2' }).click();
       await pageB.getByRole('textbox', { name: 'value of parameter 1 (k)' }).waitFor();
     });
   });
@@ -171,8 +171,9 @@ describe('saving from two pages and opening hostile sheets', () => {
       });
       await page.goto(appUrl(`/sheets/${id}`));
       await page.getByText('Harmless looking.').waitFor();
-      await page.getByRole('button', { name: 'Run all' }).click();
-      // The model cell names its problems; nothing ran.
+      // The model cell names its problems, and the sheet cannot be run until they are fixed.
+      await page.locator('#run-blocked-reason').waitFor();
+      expect(await page.getByRole('button', { name: 'Run all' }).isDisabled()).toBe(true);
       await page
         .getByText(/this|constructor|not allowed|member/i)
         .first()

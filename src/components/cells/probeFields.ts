@@ -8,6 +8,10 @@ export interface QuantityInfo {
   usesLevel: 'required' | 'optional' | 'no';
   usesProbability: boolean;
   usesDirection: boolean;
+  /** Covariance and correlation read a second state. */
+  usesStateY?: boolean;
+  /** Crossings between steps: discrete monitoring or the continuity correction. */
+  usesMonitoring?: boolean;
 }
 
 export const PROBE_QUANTITIES: readonly QuantityInfo[] = [
@@ -58,6 +62,7 @@ export const PROBE_QUANTITIES: readonly QuantityInfo[] = [
     usesLevel: 'required',
     usesProbability: false,
     usesDirection: true,
+    usesMonitoring: true,
   },
   {
     value: 'first-passage',
@@ -66,6 +71,7 @@ export const PROBE_QUANTITIES: readonly QuantityInfo[] = [
     usesLevel: 'required',
     usesProbability: false,
     usesDirection: true,
+    usesMonitoring: true,
   },
   {
     value: 'extinction',
@@ -74,6 +80,24 @@ export const PROBE_QUANTITIES: readonly QuantityInfo[] = [
     usesLevel: 'optional',
     usesProbability: false,
     usesDirection: false,
+  },
+  {
+    value: 'covariance',
+    label: 'Covariance of two states',
+    usesTime: true,
+    usesLevel: 'no',
+    usesProbability: false,
+    usesDirection: false,
+    usesStateY: true,
+  },
+  {
+    value: 'correlation',
+    label: 'Correlation of two states',
+    usesTime: true,
+    usesLevel: 'no',
+    usesProbability: false,
+    usesDirection: false,
+    usesStateY: true,
   },
 ];
 
@@ -85,7 +109,7 @@ export function quantityInfo(quantity: ProbeQuantity): QuantityInfo {
  * The cell with another quantity: fields the new quantity needs get a starting value, fields it
  * does not use are dropped so the stored cell says only what the probe means.
  */
-export function withQuantity(cell: ProbeCell, quantity: ProbeQuantity): ProbeCell {
+export function withQuantity(cell: ProbeCell, quantity: ProbeQuantity, otherState?: string): ProbeCell {
   const info = quantityInfo(quantity);
   const next: ProbeCell = {
     id: cell.id,
@@ -99,6 +123,9 @@ export function withQuantity(cell: ProbeCell, quantity: ProbeQuantity): ProbeCel
   if (info.usesLevel === 'optional' && cell.level !== undefined) next.level = cell.level;
   if (info.usesProbability) next.probability = cell.probability ?? 0.5;
   if (info.usesDirection) next.direction = cell.direction ?? 'above';
+  if (info.usesMonitoring && cell.monitoring !== undefined) next.monitoring = cell.monitoring;
+  const stateY = cell.stateY ?? otherState;
+  if (info.usesStateY && stateY !== undefined) next.stateY = stateY;
   return next;
 }
 
@@ -124,6 +151,10 @@ export function describeProbe(cell: ProbeCell, endTime: number | null): string {
       return `Probability that ${x} ${crossing} before the end time`;
     case 'first-passage':
       return `Mean time until ${x} first ${crossing}, among paths that do`;
+    case 'covariance':
+      return `Covariance of ${x} and ${cell.stateY ?? 'Y'} ${atText}`;
+    case 'correlation':
+      return `Correlation of ${x} and ${cell.stateY ?? 'Y'} ${atText}`;
     case 'extinction':
       return cell.level === undefined
         ? `Probability that ${x} is absorbed at its lower boundary by the end time`

@@ -1,10 +1,12 @@
 import type { SimulationCell } from '@shared/sheet/document';
+import { NOMINAL_STATE_STEPS_PER_SECOND, estimateWork, type WorkEstimate } from '@shared/engine/work';
+import { stepCount as sharedStepCount } from '@shared/sheet/step-count';
 
 /**
- * A rough cost of a run, shown before it starts so nobody launches a ten-minute job by a typo.
- * Throughput is a measured ballpark for Euler–Maruyama on a small model, not a promise.
+ * A rough cost of a run, shown before it starts so nobody launches a day-long job by a typo. The
+ * work and its rate come from the engine (shared/engine/work.ts), the steps from the same count
+ * the plan uses (shared/sheet/step-count.ts): one home for both.
  */
-export const PATH_STEPS_PER_SECOND_PER_WORKER = 40e6;
 /** Saved values are float64. */
 const BYTES_PER_VALUE = 8;
 export const MEMORY_WARNING_BYTES = 1e9;
@@ -13,17 +15,19 @@ export interface RunCost {
   steps: number;
   pathSteps: number;
   workers: number;
+  /** Wall-clock seconds spread over the workers, at the engine's nominal rate. */
   seconds: number;
   /** Memory for the saved values of all paths: paths × saveCount × states × 8 bytes. */
   bytes: number;
   warning: string | null;
+  /** The engine's estimate on one core (beyondMinutes asks for a confirmation before a run). */
+  work: WorkEstimate;
 }
 
-/** Steps of a run: given directly, or from the step size over [t0, t1] (rounded up). */
+/** Steps of a run, or null while neither a step count nor a usable step size is set. */
 export function stepCount(cell: Pick<SimulationCell, 't0' | 't1' | 'steps' | 'stepSize'>): number | null {
   if (cell.steps !== undefined) return cell.steps;
-  if (cell.stepSize !== undefined && cell.stepSize > 0 && cell.t1 > cell.t0)
-    return Math.ceil((cell.t1 - cell.t0) / cell.stepSize - 1e-9);
+  if (cell.stepSize !== undefined && cell.stepSize > 0 && cell.t1 > cell.t0) return sharedStepCount(cell);
   return null;
 }
 
@@ -34,15 +38,20 @@ export function estimateRunCost(
 ): RunCost | null {
   const steps = stepCount(cell);
   if (steps === null) return null;
+  const states = Math.max(1, stateCount);
   const workers = Math.max(1, Math.floor(hardwareConcurrency) - 1);
-  const pathSteps = cell.paths * steps;
-  const seconds = pathSteps / (PATH_STEPS_PER_SECOND_PER_WORKER * workers);
-  const bytes = cell.paths * cell.saveCount * Math.max(1, stateCount) * BYTES_PER_VALUE;
+  const work = estimateWork({
+    paths: cell.paths,
+    steps,
+    model: { stateNames: Array.from({ length: states }, String) },
+  });
+  const seconds = (work.pathSteps * states) / (NOMINAL_STATE_STEPS_PER_SECOND * workers);
+  const bytes = cell.paths * cell.saveCount * states * BYTES_PER_VALUE;
   const warning =
     bytes > MEMORY_WARNING_BYTES
       ? `The saved values need about ${formatBytes(bytes)}, more than a browser tab can comfortably hold: lower the paths or the saved times.`
       : null;
-  return { steps, pathSteps, workers, seconds, bytes, warning };
+  return { steps, pathSteps: work.pathSteps, workers, seconds, bytes, warning, work };
 }
 
 export function formatBytes(bytes: number): string {

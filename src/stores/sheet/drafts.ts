@@ -34,8 +34,12 @@ export function useSheetDrafts(state: SheetDocumentState) {
     recovery.value = null;
   }
 
-  /** After loading the server's current version: put a newer local draft back, or keep it aside. */
-  function restoreDraft(serverVersion: number, serverUpdatedAt: Date): void {
+  /**
+   * After loading the server's current version: put back a draft based on that version; a draft
+   * based on an older one is kept aside and offered (compare, keep on top, discard), never applied,
+   * whatever the clocks say about when it was written.
+   */
+  function restoreDraft(serverVersion: number): void {
     const id = state.sheetId.value!;
     const user = state.userId.value;
     const draft = readDraft('draft', user, id);
@@ -44,7 +48,7 @@ export function useSheetDrafts(state: SheetDocumentState) {
       clearDraft('draft', user, id);
       return;
     }
-    if (draft.baseVersion >= serverVersion || draft.savedAt > serverUpdatedAt) {
+    if (draft.baseVersion >= serverVersion) {
       state.document.value = draft.document;
       state.baseVersion.value = Math.min(draft.baseVersion, serverVersion);
       draftRestoredAt.value = draft.savedAt;

@@ -43,12 +43,16 @@ export function useSheetRuns(state: SheetDocumentState) {
   /** When the running step started (performance.now()), for elapsed time where no progress comes. */
   const stepStartedAt = ref<number | null>(null);
   const runNotice = ref<string | null>(null);
+  /** Why the last run of a cell failed, when an earlier result was kept in its place. */
+  const failures = shallowRef<Record<string, string>>({});
   let runCancelled = false;
   let executor: BrowserExecutor | null = null;
   /** True from a run's click until it shows as running (see run). */
   let starting = false;
 
   const kept = (cellId: string): KeptOutput | undefined => {
+    // A result kept after a failed run is shown, never reused as current.
+    if (failures.value[cellId] !== undefined) return undefined;
     const output = outputs.value[cellId];
     return output ? { output, fingerprint: outputFingerprints.value[cellId] ?? '' } : undefined;
   };
@@ -60,6 +64,7 @@ export function useSheetRuns(state: SheetDocumentState) {
       const sourceId = kindOf(cell).showsOutputOf?.(cell) ?? cell.id;
       const fingerprint = outputFingerprints.value[sourceId];
       if (fingerprint !== undefined && fingerprint !== state.fingerprints.value[sourceId]) stale.add(cell.id);
+      if (failures.value[sourceId] !== undefined) stale.add(cell.id);
     }
     return stale;
   });
@@ -67,7 +72,26 @@ export function useSheetRuns(state: SheetDocumentState) {
   function resetOutputs(): void {
     outputs.value = {};
     outputFingerprints.value = {};
+    failures.value = {};
     runNotice.value = null;
+  }
+
+  /**
+   * A new output for a cell. A failure does not wipe an earlier result: the result stays (shown
+   * as stale) beside the failure, so a bad edit or a worker that died loses nothing.
+   */
+  function record(cellId: string, output: CellOutput, fingerprint: string): void {
+    const previous = outputs.value[cellId];
+    if (output.kind === 'error' && previous !== undefined && previous.kind !== 'error') {
+      failures.value = { ...failures.value, [cellId]: output.message };
+      return;
+    }
+    if (failures.value[cellId] !== undefined) {
+      const { [cellId]: _cleared, ...rest } = failures.value;
+      failures.value = rest;
+    }
+    outputs.value = { ...outputs.value, [cellId]: output };
+    outputFingerprints.value = { ...outputFingerprints.value, [cellId]: fingerprint };
   }
 
   async function run(targetId: string | null): Promise<void> {
@@ -110,10 +134,7 @@ export function useSheetRuns(state: SheetDocumentState) {
         onProgress: (_cellId, next) => {
           progress.value = next;
         },
-        onCellOutput: (cellId, { output, fingerprint }) => {
-          outputs.value = { ...outputs.value, [cellId]: output };
-          outputFingerprints.value = { ...outputFingerprints.value, [cellId]: fingerprint };
-        },
+        onCellOutput: (cellId, { output, fingerprint }) => record(cellId, output, fingerprint),
         isCancelled: () => runCancelled,
       });
       if (result.cancelled) runNotice.value = 'Run cancelled. Results finished before the cancel are kept.';
@@ -150,7 +171,9 @@ export function useSheetRuns(state: SheetDocumentState) {
     progress,
     stepStartedAt,
     runNotice,
+    failures,
     staleCellIds,
+    record,
     resetOutputs,
     run,
     cancelRun,

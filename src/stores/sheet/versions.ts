@@ -60,7 +60,7 @@ export function useSheetVersions(state: SheetDocumentState, drafts: SheetDraftsS
       } else {
         state.serverDocument.value = sheet.document;
         state.document.value = sheet.document;
-        drafts.restoreDraft(sheet.version, sheet.updatedAt);
+        drafts.restoreDraft(sheet.version);
       }
       drafts.readRecovery();
       state.checkNow();

@@ -67,7 +67,8 @@ describe('run cost estimate', () => {
     const cost = estimateRunCost(cell, 2, 5)!;
     expect(cost.pathSteps).toBe(1e8);
     expect(cost.workers).toBe(4);
-    expect(cost.seconds).toBeCloseTo(1e8 / (40e6 * 4), 12);
+    // The engine's nominal rate counts state-steps: two states, four workers.
+    expect(cost.seconds).toBeCloseTo((1e8 * 2) / (40e6 * 4), 12);
     expect(cost.bytes).toBe(100_000 * 101 * 2 * 8);
     expect(cost.warning).toBeNull();
   });
@@ -79,8 +80,8 @@ describe('run cost estimate', () => {
     expect(cost.warning).toMatch(/1\.61 GB/);
   });
 
-  it('derives the steps from a step size, rounding up', () => {
-    expect(stepCount({ t0: 0, t1: 1, stepSize: 0.3 })).toBe(4);
+  it('derives the steps from a step size as the plan does (nearest whole step)', () => {
+    expect(stepCount({ t0: 0, t1: 1, stepSize: 0.3 })).toBe(3);
     expect(stepCount({ t0: 0, t1: 1, stepSize: 0.25 })).toBe(4);
     expect(formatBytes(2_500_000)).toBe('2.50 MB');
   });

@@ -153,17 +153,26 @@ describe('ChartCell', () => {
 });
 
 describe('SimulationCell output', () => {
-  it('summarises the run: paths, steps, time, blow-ups with the suggestion, digest and final statistics', () => {
+  it('summarises the run: paths, steps, time, lost paths with the advice, digest and final statistics', () => {
     const sheet = reservoirSheet();
     const output = simulationOutput();
     if (output.kind !== 'simulation') throw new Error('fixture');
-    output.result.blowups = { count: 3, firstTime: 12.5, suggestion: 'Try a smaller step.' };
+    output.result.losses = {
+      ...output.result.losses,
+      count: 3,
+      share: 0.03,
+      byCause: { domain: 0, infinite: 0, bound: 3 },
+      firstTime: 12.5,
+      conditional: true,
+      message: '3 of 100 paths (3 %) were lost, the first at t = 12.50: 3 beyond the bound.',
+      advice: ['Try a smaller step.'],
+    };
     const wrapper = mount(SimulationCell, {
       props: editorProps(sheet, cellOf(sheet, 'level-run', 'simulation'), { 'level-run': output }),
     });
     mounted.push(wrapper);
     const summary = wrapper.find('[aria-label="Simulation summary"]');
-    expect(summary.text()).toMatch(/3 paths blew up\s+\(first at t = 12\.5\)/);
+    expect(summary.text()).toContain('3 of 100 paths (3 %) were lost, the first at t = 12.50');
     expect(summary.text()).toContain('Try a smaller step.');
     expect(summary.text()).toContain('0123456789abcdef');
     // Final mean of the fixture: 2.5 + 10 · 0.01.

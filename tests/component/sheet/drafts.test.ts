@@ -95,9 +95,57 @@ describe('local drafts', () => {
     ({ wrapper } = await mountSheet());
     expect(titleInput().value).toBe('Pond algae');
     expect(JSON.parse(localStorage.getItem(RECOVERY_KEY)!).document.title).toBe('An old idea');
-    await click(buttonNamed('Restore my copy'));
+    await click(buttonNamed('Keep my changes on top of version 5'));
     expect(titleInput().value).toBe('An old idea');
     expect(useSheetEditorStore().baseVersion).toBe(5);
+  });
+});
+
+describe('a draft older than the newest version', () => {
+  it('is offered, never applied, even when it was written after the newest version', async () => {
+    // Version 5 was saved before this draft was last written (another person, another clock).
+    serve(pondSheet(), 5, new Date('2026-11-02T08:00:00Z'));
+    const older = { ...pondSheet(), title: 'An old idea' };
+    storeDraft(older, 3, new Date('2026-11-03T09:30:00Z'));
+    ({ wrapper } = await mountSheet());
+    expect(titleInput().value).toBe('Pond algae');
+    expect(document.body.textContent).toMatch(/based on version 3.*the newest is version 5/);
+    expect(useSheetEditorStore().baseVersion).toBe(5);
+  });
+
+  it('compares the draft with the newest version, cell by cell', async () => {
+    serve(pondSheet(), 5, new Date('2026-11-04T10:00:00Z'));
+    const older = pondSheet();
+    const simulation = older.cells[3]!;
+    if (simulation.kind !== 'simulation') throw new Error('fixture');
+    simulation.paths = 800;
+    storeDraft(older, 3, new Date('2026-11-03T09:30:00Z'));
+    ({ wrapper } = await mountSheet());
+    await click(buttonNamed('Compare with version 5'));
+    const list = document.querySelector('[aria-label="Changes in your draft"]');
+    expect(list?.textContent).toMatch(/Simulation/);
+    expect(list?.textContent).toMatch(/paths/);
+    expect(list?.textContent).toMatch(/800/);
+  });
+
+  it('can be kept on top of the newest version or discarded', async () => {
+    serve(pondSheet(), 5, new Date('2026-11-04T10:00:00Z'));
+    storeDraft({ ...pondSheet(), title: 'An old idea' }, 3, new Date('2026-11-03T09:30:00Z'));
+    ({ wrapper } = await mountSheet());
+    await click(buttonNamed('Discard my draft'));
+    expect(titleInput().value).toBe('Pond algae');
+    expect(localStorage.getItem(RECOVERY_KEY)).toBeNull();
+    expect(document.body.textContent).not.toContain('based on version 3');
+  });
+
+  it('shows in the header the version the draft is based on and the newest one', async () => {
+    serve(pondSheet(), 5, new Date('2026-11-04T10:00:00Z'));
+    storeDraft({ ...pondSheet(), title: 'An old idea' }, 3, new Date('2026-11-03T09:30:00Z'));
+    ({ wrapper } = await mountSheet());
+    await click(buttonNamed('Keep my changes on top of version 5'));
+    const header = document.querySelector('header.sheet-header')!.textContent!;
+    expect(header).toMatch(/draft based on version 5/);
+    expect(header).toMatch(/newest version 5/);
   });
 });
 
@@ -174,7 +222,7 @@ describe('saving a version', () => {
       expect(titleInput().value).toBe('Pond algae, their edit');
       expect(document.body.textContent).toContain('version 4');
       expect(JSON.parse(localStorage.getItem(RECOVERY_KEY)!).document.title).toBe('Pond algae, my edit');
-      await click(buttonNamed('Restore my copy'));
+      await click(buttonNamed('Keep my changes on top of version 4'));
       expect(titleInput().value).toBe('Pond algae, my edit');
       expect(useSheetEditorStore().baseVersion).toBe(4);
     });

@@ -3,7 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { RunCancelledError } from '@shared/run/chunk-pool';
 import type { RunExecutor } from '@shared/cells/kind';
 import { inProcessExecutor } from '@shared/run/environments';
-import { runSheetToJson } from '@shared/run/run-sheet';
+import { runSheet, runSheetToJson } from '@shared/run/run-sheet';
 import type { CellOutputJson } from '@shared/run/outputs';
 import { simulate } from '@shared/engine/simulate';
 import { buildSimulationPlan, sheetDocumentSchema } from '@shared/sheet/index';
@@ -104,5 +104,21 @@ describe('runSheet (the orchestrator, through its JSON view)', () => {
       runStudy: () => Promise.reject(new Error('should not be reached')),
     };
     await expect(runSheetToJson(fixture, env)).rejects.toBeInstanceOf(RunCancelledError);
+  });
+});
+
+describe('run failures in words', () => {
+  it('names the cell by its title and the field by its label, never by internal ids', async () => {
+    const doc = structuredClone(fixture);
+    const model = doc.cells.find((cell) => cell.kind === 'model')!;
+    if (model.kind !== 'model') throw new Error('fixture');
+    model.name = 'Mean-reverting anomaly';
+    model.states[0]!.drift = 'theta * (mu - nosuch)';
+    const run = await runSheet(doc, { executor: inProcessExecutor() });
+    const failed = [...run.outputs.values()].find((kept) => kept.output.kind === 'error')!.output;
+    if (failed.kind !== 'error') throw new Error('expected a failure');
+    expect(failed.message).toContain(`Model 'Mean-reverting anomaly', drift of ${model.states[0]!.name}:`);
+    expect(failed.message).not.toContain(`cell ${model.id}`);
+    expect(failed.message).not.toContain('states[0]');
   });
 });

@@ -578,6 +578,19 @@ describe('checkSheet', () => {
       ).toEqual([expect.objectContaining({ cellId: 'fan', path: ['stateY'] })]);
     });
 
+    it('wants a second, existing and different state for a covariance or correlation probe', () => {
+      const probe = { id: 'high', kind: 'probe' as const, simulation: 'run', state: 'x' };
+      expect(checkSheet(ouWith({ ...probe, quantity: 'covariance' }))).toEqual([
+        { cellId: 'high', path: ['stateY'], message: 'a covariance needs a second state variable' },
+      ]);
+      expect(checkSheet(ouWith({ ...probe, quantity: 'correlation', stateY: 'x' }))).toEqual([
+        { cellId: 'high', path: ['stateY'], message: 'a correlation needs two different state variables' },
+      ]);
+      expect(checkSheet(ouWith({ ...probe, quantity: 'correlation', stateY: 'y' }))).toEqual([
+        expect.objectContaining({ cellId: 'high', path: ['stateY'] }),
+      ]);
+    });
+
     it('wants an exact solution for an exact study reference', () => {
       const noExact = modelCell({
         states: [{ name: 'x', initial: '1', drift: '-x', diffusion: { W: 'sigma' } }],
