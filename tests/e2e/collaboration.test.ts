@@ -1,14 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
-import {
-  appUrl,
-  launchBrowser,
-  signIn,
-  signUp,
-  uniqueEmail,
-  watchPageErrors,
-  withFailureShot,
-} from './browser';
+import { appUrl, launchBrowser, signIn, uniqueEmail, watchPageErrors, withFailureShot } from './browser';
 
 /**
  * Working together, in three browser contexts: the owner (a demo member), a new person invited by

@@ -175,6 +175,7 @@ describe('moving, duplicating and deleting cells', () => {
     );
     expect(labels).toEqual([
       'Run model cell',
+      'Comments on model cell: 0 open',
       'Move model cell up',
       'Move model cell down',
       'Duplicate model cell',
