@@ -17,7 +17,7 @@ export interface NewerVersion {
  * person tries to save (a save on a stale base still gets the 409 choice). The timer is stopped
  * by `stopHeadPolling`, which the page calls when it unmounts or leaves the sheet.
  */
-export function useSheetHead(state: SheetDocumentState, schedule = { setInterval, clearInterval }) {
+export function useSheetHead(state: SheetDocumentState) {
   const newerVersion = ref<NewerVersion | null>(null);
   let timer: ReturnType<typeof setInterval> | null = null;
   let etag: string | null = null;
@@ -42,11 +42,11 @@ export function useSheetHead(state: SheetDocumentState, schedule = { setInterval
     polledSheet = state.sheetId.value;
     etag = null;
     newerVersion.value = null;
-    timer = schedule.setInterval(() => void checkHead(), HEAD_POLL_MS);
+    timer = setInterval(() => void checkHead(), HEAD_POLL_MS);
   }
 
   function stopHeadPolling(): void {
-    if (timer !== null) schedule.clearInterval(timer);
+    if (timer !== null) clearInterval(timer);
     timer = null;
     polledSheet = null;
   }
