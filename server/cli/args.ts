@@ -12,11 +12,19 @@ export interface RunArguments {
   pathsScale: number | null;
 }
 
+/** `verify <file.json> --digests <digests.json>`: rerun the sheet and compare with saved digests. */
+export interface VerifyArguments {
+  command: 'verify';
+  file: string;
+  digests: string;
+  workers: number | null;
+}
+
 export interface HelpArguments {
   command: 'help';
 }
 
-export type CliArguments = RunArguments | HelpArguments;
+export type CliArguments = RunArguments | VerifyArguments | HelpArguments;
 
 export class UsageError extends Error {
   constructor(message: string) {
@@ -26,6 +34,7 @@ export class UsageError extends Error {
 }
 
 export const USAGE = `Usage: npm run --silent sheet -- run <file.json> [--workers N] [--paths-scale F]
+       npm run --silent sheet -- verify <file.json> --digests <digests.json> [--workers N]
 
 Validates the sheet, runs every simulation, probe and study cell, and prints one JSON
 object { "title", "cells": [...] } on stdout.
@@ -35,6 +44,12 @@ object { "title", "cells": [...] } on stdout.
 
 Warnings (estimates conditional on surviving paths, an unstable step) go to stderr and into
 the JSON of the cells concerned.
+
+verify reruns every simulation and compares it with the saved digests: a version's
+{ "engineVersion", "digests": { cellId: digest } } or the JSON an earlier "run" printed. Under
+the same engine version the digests must be equal bit for bit; under another one, each state's
+final mean and variance must agree within their Monte Carlo standard errors (needs the run JSON).
+verify exits 0 when everything reproduces and 1 with a plain report when not.
 
 Exit codes: 0 done, 1 invalid sheet (details on stderr) or a cell failed, 2 usage error,
 3 a simulation lost every path (no estimates).`;
@@ -52,8 +67,10 @@ export function parseArguments(argv: readonly string[]): CliArguments {
   const [command, ...rest] = argv;
   if (command === undefined || command === 'help' || command === '--help' || command === '-h')
     return { command: 'help' };
-  if (command !== 'run') throw new UsageError(`unknown command "${command}"; the only command is "run"`);
+  if (command !== 'run' && command !== 'verify')
+    throw new UsageError(`unknown command "${command}"; the commands are "run" and "verify"`);
   let file: string | undefined;
+  let digests: string | undefined;
   let workers: number | null = null;
   let pathsScale: number | null = null;
   for (let i = 0; i < rest.length; i++) {
@@ -65,7 +82,11 @@ export function parseArguments(argv: readonly string[]): CliArguments {
     if (flag === '--workers') {
       workers = positiveNumber('--workers', inline ?? rest[++i], true);
       if (workers > 256) throw new UsageError('--workers is at most 256');
-    } else if (flag === '--paths-scale') {
+    } else if (flag === '--digests' && command === 'verify') {
+      const value = inline ?? rest[++i];
+      if (value === undefined || value.startsWith('--')) throw new UsageError('--digests needs a file');
+      digests = value;
+    } else if (flag === '--paths-scale' && command === 'run') {
       pathsScale = positiveNumber('--paths-scale', inline ?? rest[++i], false);
     } else if (flag.startsWith('-')) {
       throw new UsageError(`unknown option "${flag}"`);
@@ -75,6 +96,11 @@ export function parseArguments(argv: readonly string[]): CliArguments {
       throw new UsageError(`only one sheet file, got "${file}" and "${arg}"`);
     }
   }
-  if (file === undefined) throw new UsageError('run needs a sheet file: run <file.json>');
+  if (file === undefined) throw new UsageError(`${command} needs a sheet file: ${command} <file.json>`);
+  if (command === 'verify') {
+    if (digests === undefined)
+      throw new UsageError('verify needs the saved digests: --digests <digests.json>');
+    return { command: 'verify', file, digests, workers };
+  }
   return { command: 'run', file, workers, pathsScale };
 }

@@ -61,11 +61,14 @@ export function withTitle(document: unknown, title: string): unknown {
   return document && typeof document === 'object' ? { ...document, title } : document;
 }
 
+/** A listed row is one the caller can read, so it has a role: none would be a query's bug. */
 export function toSheetSummary(row: SheetRecord, user: SheetActor): SheetSummary {
+  const role = roleOn(row, user);
+  if (!role) throw new Error(`sheet ${row.id} was listed for a user without a role on it`);
   return {
     id: row.id,
     title: row.title,
-    role: roleOn(row, user) ?? undefined,
+    role,
     owner: { id: row.ownerId, name: row.ownerName },
     version: row.currentVersion,
     forkedFrom: row.forkedFrom,

@@ -73,24 +73,19 @@ export type SavedVersion = z.infer<typeof savedVersionSchema>;
 
 /**
  * Dates are ISO 8601 strings on the wire; the client's api/ functions turn them into Dates.
- *
- * Fields marked "always sent" are in every answer of this server; they are optional in these
- * schemas only so that client code and fixtures written before them still type-check, and
- * become required once the client reads them.
  */
 const callerRoleSchema = z.enum(SHEET_ROLES);
 
 export const sheetSummarySchema = z.object({
   id: z.string(),
   title: z.string(),
-  /** The caller's role on the sheet (always sent). */
-  role: callerRoleSchema.optional(),
-  /** Always sent. */
-  owner: z.object({ id: z.string(), name: z.string() }).optional(),
+  /** The caller's role on the sheet. */
+  role: callerRoleSchema,
+  owner: z.object({ id: z.string(), name: z.string() }),
   version: z.number().int(),
   forkedFrom: z.string().nullable(),
-  /** The version of `forkedFrom` this sheet was made from (always sent). */
-  forkedFromVersion: z.number().int().nullable().optional(),
+  /** The version of `forkedFrom` this sheet was made from. */
+  forkedFromVersion: z.number().int().nullable(),
   createdAt: z.string(),
   updatedAt: z.string(),
 });
@@ -113,21 +108,19 @@ export const sheetDetailSchema = z.object({
   id: z.string(),
   title: z.string(),
   owner: z.object({ id: z.string(), name: z.string() }),
-  /** The caller's role on the sheet (always sent). */
-  role: callerRoleSchema.optional(),
-  /** Always sent. */
-  forkSource: forkSourceSchema.nullable().optional(),
-  /** Forks of this sheet the caller can read (always sent). */
-  forkCount: z.number().int().optional(),
+  /** The caller's role on the sheet. */
+  role: callerRoleSchema,
+  forkSource: forkSourceSchema.nullable(),
+  /** Forks of this sheet the caller can read. */
+  forkCount: z.number().int(),
   version: z.number().int(),
   forkedFrom: z.string().nullable(),
-  /** Always sent. */
-  forkedFromVersion: z.number().int().nullable().optional(),
+  forkedFromVersion: z.number().int().nullable(),
   /** The current version's document (a SheetDocument). */
   document: z.unknown(),
   digests: versionDigestsSchema,
-  /** The engine version that made `digests`; null when the version has none (always sent). */
-  engineVersion: z.number().int().nullable().optional(),
+  /** The engine version that made `digests`; null when the version has none. */
+  engineVersion: z.number().int().nullable(),
   createdAt: z.string(),
   updatedAt: z.string(),
 });
@@ -148,8 +141,8 @@ export type VersionList = z.infer<typeof versionListSchema>;
 export const versionDetailSchema = versionSummarySchema.extend({
   document: z.unknown(),
   digests: versionDigestsSchema,
-  /** The engine version that made `digests`; null when the version has none (always sent). */
-  engineVersion: z.number().int().nullable().optional(),
+  /** The engine version that made `digests`; null when the version has none. */
+  engineVersion: z.number().int().nullable(),
 });
 export type VersionDetail = z.infer<typeof versionDetailSchema>;
 

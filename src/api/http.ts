@@ -151,6 +151,39 @@ export async function request<T>(path: string, options: RequestOptions = {}): Pr
   }
 }
 
+/**
+ * A GET sent with If-None-Match: `null` when the server answers 304 (nothing changed), else the
+ * body and the new ETag. Other failures throw an ApiError like `request`.
+ */
+export async function requestIfChanged(
+  path: string,
+  etag: string | null,
+): Promise<{ body: unknown; etag: string | null } | null> {
+  const headers: Record<string, string> = { Accept: 'application/json' };
+  if (etag) headers['If-None-Match'] = etag;
+  let response: Response;
+  try {
+    response = await fetch(path, { method: 'GET', headers, credentials: 'same-origin', cache: 'no-store' });
+  } catch {
+    throw new ApiError({ status: 0, code: 'network.unreachable', message: NETWORK_ERROR_MESSAGE });
+  }
+  if (response.status === 304) return null;
+  if (!response.ok) {
+    const error = await errorFromResponse(response, path);
+    if (error.status === 401 && unauthorizedListener) unauthorizedListener(error);
+    throw error;
+  }
+  try {
+    return { body: await response.json(), etag: response.headers.get('ETag') };
+  } catch {
+    throw new ApiError({
+      status: response.status,
+      code: 'http.bad_json',
+      message: 'The server sent an answer Meander cannot read.',
+    });
+  }
+}
+
 /** Parses an ISO date string from the API; an unparseable value is a bug on the server's side. */
 export function toDate(value: string | Date): Date {
   if (value instanceof Date) return value;

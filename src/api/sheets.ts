@@ -1,6 +1,8 @@
 import {
   createdSheetSchema,
+  forkListSchema,
   savedVersionSchema,
+  sheetHeadSchema,
   sheetDetailSchema,
   sheetListSchema,
   versionDetailSchema,
@@ -16,7 +18,7 @@ import {
 import { API_ERROR_CODES } from '@shared/api/errors';
 import type { SheetDocument, SheetDocumentInput } from '@shared/sheet/document';
 import { parseSheetDocument } from '@shared/sheet/upgrade';
-import { ApiError, request, toDate } from './http';
+import { ApiError, request, requestIfChanged, toDate } from './http';
 import { parseAnswer } from './parse';
 
 /** Sheets and their versions. Dates arrive as ISO strings and leave here as `Date`s. */
@@ -142,4 +144,49 @@ export function versionConflict(error: unknown): number | null {
   if (!(error instanceof ApiError) || error.code !== API_ERROR_CODES.versionConflict) return null;
   const current = error.details.currentVersion;
   return typeof current === 'number' ? current : null;
+}
+
+/** Saves an old version's document as a new current version; returns its number. */
+export async function restoreVersion(id: string, number: number): Promise<number> {
+  const raw = await request(`${sheetPath(id)}/versions/${number}/restore`, { method: 'POST' });
+  return parseAnswer(savedVersionSchema, raw, 'the restored version').number;
+}
+
+/** Copies a version (the current one when omitted) into a new sheet the caller owns. */
+export async function forkSheet(
+  id: string,
+  body: { version?: number; title?: string } = {},
+): Promise<CreatedSheet> {
+  const raw = await request(`${sheetPath(id)}/forks`, { method: 'POST', body });
+  return parseAnswer(createdSheetSchema, raw, 'the fork');
+}
+
+/** Forks of a sheet that the caller can read. */
+export async function listForks(id: string): Promise<SheetSummary[]> {
+  const answer = parseAnswer(forkListSchema, await request(`${sheetPath(id)}/forks`), 'the forks');
+  return answer.forks.map((sheet) => ({
+    ...sheet,
+    createdAt: toDate(sheet.createdAt),
+    updatedAt: toDate(sheet.updatedAt),
+  }));
+}
+
+export interface SheetHead {
+  version: number;
+  title: string;
+  updatedAt: Date;
+}
+
+/**
+ * The sheet's newest version, cheaply: with the `etag` of the last answer, `null` while nothing
+ * changed (the server answers 304 without a body).
+ */
+export async function getHead(
+  id: string,
+  etag: string | null,
+): Promise<{ head: SheetHead; etag: string | null } | null> {
+  const answer = await requestIfChanged(`${sheetPath(id)}/head`, etag);
+  if (answer === null) return null;
+  const head = parseAnswer(sheetHeadSchema, answer.body, 'the sheet head');
+  return { head: { ...head, updatedAt: toDate(head.updatedAt) }, etag: answer.etag };
 }

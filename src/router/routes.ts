@@ -49,6 +49,13 @@ export const routes: RouteRecordRaw[] = [
     meta: { title: 'Sheet' },
   },
   {
+    path: '/invitations/:token',
+    name: 'invitation',
+    component: () => import('@/views/InvitationView.vue'),
+    props: true,
+    meta: { title: 'Invitation', public: true },
+  },
+  {
     path: '/account',
     name: 'account',
     component: () => import('@/views/AccountView.vue'),

@@ -3,8 +3,9 @@ import { ref } from 'vue';
 import * as sheetsApi from '@/api/sheets';
 import type { CreatedSheet, SheetSummary } from '@/api/sheets';
 import { errorMessage } from '@/api/http';
+import { useSessionStore } from './session';
 
-/** The signed-in user's sheet list: load, create, rename, delete. */
+/** The signed-in user's sheets and those shared with them: load, create, rename, delete. */
 export const useSheetsStore = defineStore('sheets', () => {
   const items = ref<SheetSummary[]>([]);
   const loaded = ref(false);
@@ -27,12 +28,16 @@ export const useSheetsStore = defineStore('sheets', () => {
   async function create(title: string): Promise<CreatedSheet> {
     const created = await sheetsApi.createSheet({ title: title.trim() });
     const now = new Date();
+    const me = useSessionStore().me;
     items.value = [
       {
         id: created.id,
         title: created.title,
+        role: 'owner',
+        owner: { id: me?.id ?? '', name: me?.name ?? '' },
         version: created.version,
         forkedFrom: null,
+        forkedFromVersion: null,
         createdAt: now,
         updatedAt: now,
       },

@@ -1,6 +1,7 @@
 import { computed, ref, shallowRef } from 'vue';
 import type { Cell, CellKind, SheetDocument } from '@shared/sheet/document';
 import type { CellIssue } from '@shared/sheet/issues';
+import { mayDo, type SheetAction, type SheetRole } from '@shared/api/rights';
 import * as cells from '@shared/sheet/cell-ops';
 import { collectIssues, sheetCellDependencies, sheetFingerprints, stableStringify } from '@shared/sheet';
 
@@ -21,12 +22,19 @@ export function useSheetDocument() {
   const latestVersion = ref(0);
   /** Set while reading an older version (read-only). */
   const viewingVersion = ref<number | null>(null);
+  /** The caller's role on the sheet; null until loaded. */
+  const role = ref<SheetRole | null>(null);
   const issues = shallowRef<Record<string, CellIssue[]>>({});
   const sheetIssues = shallowRef<string[]>([]);
   const lastDeleted = ref<cells.RemovedCell | null>(null);
   let onCommit: (next: SheetDocument, dirty: boolean) => void = () => {};
 
-  const readonly = computed(() => viewingVersion.value !== null);
+  /** What the caller's role allows (the rights table, shared with the server). */
+  const may = (action: SheetAction): boolean => mayDo(role.value, action);
+  /** Cells cannot be edited: an old version is shown, or the role may not save versions. */
+  const readonly = computed(() => viewingVersion.value !== null || !mayDo(role.value, 'saveVersion'));
+  /** Any role may run the current version in its own browser; an old version is only read. */
+  const canRun = computed(() => viewingVersion.value === null);
   const version = computed(() => viewingVersion.value ?? baseVersion.value);
   const dependencies = computed<Map<string, string[]>>(() => {
     if (!document.value) return new Map();
@@ -48,6 +56,7 @@ export function useSheetDocument() {
 
   function resetDocument(): void {
     document.value = null;
+    role.value = null;
     serverDocument.value = null;
     viewingVersion.value = null;
     issues.value = {};
@@ -130,6 +139,9 @@ export function useSheetDocument() {
     latestVersion,
     viewingVersion,
     version,
+    role,
+    may,
+    canRun,
     issues,
     sheetIssues,
     lastDeleted,

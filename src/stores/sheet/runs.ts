@@ -2,7 +2,7 @@ import { computed, ref, shallowRef } from 'vue';
 import { kindOf } from '@shared/cells/registry';
 import type { RunExecutor } from '@shared/cells/kind';
 import type { SheetDocument } from '@shared/sheet/document';
-import { currentDigests, runSheet, type KeptOutput } from '@shared/run/run-sheet';
+import { currentDigests, runSheet, type KeptOutput, type SheetRun } from '@shared/run/run-sheet';
 import { planRunSteps } from '@shared/run/steps';
 import type { CellOutput } from '@shared/run/outputs';
 import type { RunProgress } from '@shared/run/progress';
@@ -95,7 +95,7 @@ export function useSheetRuns(state: SheetDocumentState) {
   }
 
   async function run(targetId: string | null): Promise<void> {
-    if (running.value || starting || !state.document.value || state.readonly.value) return;
+    if (running.value || starting || !state.document.value || !state.canRun.value) return;
     // A plain deep copy: edits made while the run goes on do not leak into it, and the plans built
     // from it hold no reactive proxies (which cannot be posted to a worker).
     const doc = JSON.parse(JSON.stringify(state.document.value)) as SheetDocument;
@@ -148,6 +148,37 @@ export function useSheetRuns(state: SheetDocumentState) {
     }
   }
 
+  /**
+   * Runs a whole document (an old version, for "rerun and compare") on the page's worker pool,
+   * through the same orchestrator, without touching the outputs shown on the cells.
+   */
+  async function runDocument(doc: SheetDocument): Promise<SheetRun> {
+    if (running.value || starting) throw new Error('A run is going on: wait for it to finish or cancel it.');
+    running.value = true;
+    runCancelled = false;
+    try {
+      await nextTask();
+      if (!executor) executor = await createBrowserExecutor();
+      const copy = JSON.parse(JSON.stringify(doc)) as SheetDocument;
+      return await runSheet(copy, {
+        executor,
+        onStepStart: (step) => {
+          runningCellId.value = step.cellId;
+          stepStartedAt.value = performance.now();
+        },
+        onProgress: (_cellId, next) => {
+          progress.value = next;
+        },
+        isCancelled: () => runCancelled,
+      });
+    } finally {
+      running.value = false;
+      runningCellId.value = null;
+      progress.value = null;
+      stepStartedAt.value = null;
+    }
+  }
+
   function cancelRun(): void {
     if (!running.value) return;
     runCancelled = true;
@@ -176,6 +207,7 @@ export function useSheetRuns(state: SheetDocumentState) {
     record,
     resetOutputs,
     run,
+    runDocument,
     cancelRun,
     dismissRunNotice,
     digestsNow,

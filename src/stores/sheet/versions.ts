@@ -6,6 +6,7 @@ import {
   listVersions,
   saveVersion,
   versionConflict,
+  type SheetDetail,
   type VersionSummary,
 } from '@/api/sheets';
 import { ENGINE_VERSION } from '@shared/engine/version';
@@ -23,6 +24,8 @@ export function useSheetVersions(state: SheetDocumentState, drafts: SheetDraftsS
   const serverTitle = ref('');
   const serverUpdatedAt = ref<Date | null>(null);
   const owner = ref<{ id: string; name: string } | null>(null);
+  /** Where this sheet was forked from, and how many forks of it the caller can read. */
+  const lineage = ref<Pick<SheetDetail, 'forkSource' | 'forkCount' | 'forkedFromVersion'> | null>(null);
   const loading = ref(false);
   const loadError = ref<string | null>(null);
   const conflict = ref<{ currentVersion: number } | null>(null);
@@ -50,6 +53,12 @@ export function useSheetVersions(state: SheetDocumentState, drafts: SheetDraftsS
       serverTitle.value = sheet.title;
       serverUpdatedAt.value = sheet.updatedAt;
       owner.value = sheet.owner;
+      state.role.value = sheet.role;
+      lineage.value = {
+        forkSource: sheet.forkSource,
+        forkCount: sheet.forkCount,
+        forkedFromVersion: sheet.forkedFromVersion,
+      };
       state.latestVersion.value = sheet.version;
       state.baseVersion.value = sheet.version;
       if (options.version != null && options.version !== sheet.version) {
@@ -160,6 +169,7 @@ export function useSheetVersions(state: SheetDocumentState, drafts: SheetDraftsS
     serverTitle,
     serverUpdatedAt,
     owner,
+    lineage,
     loading,
     loadError,
     conflict,

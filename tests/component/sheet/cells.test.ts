@@ -25,7 +25,12 @@ function serve(document: SheetDocument): void {
     title: document.title,
     owner: { id: 'u1', name: 'Mira Okafor' },
     version: 2,
+    role: 'owner',
+    forkSource: null,
+    forkCount: 0,
     forkedFrom: null,
+    forkedFromVersion: null,
+    engineVersion: null,
     document,
     digests: {},
     createdAt: new Date('2026-11-01T08:00:00Z'),
@@ -170,6 +175,7 @@ describe('moving, duplicating and deleting cells', () => {
     );
     expect(labels).toEqual([
       'Run model cell',
+      'Comments on model cell: 0 open',
       'Move model cell up',
       'Move model cell down',
       'Duplicate model cell',

@@ -32,7 +32,12 @@ beforeEach(() => {
     title: 'Pond algae',
     owner: { id: 'u1', name: 'Mira Okafor' },
     version: 3,
+    role: 'owner',
+    forkSource: null,
+    forkCount: 0,
     forkedFrom: null,
+    forkedFromVersion: null,
+    engineVersion: null,
     document: pondSheet(),
     digests: {},
     createdAt: new Date('2026-11-01T08:00:00Z'),
@@ -119,6 +124,7 @@ describe('older versions', () => {
       createdAt: new Date('2026-11-02T07:00:00Z'),
       document: oldDocument,
       digests: {},
+      engineVersion: null,
     });
     const mounted = await mountSheet();
     wrapper = mounted.wrapper;

@@ -18,11 +18,19 @@ vi.mock('@/views/SheetView.vue', () => ({ default: { name: 'SheetViewStub', rend
 const auth = vi.mocked(authApi);
 const api = vi.mocked(sheetsApi);
 const owner = { id: 'u7', email: 'omar.field@example.test', name: 'Omar Field', role: 'member' as const };
-const sheet = (id: string, title: string, version: number) => ({
+const sheet = (
+  id: string,
+  title: string,
+  version: number,
+  shared?: { role: 'viewer' | 'commenter' | 'editor'; owner: string },
+) => ({
   id,
   title,
+  role: shared?.role ?? ('owner' as const),
+  owner: shared ? { id: 'u9', name: shared.owner } : { id: owner.id, name: owner.name },
   version,
   forkedFrom: null,
+  forkedFromVersion: null,
   createdAt: new Date('2026-03-01T09:00:00Z'),
   updatedAt: new Date('2026-03-02T10:30:00Z'),
 });
@@ -102,6 +110,50 @@ describe('sheet list', () => {
     expect(api.deleteSheet).toHaveBeenCalledWith('aq1');
     await vi.waitFor(() =>
       expect(document.querySelectorAll('ul[aria-label="Your sheets"] li')).toHaveLength(0),
+    );
+  });
+  it('groups sheets into mine and shared with me, with the owner and role of shared ones', async () => {
+    api.listSheets.mockResolvedValue([
+      sheet('aq1', 'Aquifer recharge anomaly', 4),
+      sheet('fs2', 'Harvested whitefish', 3, { role: 'commenter', owner: 'Lena Kowal' }),
+    ]);
+    ({ wrapper } = await mountAt('/sheets'));
+    await vi.waitFor(() =>
+      expect(document.querySelector('ul[aria-label="Sheets shared with you"]')).not.toBeNull(),
+    );
+    const mine = document.querySelector('ul[aria-label="Your sheets"]')!;
+    const shared = document.querySelector('ul[aria-label="Sheets shared with you"]')!;
+    expect(mine.textContent).toContain('Aquifer recharge anomaly');
+    expect(mine.textContent).not.toContain('Harvested whitefish');
+    expect(shared.textContent).toContain('Lena Kowal’s sheet');
+    expect(shared.textContent).toContain('you are commenter');
+    // A commenter may neither rename nor delete someone else's sheet.
+    expect(shared.querySelector('button[aria-label="Delete Harvested whitefish"]')).toBeNull();
+    expect(shared.querySelector('button[aria-label="Rename Harvested whitefish"]')).toBeNull();
+  });
+
+  it('filters both groups by the words searched, in title or owner', async () => {
+    api.listSheets.mockResolvedValue([
+      sheet('aq1', 'Aquifer recharge anomaly', 4),
+      sheet('cp2', 'Copper price index', 1),
+      sheet('fs2', 'Harvested whitefish', 3, { role: 'viewer', owner: 'Lena Kowal' }),
+    ]);
+    ({ wrapper } = await mountAt('/sheets'));
+    await vi.waitFor(() =>
+      expect(document.querySelectorAll('ul[aria-label="Your sheets"] li')).toHaveLength(2),
+    );
+    const search = document.querySelector<HTMLInputElement>('input[aria-label="Search sheets"]')!;
+    search.value = 'kowal';
+    search.dispatchEvent(new Event('input'));
+    await vi.waitFor(() => expect(document.querySelector('ul[aria-label="Your sheets"]')).toBeNull());
+    expect(document.querySelectorAll('ul[aria-label="Sheets shared with you"] li')).toHaveLength(1);
+    search.value = 'price COPPER';
+    search.dispatchEvent(new Event('input'));
+    await vi.waitFor(() =>
+      expect(document.querySelectorAll('ul[aria-label="Your sheets"] li')).toHaveLength(1),
+    );
+    expect(document.querySelector('ul[aria-label="Your sheets"]')!.textContent).toContain(
+      'Copper price index',
     );
   });
 });
