@@ -53,6 +53,7 @@ export async function startBareServer(db: Db): Promise<{ url: string; close(): P
               message: input.message,
               parentNumber: input.baseVersion,
               digests: {},
+              moments: {},
               engineVersion: null,
             });
             await txSheets.advance(sheet.id, { currentVersion: number, title: sheet.title, at: new Date() });

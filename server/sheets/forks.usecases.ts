@@ -15,7 +15,7 @@ export function createForksUsecases({
   sheetUsecases: Pick<SheetsUsecases, 'createSheet'>;
 }) {
   return {
-    /** Cell ids, digests and their engine version are kept; the link back is stored. */
+    /** Cell ids, digests, their moments and engine version are kept; the link back is stored. */
     async forkSheet(user: SheetActor, sheetId: string, input: ForkRequest): Promise<CreatedSheet> {
       const { sheet } = requireRight(await sheets.findForUser(sheetId, user.id), user, 'fork');
       const number = input.version ?? sheet.currentVersion;
@@ -26,6 +26,7 @@ export function createForksUsecases({
         document: version.document,
         forkedFrom: { sheetId: sheet.id, version: number },
         digests: version.digests,
+        moments: version.moments,
         engineVersion: version.engineVersion,
       });
     },

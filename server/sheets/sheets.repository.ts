@@ -141,6 +141,7 @@ export function createSheetsRepository({ db }: { db: DbExecutor }) {
           ...versionSummaryColumns,
           document: sheetVersions.document,
           digests: sheetVersions.digests,
+          moments: sheetVersions.moments,
           engineVersion: sheetVersions.engineVersion,
         })
         .from(sheetVersions)

@@ -10,7 +10,7 @@ import {
   text,
   timestamp,
 } from 'drizzle-orm/pg-core';
-import type { VersionDigests } from '@shared/api/sheets';
+import type { VersionDigests, VersionMoments } from '@shared/api/sheets';
 import { users } from '../users/users.table';
 
 export const sheets = pgTable(
@@ -54,6 +54,8 @@ export const sheetVersions = pgTable(
     /** The version this one was based on; null for the first. */
     parentNumber: integer('parent_number'),
     digests: jsonb('digests').$type<VersionDigests>().notNull().default({}),
+    /** Final mean and variance per state of the simulations in `digests` (see versionMomentsSchema). */
+    moments: jsonb('moments').$type<VersionMoments>().notNull().default({}),
     /**
      * ENGINE_VERSION of the engine that made the digests (shared/engine/version.ts); null exactly
      * when there are none. Digests compare bit for bit only under the same engine version.

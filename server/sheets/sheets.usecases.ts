@@ -10,6 +10,7 @@ import type {
   SheetSummary,
   VersionDetail,
   VersionDigests,
+  VersionMoments,
   VersionList,
 } from '@shared/api/sheets';
 import { ENGINE_VERSION } from '@shared/engine/version';
@@ -38,7 +39,7 @@ export function parseSheetDocument(document: unknown): SheetDocument {
   throw invalidDocumentFrom(result.error);
 }
 
-function checkDigests(document: SheetDocument, digests: Record<string, string>) {
+function checkDigests(document: SheetDocument, digests: Record<string, string>, moments: VersionMoments) {
   const simulationIds = new Set(
     document.cells.filter((cell) => cell.kind === 'simulation').map((cell) => cell.id),
   );
@@ -48,6 +49,12 @@ function checkDigests(document: SheetDocument, digests: Record<string, string>) 
         'digests',
         cellId,
       ]);
+    }
+  }
+  // Moments describe the runs the digests name, and no others.
+  for (const cellId of Object.keys(moments)) {
+    if (!Object.hasOwn(digests, cellId)) {
+      throw invalidDocument(`moments.${cellId}: there is no digest for this simulation`, ['moments', cellId]);
     }
   }
 }
@@ -102,7 +109,11 @@ export function createSheetsUsecases({ sheets, transact, now = () => new Date() 
      */
     async createSheet(
       user: SheetActor,
-      input: CreateSheetRequest & { digests?: VersionDigests; engineVersion?: number | null },
+      input: CreateSheetRequest & {
+        digests?: VersionDigests;
+        moments?: VersionMoments;
+        engineVersion?: number | null;
+      },
     ): Promise<CreatedSheet> {
       const document = parseSheetDocument(
         input.document === undefined
@@ -136,6 +147,7 @@ export function createSheetsUsecases({ sheets, transact, now = () => new Date() 
           message: source ? `Forked from version ${source.version}` : 'Created',
           parentNumber: null,
           digests,
+          moments: input.moments ?? {},
           engineVersion: digestsEngineVersion(digests, input.engineVersion ?? undefined),
         });
       });
@@ -206,7 +218,8 @@ export function createSheetsUsecases({ sheets, transact, now = () => new Date() 
     async saveVersion(user: SheetActor, sheetId: string, input: SaveVersionRequest): Promise<SavedVersion> {
       const document = parseSheetDocument(input.document);
       const digests = input.digests ?? {};
-      checkDigests(document, digests);
+      const moments = input.moments ?? {};
+      checkDigests(document, digests, moments);
       return transact(async (repositories) => {
         const { sheet } = requireRight(
           await repositories.sheets.findForUserForUpdate(sheetId, user.id),
@@ -223,6 +236,7 @@ export function createSheetsUsecases({ sheets, transact, now = () => new Date() 
           message: input.message,
           parentNumber: input.baseVersion,
           digests,
+          moments,
           engineVersion: digestsEngineVersion(digests, input.engineVersion),
         });
         await repositories.sheets.advance(sheet.id, {
@@ -258,6 +272,7 @@ export function createSheetsUsecases({ sheets, transact, now = () => new Date() 
           message: `Restored version ${number}`,
           parentNumber: sheet.currentVersion,
           digests: old.digests,
+          moments: old.moments,
           engineVersion: old.engineVersion,
         });
         await repositories.sheets.advance(sheet.id, {
@@ -295,6 +310,7 @@ export function createSheetsUsecases({ sheets, transact, now = () => new Date() 
         createdAt: row.createdAt.toISOString(),
         document: row.document,
         digests: row.digests,
+        moments: row.moments,
         engineVersion: row.engineVersion,
       };
     },

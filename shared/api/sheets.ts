@@ -41,6 +41,27 @@ export type RenameSheetRequest = z.infer<typeof renameSheetRequestSchema>;
 export const versionDigestsSchema = z.record(cellIdSchema, z.string().min(1).max(200));
 export type VersionDigests = z.infer<typeof versionDigestsSchema>;
 
+/**
+ * The final mean and variance of each state per simulation cell, over the paths not lost, saved
+ * beside the digests: a rerun under another engine version compares these within their Monte
+ * Carlo standard errors, since its digests cannot match.
+ */
+export const versionMomentsSchema = z
+  .record(
+    cellIdSchema,
+    z.object({
+      paths: z.number().int().min(0),
+      final: z
+        .record(
+          z.string().max(64),
+          z.object({ mean: z.number().nullable(), variance: z.number().nullable() }),
+        )
+        .refine((states) => Object.keys(states).length <= 16, 'a model has at most 16 state variables'),
+    }),
+  )
+  .refine((cells) => Object.keys(cells).length <= 500, 'a sheet holds at most 500 cells');
+export type VersionMoments = z.infer<typeof versionMomentsSchema>;
+
 /** ENGINE_VERSION of the engine that made a version's digests (shared/engine/version.ts). */
 export const engineVersionSchema = z
   .number()
@@ -57,6 +78,8 @@ export const saveVersionRequestSchema = z.object({
     .max(200, 'a version message is at most 200 characters'),
   document: z.unknown(),
   digests: versionDigestsSchema.optional(),
+  /** Final moments of the same simulations as `digests`. */
+  moments: versionMomentsSchema.optional(),
   /**
    * The engine version that made `digests`. A client that does not send it runs the engine
    * built with this server, so the server records its own ENGINE_VERSION.
@@ -141,6 +164,7 @@ export type VersionList = z.infer<typeof versionListSchema>;
 export const versionDetailSchema = versionSummarySchema.extend({
   document: z.unknown(),
   digests: versionDigestsSchema,
+  moments: versionMomentsSchema.default({}),
   /** The engine version that made `digests`; null when the version has none. */
   engineVersion: z.number().int().nullable(),
 });

@@ -9,6 +9,8 @@ import { SheetIssuesError } from '../sheet/issues';
 import { issueInWords } from '../sheet/issue-words';
 import { buildSimulationPlan } from '../sheet/plan';
 import { RunCancelledError } from './chunk-pool';
+import type { VersionMoments } from '../api/sheets';
+import { simulationRecord } from './compare';
 import { cellOutputJson, type CellOutput, type SheetRunJson } from './outputs';
 import type { RunProgress } from './progress';
 import { planRunSteps, type RunStep } from './steps';
@@ -142,18 +144,28 @@ export async function runSheetToJson(
   return { title: doc.title, engineVersion: run.engineVersion, cells };
 }
 
-/** Digests of the simulation outputs that match the document as it is now, for saving a version. */
-export function currentDigests(
+/**
+ * Digests of the simulation outputs that match the document as it is now, and their final mean
+ * and variance per state (over the paths not lost), for saving a version: a later rerun compares
+ * digests bit for bit, or, under another engine version, the moments within their errors.
+ */
+export function currentRunRecords(
   doc: SheetDocument,
   kept: (cellId: string) => KeptOutput | undefined,
   fingerprints: Readonly<Record<string, string>>,
-): Record<string, string> {
+): { digests: Record<string, string>; moments: VersionMoments } {
   const digests: Record<string, string> = {};
+  const moments: VersionMoments = {};
   for (const cell of doc.cells) {
     const output = kept(cell.id);
     if (cell.kind !== 'simulation' || output?.output.kind !== 'simulation') continue;
     if (output.fingerprint !== fingerprints[cell.id]) continue;
     digests[cell.id] = output.output.result.digest;
+    const json = cellOutputJson(cell.id, cell.kind, output.output);
+    if ('digest' in json) {
+      const record = simulationRecord(json);
+      moments[cell.id] = { paths: record.paths ?? 0, final: record.final ?? {} };
+    }
   }
-  return digests;
+  return { digests, moments };
 }

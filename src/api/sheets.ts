@@ -13,6 +13,7 @@ import {
   type SheetSummary as SheetSummaryWire,
   type VersionDetail as VersionDetailWire,
   type VersionDigests,
+  type VersionMoments,
   type VersionSummary as VersionSummaryWire,
 } from '@shared/api/sheets';
 import { API_ERROR_CODES } from '@shared/api/errors';
@@ -47,6 +48,8 @@ export interface SaveVersionBody {
   document: SheetDocument;
   /** Digest of each simulation cell's current output, by cell id. */
   digests?: VersionDigests;
+  /** Final mean and variance per state of the same simulations. */
+  moments?: VersionMoments;
   /** The engine version that made the digests. */
   engineVersion?: number;
 }

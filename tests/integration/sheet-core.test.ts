@@ -103,6 +103,42 @@ describe('digests carry the engine version that made them', () => {
   });
 });
 
+describe('final moments are saved with the digests', () => {
+  const moments = { run: { paths: 200, final: { H: { mean: 2.97, variance: 0.078 } } } };
+
+  it('returns them with the version, and a fork keeps them', async () => {
+    const created = (await createSheet(modeller, 'Aquifer moments')).body;
+    const save = await modeller.agent.post(`/api/sheets/${created.id}/versions`).send({
+      baseVersion: 1,
+      message: 'Ran it',
+      document: aquiferDocument('Aquifer moments'),
+      digests: { run: 'c0ffee04' },
+      moments,
+      engineVersion: ENGINE_VERSION,
+    });
+    expect(save.status).toBe(201);
+    const version = await modeller.agent.get(`/api/sheets/${created.id}/versions/2`);
+    expect(version.body.moments).toEqual(moments);
+    const fork = await modeller.agent.post(`/api/sheets/${created.id}/forks`).send({ version: 2 });
+    expect(fork.status).toBe(201);
+    const forked = await modeller.agent.get(`/api/sheets/${fork.body.id}/versions/1`);
+    expect(forked.body.moments).toEqual(moments);
+  });
+
+  it('refuses moments of a simulation that has no digest with 400 and writes nothing', async () => {
+    const created = (await createSheet(modeller, 'Aquifer stray moments')).body;
+    const save = await modeller.agent.post(`/api/sheets/${created.id}/versions`).send({
+      baseVersion: 1,
+      message: 'Stray',
+      document: aquiferDocument('Aquifer stray moments'),
+      moments,
+    });
+    expect(save.status).toBe(400);
+    expect(save.body.error.path).toEqual(['moments', 'run']);
+    expect((await modeller.agent.get(`/api/sheets/${created.id}`)).body.version).toBe(1);
+  });
+});
+
 describe('a new sheet made from another keeps its lineage', () => {
   it('stores the source sheet and version of "save mine as a new sheet"', async () => {
     const source = (await createSheet(modeller, 'Aquifer contested')).body;

@@ -116,7 +116,9 @@ export function useSheetHistory(
       }
       const savedRecords: Record<string, SimulationRecord> = {};
       for (const [cellId, digest] of Object.entries(saved.digests)) {
-        savedRecords[cellId] = { digest, engineVersion: saved.engineVersion };
+        // The saved moments let a rerun under another engine version be compared within errors.
+        const moments = Object.hasOwn(saved.moments, cellId) ? saved.moments[cellId] : undefined;
+        savedRecords[cellId] = { digest, engineVersion: saved.engineVersion, ...moments };
       }
       rerunCheck.value = {
         version: number,

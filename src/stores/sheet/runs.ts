@@ -2,7 +2,7 @@ import { computed, ref, shallowRef } from 'vue';
 import { kindOf } from '@shared/cells/registry';
 import type { RunExecutor } from '@shared/cells/kind';
 import type { SheetDocument } from '@shared/sheet/document';
-import { currentDigests, runSheet, type KeptOutput, type SheetRun } from '@shared/run/run-sheet';
+import { currentRunRecords, runSheet, type KeptOutput, type SheetRun } from '@shared/run/run-sheet';
 import { planRunSteps } from '@shared/run/steps';
 import type { CellOutput } from '@shared/run/outputs';
 import type { RunProgress } from '@shared/run/progress';
@@ -189,9 +189,9 @@ export function useSheetRuns(state: SheetDocumentState) {
     runNotice.value = null;
   }
 
-  /** Digests of the simulation outputs that match the document as it is now. */
-  function digestsNow(doc: SheetDocument): Record<string, string> {
-    return currentDigests(doc, kept, state.fingerprints.value);
+  /** Digests and final moments of the simulation outputs that match the document as it is now. */
+  function runRecordsNow(doc: SheetDocument) {
+    return currentRunRecords(doc, kept, state.fingerprints.value);
   }
 
   return {
@@ -210,7 +210,7 @@ export function useSheetRuns(state: SheetDocumentState) {
     runDocument,
     cancelRun,
     dismissRunNotice,
-    digestsNow,
+    runRecordsNow,
   };
 }
 

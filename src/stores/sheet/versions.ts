@@ -103,13 +103,13 @@ export function useSheetVersions(state: SheetDocumentState, drafts: SheetDraftsS
     saving.value = true;
     saveError.value = null;
     try {
-      const digests = runs.digestsNow(doc);
+      const { digests, moments } = runs.runRecordsNow(doc);
       const saved = await saveVersion(id, {
         baseVersion: state.baseVersion.value,
         message,
         document: doc,
         digests,
-        ...(Object.keys(digests).length > 0 ? { engineVersion: ENGINE_VERSION } : {}),
+        ...(Object.keys(digests).length > 0 ? { moments, engineVersion: ENGINE_VERSION } : {}),
       });
       state.baseVersion.value = saved.number;
       state.latestVersion.value = Math.max(state.latestVersion.value, saved.number);

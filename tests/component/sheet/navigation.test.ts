@@ -124,6 +124,7 @@ describe('older versions', () => {
       createdAt: new Date('2026-11-02T07:00:00Z'),
       document: oldDocument,
       digests: {},
+      moments: {},
       engineVersion: null,
     });
     const mounted = await mountSheet();

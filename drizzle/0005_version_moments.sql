@@ -1,0 +1,1 @@
+ALTER TABLE "sheet_versions" ADD COLUMN "moments" jsonb DEFAULT '{}'::jsonb NOT NULL;
