@@ -1,4 +1,6 @@
+import { isIdentifierChar, isIdentifierStart } from 'acorn';
 import { z } from 'zod';
+import { firstInvisibleCharacter } from '../expr/invisible';
 
 /** Field schemas that several cell kinds share. */
 
@@ -7,13 +9,30 @@ export const cellIdSchema = z
   .string()
   .regex(/^[A-Za-z0-9_-]{1,64}$/, 'a cell id is 1–64 letters, digits, "-" or "_"');
 
-/** A name usable inside expressions: a parameter, a state variable or a noise source. */
+/**
+ * A name usable inside expressions: a parameter, a state variable or a noise source. Letters of
+ * any alphabet (Unicode general category L: θ, σ, μ, Ω, ж, ø …), the digits 0–9 and "_"; it
+ * starts with a letter or "_"; at most 32 characters. Everything else is refused, including
+ * subscript and superscript digits (₁, ²: not letters), combining accents (type the composed
+ * letter) and invisible characters (zero-width joiners, direction marks), so that a name reads
+ * as it is. Generated code never contains a name: the plan builder replaces each one.
+ */
+export const SYMBOL_NAME_RULE =
+  'a name starts with a letter (any alphabet, e.g. θ or x) or "_", then has only letters, digits 0–9 and "_", at most 32 characters (no spaces, accents typed separately or subscript digits such as ₁: write θ1 or θ_1)';
+
 export const symbolNameSchema = z
   .string()
-  .regex(
-    /^[A-Za-z_][A-Za-z0-9_]{0,31}$/,
-    'a name starts with a letter or "_" and has only letters, digits and "_"',
-  );
+  .regex(/^[\p{L}_][\p{L}0-9_]{0,31}$/u, SYMBOL_NAME_RULE)
+  // The expression parser must read the name as one identifier; a few letters are not
+  // identifier characters to it (U+2E2F, and letters newer than its Unicode tables).
+  .refine(isParserIdentifier, SYMBOL_NAME_RULE)
+  // Hangul fillers are letters that show nothing.
+  .refine((name) => firstInvisibleCharacter(name) === null, SYMBOL_NAME_RULE);
+
+function isParserIdentifier(name: string): boolean {
+  const points = [...name].map((c) => c.codePointAt(0) ?? 0);
+  return points.every((code, i) => (i === 0 ? isIdentifierStart(code, true) : isIdentifierChar(code, true)));
+}
 
 /** Text of a restricted expression (checked by the expression compiler, not here). */
 export const expressionSchema = z.string().max(2000, 'an expression is at most 2000 characters');

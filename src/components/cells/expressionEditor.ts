@@ -56,9 +56,9 @@ export function createExpressionEditor(options: ExpressionEditorOptions): Expres
   ];
 
   const completionSource = (context: CompletionContext): CompletionResult | null => {
-    const word = context.matchBefore(/[A-Za-z_][A-Za-z0-9_]*/);
+    const word = context.matchBefore(/[\p{L}_][\p{L}0-9_]*/u);
     if (!word || (word.from === word.to && !context.explicit)) return null;
-    return { from: word.from, options: expressionCompletions(options.scope()), validFor: /^[A-Za-z0-9_]*$/ };
+    return { from: word.from, options: expressionCompletions(options.scope()), validFor: /^[\p{L}0-9_]*$/u };
   };
 
   const view = new EditorView({
