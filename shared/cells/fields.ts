@@ -1,4 +1,3 @@
-import { isIdentifierChar, isIdentifierStart } from 'acorn';
 import { z } from 'zod';
 import { firstInvisibleCharacter } from '../expr/invisible';
 
@@ -20,19 +19,15 @@ export const cellIdSchema = z
 export const SYMBOL_NAME_RULE =
   'a name starts with a letter (any alphabet, e.g. θ or x) or "_", then has only letters, digits 0–9 and "_", at most 32 characters (no spaces, accents typed separately or subscript digits such as ₁: write θ1 or θ_1)';
 
+/** A letter that JavaScript also reads as the start of a name (U+2E2F, a letter, is not one). */
+const LETTER = String.raw`(?:(?=\p{ID_Start})\p{L})`;
+const SYMBOL_NAME = new RegExp(String.raw`^(?:${LETTER}|_)(?:${LETTER}|[0-9_]){0,31}$`, 'u');
+
 export const symbolNameSchema = z
   .string()
-  .regex(/^[\p{L}_][\p{L}0-9_]{0,31}$/u, SYMBOL_NAME_RULE)
-  // The expression parser must read the name as one identifier; a few letters are not
-  // identifier characters to it (U+2E2F, and letters newer than its Unicode tables).
-  .refine(isParserIdentifier, SYMBOL_NAME_RULE)
+  .regex(SYMBOL_NAME, SYMBOL_NAME_RULE)
   // Hangul fillers are letters that show nothing.
   .refine((name) => firstInvisibleCharacter(name) === null, SYMBOL_NAME_RULE);
-
-function isParserIdentifier(name: string): boolean {
-  const points = [...name].map((c) => c.codePointAt(0) ?? 0);
-  return points.every((code, i) => (i === 0 ? isIdentifierStart(code, true) : isIdentifierChar(code, true)));
-}
 
 /** Text of a restricted expression (checked by the expression compiler, not here). */
 export const expressionSchema = z.string().max(2000, 'an expression is at most 2000 characters');
