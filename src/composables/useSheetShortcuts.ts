@@ -7,6 +7,8 @@ export interface SheetShortcutActions {
   cellIds(): string[];
   runCell(cellId: string): void;
   save(): void;
+  stop(): void;
+  help(): void;
   /** False while a dialog is open or the page is read-only for that action. */
   enabled(): boolean;
 }
@@ -28,9 +30,10 @@ export function useSheetShortcuts(actions: SheetShortcutActions): void {
     const shortcut = shortcutOf(event);
     if (!shortcut || !actions.enabled()) return;
     const cellId = cellIdOf(event.target) ?? cellIdOf(document.activeElement);
-    if (shortcut === 'save') {
+    const pageWide = { save: actions.save, stop: actions.stop, help: actions.help } as const;
+    if (shortcut === 'save' || shortcut === 'stop' || shortcut === 'help') {
       event.preventDefault();
-      actions.save();
+      pageWide[shortcut]();
       return;
     }
     if (shortcut === 'previous' || shortcut === 'next') {
@@ -41,7 +44,6 @@ export function useSheetShortcuts(actions: SheetShortcutActions): void {
     if (!cellId) return;
     event.preventDefault();
     actions.runCell(cellId);
-    if (shortcut === 'run-and-next') focusCell(neighbour(cellId, 1));
   };
 
   window.addEventListener('keydown', onKeydown);
