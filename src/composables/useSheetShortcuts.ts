@@ -9,6 +9,8 @@ export interface SheetShortcutActions {
   save(): void;
   stop(): void;
   help(): void;
+  toggleEdit(cellId: string): void;
+  outline(): void;
   /** False while a dialog is open or the page is read-only for that action. */
   enabled(): boolean;
 }
@@ -30,8 +32,13 @@ export function useSheetShortcuts(actions: SheetShortcutActions): void {
     const shortcut = shortcutOf(event);
     if (!shortcut || !actions.enabled()) return;
     const cellId = cellIdOf(event.target) ?? cellIdOf(document.activeElement);
-    const pageWide = { save: actions.save, stop: actions.stop, help: actions.help } as const;
-    if (shortcut === 'save' || shortcut === 'stop' || shortcut === 'help') {
+    const pageWide = {
+      save: actions.save,
+      stop: actions.stop,
+      help: actions.help,
+      outline: actions.outline,
+    } as const;
+    if (shortcut === 'save' || shortcut === 'stop' || shortcut === 'help' || shortcut === 'outline') {
       event.preventDefault();
       pageWide[shortcut]();
       return;
@@ -43,7 +50,8 @@ export function useSheetShortcuts(actions: SheetShortcutActions): void {
     }
     if (!cellId) return;
     event.preventDefault();
-    actions.runCell(cellId);
+    if (shortcut === 'edit') actions.toggleEdit(cellId);
+    else actions.runCell(cellId);
   };
 
   window.addEventListener('keydown', onKeydown);

@@ -6,7 +6,7 @@
  * E, V, S, B, T, H), of screen readers' (Insert or Caps Lock for NVDA, JAWS and Narrator,
  * Control + Option for VoiceOver) and of Enter, which belongs to the field being typed in.
  */
-export type SheetShortcut = 'run' | 'stop' | 'previous' | 'next' | 'help' | 'save';
+export type SheetShortcut = 'run' | 'stop' | 'edit' | 'previous' | 'next' | 'outline' | 'help' | 'save';
 
 export interface KeymapEntry {
   shortcut: Exclude<SheetShortcut, 'save'>;
@@ -30,8 +30,10 @@ const altShift = (letter: string, shortcut: KeymapEntry['shortcut'], action: str
 export const SHEET_KEYMAP: readonly KeymapEntry[] = [
   altShift('R', 'run', 'Run the cell with focus (and the cells it needs)'),
   altShift('X', 'stop', 'Stop the run going on'),
+  altShift('O', 'edit', 'Open or close the editor of the cell with focus'),
   altShift('N', 'next', 'Go to the next cell'),
   altShift('P', 'previous', 'Go to the previous cell'),
+  altShift('L', 'outline', 'Go to the outline of the sheet (wide windows)'),
   altShift('K', 'help', 'Show these keys'),
 ];
 
