@@ -48,6 +48,7 @@ function precedence(node: ExprNode): number {
     case 'comparison':
       return 3;
     case 'arithmetic':
+      if (negatedFraction(node)) return 6;
       return node.op === '+' || node.op === '-' ? 4 : node.op === '**' ? 7 : 5;
     case 'unary':
       return 6;
@@ -56,6 +57,16 @@ function precedence(node: ExprNode): number {
     default:
       return 9;
   }
+}
+
+/** `-a / b`, typeset with the sign before the fraction: −a/b reads as a signed term. */
+function negatedFraction(node: ExprNode): boolean {
+  return node.kind === 'arithmetic' && node.op === '/' && node.left.kind === 'unary' && node.left.op === '-';
+}
+
+/** Starts with a sign of its own, so it needs brackets after another operator. */
+function signed(node: ExprNode): boolean {
+  return precedence(node) === 6;
 }
 
 function bracket(tex: string): string {
@@ -104,17 +115,19 @@ function arithmetic(op: string, left: ExprNode, right: ExprNode): string {
     case '+':
     case '-': {
       const rightBracketed =
-        precedence(right) < 4 || right.kind === 'unary' || (op === '-' && precedence(right) === 4);
+        precedence(right) < 4 || signed(right) || (op === '-' && precedence(right) === 4);
       return `${operand(left, precedence(left) < 4)} ${op} ${operand(right, rightBracketed)}`;
     }
     case '*': {
       const l = operand(left, precedence(left) < 5);
-      const r = operand(right, precedence(right) < 5 || right.kind === 'unary');
-      const joiner = /^[0-9]/.test(r) || right.kind === 'unary' ? ' \\cdot ' : '\\,';
+      const r = operand(right, precedence(right) < 5 || signed(right));
+      const joiner = /^[0-9]/.test(r) || signed(right) ? ' \\cdot ' : '\\,';
       return `${l}${joiner}${r}`;
     }
     case '/':
-      return `\\frac{${emit(left)}}{${emit(right)}}`;
+      return left.kind === 'unary' && left.op === '-'
+        ? `-\\frac{${emit(left.operand)}}{${emit(right)}}`
+        : `\\frac{${emit(left)}}{${emit(right)}}`;
     default:
       return power(left, right);
   }

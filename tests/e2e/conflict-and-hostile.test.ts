@@ -170,7 +170,7 @@ describe('saving from two pages and opening hostile sheets', () => {
         },
       });
       await page.goto(appUrl(`/sheets/${id}`));
-      await page.getByText('Harmless looking.').waitFor();
+      await page.getByRole('region', { name: 'Cells' }).getByText('Harmless looking.').waitFor();
       await page.getByRole('button', { name: 'Run all' }).click();
       // The model cell names its problems; nothing ran.
       await page

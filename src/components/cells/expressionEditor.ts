@@ -44,6 +44,8 @@ const meanderTheme = EditorView.theme({
   '&.cm-focused': { outline: '2px solid var(--meander-accent, #1d6a64)', outlineOffset: '1px' },
   '.cm-content': { fontFamily: 'var(--meander-font-mono, "JetBrains Mono", monospace)', padding: '3px 0' },
   '.cm-line': { padding: '0 6px' },
+  // CodeMirror's own grey is below 4.5:1 on paper.
+  '.cm-placeholder': { color: 'var(--meander-ink-faint, #5a6366)' },
 });
 
 export function createExpressionEditor(options: ExpressionEditorOptions): ExpressionEditor {
