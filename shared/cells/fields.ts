@@ -16,7 +16,7 @@ export const cellIdSchema = z
  * letter) and invisible characters (zero-width joiners, direction marks), so that a name reads
  * as it is. Generated code never contains a name: the plan builder replaces each one.
  */
-export const SYMBOL_NAME_RULE =
+const SYMBOL_NAME_RULE =
   'a name starts with a letter (any alphabet, e.g. θ or x) or "_", then has only letters, digits 0–9 and "_", at most 32 characters (no spaces, accents typed separately or subscript digits such as ₁: write θ1 or θ_1)';
 
 /** A letter that JavaScript also reads as the start of a name (U+2E2F, a letter, is not one). */
