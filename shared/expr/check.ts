@@ -193,6 +193,12 @@ class Checker {
     const constant = findConstant(name);
     if (constant) return { kind: 'constant', name: constant.name as 'pi' };
     if (findFunction(name)) return this.fail(node, `'${name}' is a function: call it, like ${name}(x)`);
+    if (name.normalize('NFC') !== name && this.scope.has(name.normalize('NFC'))) {
+      return this.fail(
+        node,
+        `'${name}' is written with a combining accent; retype it as one letter to use the name '${name.normalize('NFC')}'`,
+      );
+    }
     return this.fail(node, `unknown name '${name}'; ${this.describeScope()}`);
   }
 

@@ -6,6 +6,14 @@ import type { CheckedExpr, ExprNode } from './tree';
 const SELF_CONTAINED = /^(?:[A-Za-z_$][A-Za-z0-9_$]*|[0-9.]+(?:e[+-]?[0-9]+)?|\([^()]*\))$/;
 
 /**
+ * What a name may be replaced with: an ASCII identifier the caller declares (`s0`, `w1`, `t`) or
+ * a decimal number, bare or in one pair of brackets. Anything else (a user's Unicode name, a
+ * property access, a call) is refused, so no text a person typed can reach generated code.
+ */
+const NUMBER = '-?(?:[0-9]+(?:\\.[0-9]*)?|\\.[0-9]+)(?:e[+-]?[0-9]+)?';
+const SAFE_REPLACEMENT = new RegExp(`^(?:[A-Za-z_$][A-Za-z0-9_$]*|${NUMBER}|\\(${NUMBER}\\))$`);
+
+/**
  * JavaScript source of a checked expression, built only from the tree (never from the user's
  * text). Each scope name becomes `names[name]` (an identifier such as `s0`, or a numeric literal);
  * functions become the prelude's helpers. Everything is parenthesised, so precedence never
@@ -40,6 +48,8 @@ function emit(node: ExprNode, names: Readonly<Record<string, string>>): string {
       if (!Object.hasOwn(names, node.name))
         throw new Error(`no replacement given for the name '${node.name}'`);
       const replacement = names[node.name] ?? '';
+      if (!SAFE_REPLACEMENT.test(replacement))
+        throw new Error(`not a safe replacement for a name: ${JSON.stringify(replacement)}`);
       return SELF_CONTAINED.test(replacement) ? replacement : `(${replacement})`;
     }
     case 'unary': {

@@ -8,3 +8,4 @@ export { usedNames, type CheckedExpr, type ExprError } from './tree';
 export { generateSource, numberSource } from './generate';
 export { EXPRESSION_PRELUDE } from './prelude';
 export { evaluate } from './evaluate';
+export { toTex, toTexFactor, symbolTex } from './tex';

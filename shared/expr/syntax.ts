@@ -1,4 +1,5 @@
 import { parseExpressionAt, type Expression } from 'acorn';
+import { firstInvisibleCharacter } from './invisible';
 import { MAX_EXPRESSION_DEPTH, MAX_EXPRESSION_LENGTH } from './limits';
 import type { ExprError } from './tree';
 
@@ -49,6 +50,14 @@ function checkBeforeParsing(text: string): ExprError | null {
     };
   }
   if (text.trim() === '') return { from: 0, to: text.length, message: 'the expression is empty' };
+  const invisible = firstInvisibleCharacter(text);
+  if (invisible) {
+    return {
+      from: invisible.at,
+      to: invisible.at + invisible.length,
+      message: `an invisible character (${invisible.codePoint}) is not allowed in an expression: delete it`,
+    };
+  }
   // Counted on the raw text so that hostile nesting never reaches the recursive parser.
   let depth = 0;
   for (let i = 0; i < text.length; i++) {

@@ -7,6 +7,10 @@ export interface SheetShortcutActions {
   cellIds(): string[];
   runCell(cellId: string): void;
   save(): void;
+  stop(): void;
+  help(): void;
+  toggleEdit(cellId: string): void;
+  outline(): void;
   /** False while a dialog is open or the page is read-only for that action. */
   enabled(): boolean;
 }
@@ -28,9 +32,15 @@ export function useSheetShortcuts(actions: SheetShortcutActions): void {
     const shortcut = shortcutOf(event);
     if (!shortcut || !actions.enabled()) return;
     const cellId = cellIdOf(event.target) ?? cellIdOf(document.activeElement);
-    if (shortcut === 'save') {
+    const pageWide = {
+      save: actions.save,
+      stop: actions.stop,
+      help: actions.help,
+      outline: actions.outline,
+    } as const;
+    if (shortcut === 'save' || shortcut === 'stop' || shortcut === 'help' || shortcut === 'outline') {
       event.preventDefault();
-      actions.save();
+      pageWide[shortcut]();
       return;
     }
     if (shortcut === 'previous' || shortcut === 'next') {
@@ -40,8 +50,8 @@ export function useSheetShortcuts(actions: SheetShortcutActions): void {
     }
     if (!cellId) return;
     event.preventDefault();
-    actions.runCell(cellId);
-    if (shortcut === 'run-and-next') focusCell(neighbour(cellId, 1));
+    if (shortcut === 'edit') actions.toggleEdit(cellId);
+    else actions.runCell(cellId);
   };
 
   window.addEventListener('keydown', onKeydown);

@@ -13,7 +13,7 @@ export const palette = {
   paper: '#fffcf6',
   ink: '#1e2629',
   inkSoft: '#4c585c',
-  inkFaint: '#7a8386',
+  inkFaint: '#5a6366', // 4.5:1 or more on paper, sand and sand-deep (WCAG AA text)
   rule: '#dcd2c0',
   error: '#a63a2c',
   warning: '#9a6512',

@@ -170,7 +170,7 @@ describe('saving from two pages and opening hostile sheets', () => {
         },
       });
       await page.goto(appUrl(`/sheets/${id}`));
-      await page.getByText('Harmless looking.').waitFor();
+      await page.getByRole('region', { name: 'Cells' }).getByText('Harmless looking.').waitFor();
       // The model cell names its problems, and the sheet cannot be run until they are fixed.
       await page.locator('#run-blocked-reason').waitFor();
       expect(await page.getByRole('button', { name: 'Run all' }).isDisabled()).toBe(true);

@@ -44,7 +44,8 @@ describe('the page in Chromium and the command-line runner', () => {
       const { id } = (await response.json()) as { id: string };
       await page.goto(appUrl(`/sheets/${id}`));
       await page.getByRole('button', { name: 'Run all' }).click();
-      const digests = page.locator('dd.digest');
+      // Each simulation's reading view ends its summary line with the digest.
+      const digests = page.locator('.summary-line code.digest');
       await expect.poll(() => digests.count(), { timeout: 60_000 }).toBe(expected.length);
       expect(await digests.allInnerTexts()).toEqual(expected);
     });

@@ -96,7 +96,11 @@ describe('building a sheet in the browser', () => {
 
       await page.reload();
       await page.getByLabel('Version 2').waitFor();
+      // The sheet opens as it reads: parameters as a table, the model typeset; editors on demand.
+      await page.getByRole('table').getByRole('cell', { name: '1.4', exact: true }).waitFor();
+      await page.getByRole('button', { name: 'Edit parameters cell' }).click();
       expect(await page.getByRole('textbox', { name: 'value of parameter 1 (k)' }).inputValue()).toBe('1.4');
+      await page.getByRole('button', { name: 'Edit model cell' }).click();
       await page.getByText('-k * x').first().waitFor();
     });
     expect(errors).toEqual([]);

@@ -25,3 +25,9 @@ export interface CellEditorProps<C extends Cell = Cell> {
 export type CellEditorEmits<C extends Cell = Cell> = {
   update: [cell: C];
 };
+
+/**
+ * The reading view of a cell kind: the cell as a modeller reads it (equations, a table, a summary
+ * line, the results), with no inputs. The card shows it until the person opens the editor.
+ */
+export type CellReadingProps<C extends Cell = Cell> = Omit<CellEditorProps<C>, 'readonly'>;

@@ -17,6 +17,20 @@ const loaders: Record<CellKind, () => Promise<Component>> = {
   study: () => import('./StudyCell.vue'),
 };
 
+/**
+ * The reading view of each kind, beside its editor: what the card shows until the person opens
+ * the editor (equations, a parameter table, a summary line, results).
+ */
+const readingLoaders: Record<CellKind, () => Promise<Component>> = {
+  note: () => import('./NoteReading.vue'),
+  params: () => import('./ParamsReading.vue'),
+  model: () => import('./ModelReading.vue'),
+  simulation: () => import('./SimulationReading.vue'),
+  chart: () => import('./ChartReading.vue'),
+  probe: () => import('./ProbeReading.vue'),
+  study: () => import('./StudyReading.vue'),
+};
+
 export type CellEditorMap = Partial<Record<CellKind, Component>>;
 
 export const defaultCellEditors: Record<CellKind, Component> = Object.fromEntries(
@@ -26,10 +40,19 @@ export const defaultCellEditors: Record<CellKind, Component> = Object.fromEntrie
   ]),
 ) as Record<CellKind, Component>;
 
+export const defaultCellReadings: Record<CellKind, Component> = Object.fromEntries(
+  Object.entries(readingLoaders).map(([kind, loader]) => [
+    kind,
+    defineAsyncComponent({ loader, errorComponent: CellPlainView }),
+  ]),
+) as Record<CellKind, Component>;
+
 /** Tests and stories provide their own map; the page uses the default one. */
 export const cellEditorsKey: InjectionKey<CellEditorMap> = Symbol('cell editors');
+export const cellReadingsKey: InjectionKey<CellEditorMap> = Symbol('cell readings');
 
 /** Which kinds have an editor registered (for the registry's completeness test). */
 export const editorKinds = (): CellKind[] => Object.keys(loaders) as CellKind[];
+export const readingKinds = (): CellKind[] => Object.keys(readingLoaders) as CellKind[];
 
 export { CellPlainView };

@@ -44,6 +44,8 @@ const meanderTheme = EditorView.theme({
   '&.cm-focused': { outline: '2px solid var(--meander-accent, #1d6a64)', outlineOffset: '1px' },
   '.cm-content': { fontFamily: 'var(--meander-font-mono, "JetBrains Mono", monospace)', padding: '3px 0' },
   '.cm-line': { padding: '0 6px' },
+  // CodeMirror's own grey is below 4.5:1 on paper.
+  '.cm-placeholder': { color: 'var(--meander-ink-faint, #5a6366)' },
 });
 
 export function createExpressionEditor(options: ExpressionEditorOptions): ExpressionEditor {
@@ -56,9 +58,9 @@ export function createExpressionEditor(options: ExpressionEditorOptions): Expres
   ];
 
   const completionSource = (context: CompletionContext): CompletionResult | null => {
-    const word = context.matchBefore(/[A-Za-z_][A-Za-z0-9_]*/);
+    const word = context.matchBefore(/[\p{L}_][\p{L}0-9_]*/u);
     if (!word || (word.from === word.to && !context.explicit)) return null;
-    return { from: word.from, options: expressionCompletions(options.scope()), validFor: /^[A-Za-z0-9_]*$/ };
+    return { from: word.from, options: expressionCompletions(options.scope()), validFor: /^[\p{L}0-9_]*$/u };
   };
 
   const view = new EditorView({

@@ -63,8 +63,16 @@ export function chartLayout(x: AxisOptions, y: AxisOptions, extra: PlotLayout = 
   };
 }
 
+/**
+ * Plotly's own toolbar is off: Meander's ChartToolbar gives the few actions it needs, and no chart
+ * ever offers to send its data to an outside service (no link, no "send data", no edit link).
+ */
 export const CHART_CONFIG = {
+  displayModeBar: false,
   displaylogo: false,
+  showLink: false,
+  sendData: false,
+  showSendToCloud: false,
+  showEditInChartStudio: false,
   responsive: true,
-  modeBarButtonsToRemove: ['toImage', 'sendDataToCloud'],
-};
+} as const;

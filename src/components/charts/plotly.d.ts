@@ -23,6 +23,7 @@ declare module 'plotly.js-dist-min' {
       config?: PlotConfig,
     ): Promise<HTMLElement>;
     purge(element: HTMLElement): void;
+    relayout(element: HTMLElement, update: PlotLayout): Promise<HTMLElement>;
     downloadImage(element: HTMLElement, options: DownloadImageOptions): Promise<string>;
     Plots: { resize(element: HTMLElement): void };
   }

@@ -119,10 +119,10 @@ describe('ChartCell', () => {
     mounted.push(wrapper);
     await flushPromises();
     const buttons = wrapper.findAll('button').map((b) => b.text());
-    expect(buttons).toEqual(expect.arrayContaining(['Download PNG', 'Download SVG', 'Download CSV']));
+    expect(buttons).toEqual(expect.arrayContaining(['PNG', 'SVG', 'CSV']));
     await wrapper
       .findAll('button')
-      .find((b) => b.text() === 'Download SVG')!
+      .find((b) => b.text() === 'SVG')!
       .trigger('click');
     expect(plotly.downloadImage).toHaveBeenCalledWith(
       expect.any(HTMLElement),

@@ -57,3 +57,11 @@ describe('parameter rows', () => {
     expect(applyParamField(param, 'unit', '', {})).toEqual(param);
   });
 });
+
+describe('parameter names in other alphabets', () => {
+  it('accepts Greek letters and refuses a subscript digit with the rule', () => {
+    expect(nameProblem('θ', [], RESERVED_NAMES)).toBeNull();
+    expect(nameProblem('σ_x', [], RESERVED_NAMES)).toBeNull();
+    expect(nameProblem('θ₁', [], RESERVED_NAMES)).toMatch(/subscript digits such as ₁: write θ1 or θ_1/);
+  });
+});

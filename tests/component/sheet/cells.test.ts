@@ -3,7 +3,7 @@ import type { VueWrapper } from '@vue/test-utils';
 import * as sheetsApi from '@/api/sheets';
 import { checkSheet, sheetDocumentSchema, type SheetDocument } from '@shared/sheet';
 import { useSheetEditorStore } from '@/stores/sheet-editor';
-import { buttonNamed, cardOf, click, mountSheet, pondSheet, shownCellIds } from './harness';
+import { buttonNamed, cardOf, click, mountSheet, pondSheet, settle, shownCellIds } from './harness';
 
 vi.mock('@/api/sheets', async (importOriginal) => ({
   ...(await importOriginal<typeof import('@/api/sheets')>()),
@@ -174,6 +174,7 @@ describe('moving, duplicating and deleting cells', () => {
       b.getAttribute('aria-label'),
     );
     expect(labels).toEqual([
+      'Edit model cell',
       'Run model cell',
       'Comments on model cell: 0 open',
       'Move model cell up',
@@ -182,5 +183,65 @@ describe('moving, duplicating and deleting cells', () => {
       'Delete model cell',
     ]);
     expect(cardOf('note-intro').querySelector('[aria-label="Run note cell"]')).toBeNull();
+  });
+});
+
+describe('reading and editing a card', () => {
+  it('shows each cell of an opened sheet in its reading view, with a labelled Edit toggle', async () => {
+    serve(pondSheet());
+    ({ wrapper } = await mountSheet());
+    for (const id of shownCellIds()) {
+      expect(cardOf(id).querySelector('.stub-reading')).not.toBeNull();
+      expect(cardOf(id).querySelector('.stub-editor')).toBeNull();
+    }
+    const toggle = buttonNamed('Edit model cell', cardOf('model-algae'));
+    expect(toggle.getAttribute('aria-pressed')).toBe('false');
+    expect(toggle.getAttribute('aria-controls')).toBe(cardOf('model-algae').querySelector('.cell-body')!.id);
+  });
+
+  it('opens and closes the editor of one card with its Edit toggle', async () => {
+    serve(pondSheet());
+    ({ wrapper } = await mountSheet());
+    const toggle = buttonNamed('Edit model cell', cardOf('model-algae'));
+    await click(toggle);
+    expect(cardOf('model-algae').querySelector('.stub-editor')?.textContent).toBe(
+      'model editor of model-algae',
+    );
+    expect(toggle.getAttribute('aria-pressed')).toBe('true');
+    expect(cardOf('params-main').querySelector('.stub-reading')).not.toBeNull();
+    await click(toggle);
+    expect(cardOf('model-algae').querySelector('.stub-editor')).toBeNull();
+    expect(cardOf('model-algae').querySelector('.stub-reading')).not.toBeNull();
+  });
+
+  it('opens a new cell in its editor', async () => {
+    serve(pondSheet());
+    ({ wrapper } = await mountSheet());
+    await addFromEndMenu('Note');
+    const id = shownCellIds().at(-1)!;
+    expect(cardOf(id).querySelector('.stub-editor')).not.toBeNull();
+    expect(buttonNamed('Edit note cell', cardOf(id)).getAttribute('aria-pressed')).toBe('true');
+  });
+
+  it('toggles the editor of the cell with focus with Alt+Shift+O and keeps focus on the card', async () => {
+    serve(pondSheet());
+    ({ wrapper } = await mountSheet());
+    cardOf('simulation-season').focus();
+    document.activeElement!.dispatchEvent(
+      new KeyboardEvent('keydown', { key: 'O', code: 'KeyO', altKey: true, shiftKey: true, bubbles: true }),
+    );
+    await settle();
+    expect(cardOf('simulation-season').querySelector('.stub-editor')).not.toBeNull();
+    expect(document.activeElement).toBe(cardOf('simulation-season'));
+  });
+
+  it('lists the cells in an outline whose links move focus to the card', async () => {
+    serve(pondSheet());
+    ({ wrapper } = await mountSheet());
+    const nav = document.querySelector('nav[aria-label="Outline of the sheet"]')!;
+    const links = [...nav.querySelectorAll('a')];
+    expect(links.map((a) => a.getAttribute('href'))).toEqual(shownCellIds().map((id) => `#cell-${id}`));
+    await click(links[2]!);
+    expect(document.activeElement).toBe(cardOf('model-algae'));
   });
 });

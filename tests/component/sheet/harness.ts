@@ -4,7 +4,7 @@ import { createPinia, setActivePinia, type Pinia } from 'pinia';
 import { flushPromises, mount, type VueWrapper } from '@vue/test-utils';
 import type { SheetDocument } from '@shared/sheet/document';
 import type { CellEditorMap } from '@/components/cells/editors';
-import { cellEditorsKey } from '@/components/cells/editors';
+import { cellEditorsKey, cellReadingsKey } from '@/components/cells/editors';
 import { useSessionStore } from '@/stores/session';
 import SheetView from '@/views/SheetView.vue';
 
@@ -76,6 +76,15 @@ export function pondSheet(): SheetDocument {
 
 /** Stub editors: each shows its kind, so tests do not depend on the real editors or CodeMirror. */
 export function stubEditors(): CellEditorMap {
+  return stubViews('editor');
+}
+
+/** Stub reading views, likewise. */
+export function stubReadings(): CellEditorMap {
+  return stubViews('reading');
+}
+
+function stubViews(role: 'editor' | 'reading'): CellEditorMap {
   const stub = (kind: string): Component =>
     defineComponent({
       props: ['cell', 'document', 'issues', 'outputs', 'stale', 'readonly'],
@@ -84,8 +93,8 @@ export function stubEditors(): CellEditorMap {
         return () =>
           h(
             'div',
-            { class: 'stub-editor', 'data-kind': kind },
-            `${kind} editor of ${(props.cell as { id: string }).id}`,
+            { class: `stub-${role}`, 'data-kind': kind },
+            `${kind} ${role} of ${(props.cell as { id: string }).id}`,
           );
       },
     });
@@ -109,6 +118,7 @@ export interface MountedSheet {
 export async function mountSheet(
   path = '/sheets/s1',
   editors: CellEditorMap = stubEditors(),
+  readings: CellEditorMap = stubReadings(),
 ): Promise<MountedSheet> {
   const pinia = createPinia();
   setActivePinia(pinia);
@@ -124,7 +134,10 @@ export async function mountSheet(
   await router.isReady();
   const wrapper = mount(defineComponent({ render: () => h(RouterView) }), {
     attachTo: document.body,
-    global: { plugins: [pinia, router], provide: { [cellEditorsKey as symbol]: editors } },
+    global: {
+      plugins: [pinia, router],
+      provide: { [cellEditorsKey as symbol]: editors, [cellReadingsKey as symbol]: readings },
+    },
   });
   await settle();
   return { wrapper, router, pinia };

@@ -55,28 +55,48 @@ function press(target: Element, init: KeyboardEventInit): void {
 }
 
 describe('keyboard shortcuts', () => {
-  it('Alt+ArrowDown and Alt+ArrowUp move focus between cells', async () => {
+  const altShift = (letter: string): KeyboardEventInit => ({
+    key: letter,
+    code: `Key${letter}`,
+    altKey: true,
+    shiftKey: true,
+  });
+
+  it('Alt+Shift+N and Alt+Shift+P move focus between cells', async () => {
     ({ wrapper } = await mountSheet());
     cardOf('params-main').focus();
-    press(document.activeElement!, { key: 'ArrowDown', altKey: true });
+    press(document.activeElement!, altShift('N'));
     expect(document.activeElement).toBe(cardOf('model-algae'));
-    press(document.activeElement!, { key: 'ArrowUp', altKey: true });
-    press(document.activeElement!, { key: 'ArrowUp', altKey: true });
+    press(document.activeElement!, altShift('P'));
+    press(document.activeElement!, altShift('P'));
     expect(document.activeElement).toBe(cardOf('note-intro'));
   });
 
-  it('Ctrl+Enter runs the focused cell; Shift+Enter runs it and moves on', async () => {
+  it('Alt+Shift+R runs the focused cell and keeps focus on it', async () => {
     pool.simulate.mockResolvedValue({ digest: '99', paths: 400 } as unknown as SimulationResult);
     ({ wrapper } = await mountSheet());
     cardOf('simulation-season').focus();
-    press(document.activeElement!, { key: 'Enter', ctrlKey: true });
+    press(document.activeElement!, altShift('R'));
     await settle();
     expect(pool.simulate).toHaveBeenCalledTimes(1);
     expect(document.activeElement).toBe(cardOf('simulation-season'));
-    press(document.activeElement!, { key: 'Enter', shiftKey: true });
+  });
+
+  it('runs nothing on Enter with Ctrl, ⌘ or Shift', async () => {
+    ({ wrapper } = await mountSheet());
+    cardOf('simulation-season').focus();
+    for (const modifier of ['ctrlKey', 'metaKey', 'shiftKey'])
+      press(document.activeElement!, { key: 'Enter', [modifier]: true });
     await settle();
-    expect(pool.simulate).toHaveBeenCalledTimes(2);
-    expect(document.activeElement).toBe(cardOf('probe-bloom'));
+    expect(pool.simulate).not.toHaveBeenCalled();
+    expect(document.activeElement).toBe(cardOf('simulation-season'));
+  });
+
+  it('Alt+Shift+K shows the keys', async () => {
+    ({ wrapper } = await mountSheet());
+    press(document.body, altShift('K'));
+    await settle();
+    expect(document.body.textContent).toContain('Alt + Shift + R');
   });
 
   it("Ctrl+S opens the save dialog instead of the browser's", async () => {
@@ -92,8 +112,9 @@ describe('keyboard shortcuts', () => {
     ({ wrapper } = await mountSheet());
     await click(buttonNamed('Keyboard shortcuts'));
     const text = document.body.textContent ?? '';
-    for (const keys of ['Ctrl/⌘ + Enter', 'Shift + Enter', 'Alt + ↑', 'Alt + ↓', 'Ctrl/⌘ + S'])
+    for (const keys of ['Alt + Shift + R', 'Alt + Shift + N', 'Alt + Shift + P', 'Ctrl/⌘ + S'])
       expect(text).toContain(keys);
+    expect(text).not.toMatch(/Enter/);
   });
 });
 
