@@ -64,7 +64,7 @@ export async function signUp(
 const SITE_ADMIN = DEMO_ACCOUNTS.find((account) => account.role === 'admin')!;
 
 /** The newest sign-up link mailed to `email`, from the development mailbox (as the site admin). */
-async function confirmationLink(email: string): Promise<string> {
+export async function confirmationLink(email: string): Promise<string> {
   const origin = new URL(appUrl()).origin;
   const signIn = await fetch(appUrl('/api/auth/sign-in'), {
     method: 'POST',

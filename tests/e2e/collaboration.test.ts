@@ -1,6 +1,14 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
-import { appUrl, launchBrowser, signIn, uniqueEmail, watchPageErrors, withFailureShot } from './browser';
+import {
+  appUrl,
+  confirmationLink,
+  launchBrowser,
+  signIn,
+  uniqueEmail,
+  watchPageErrors,
+  withFailureShot,
+} from './browser';
 
 /**
  * Working together, in three browser contexts: the owner (a demo member), a new person invited by
@@ -86,6 +94,12 @@ describe('owner, invitee and admin in Chromium', () => {
         await invitee.getByLabel('Display name').fill(person.name);
         await invitee.getByLabel('Password', { exact: true }).fill(person.password);
         await invitee.getByRole('button', { name: 'Sign up' }).last().click();
+        // Sign-up is confirmed through a mailed link (read as the site admin), then the invitee
+        // comes back to the invitation signed in.
+        await invitee.getByText('Check your mail').waitFor();
+        await invitee.goto(await confirmationLink(person.email));
+        await invitee.waitForURL(/\/sheets$/);
+        await invitee.goto(appUrl(link!));
         await invitee.getByRole('button', { name: 'Accept and open the sheet' }).click();
         await invitee.waitForURL(/\/sheets\/[^/?]+$/);
         await invitee.goto(appUrl('/sheets'));
@@ -130,6 +144,8 @@ describe('owner, invitee and admin in Chromium', () => {
           (url) => url.toString() !== sheetUrl && /\/sheets\/[^/?]+$/.test(url.pathname),
         );
         await invitee.getByText(/forked from/).waitFor();
+        // Cards open in their reading view: open the parameters' editor first.
+        await invitee.getByRole('button', { name: 'Edit parameters cell' }).click();
         const sigma = invitee.getByRole('textbox', { name: /value of parameter \d+ \(sigma\)/ });
         await sigma.fill('0.55');
         await sigma.press('Tab');

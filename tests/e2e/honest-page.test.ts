@@ -86,6 +86,8 @@ describe('the page does not hide a wrong number or lose a result', () => {
       await page.goto(appUrl(`/sheets/${sheetId}`));
       await page.getByLabel('Version 1').waitFor();
       await page.getByRole('button', { name: 'Run all' }).click();
+      // The summary table is part of the simulation's editor; cards open in their reading view.
+      await page.getByRole('button', { name: 'Edit simulation cell' }).click();
       const summary = page.getByRole('region', { name: 'Simulation summary' });
       await summary.waitFor({ timeout: 60_000 });
       await summary
@@ -101,6 +103,7 @@ describe('the page does not hide a wrong number or lose a result', () => {
 
   it('refuses to run an invalid model, says why, and keeps the previous results', async () => {
     await withFailureShot(page, 'honest-invalid', async () => {
+      await page.getByRole('button', { name: 'Edit model cell' }).click();
       const drift = page.getByRole('textbox', { name: /^Drift of r/ }).first();
       await drift.click();
       await drift.press('Control+A');
