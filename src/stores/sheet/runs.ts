@@ -1,33 +1,13 @@
 import { computed, ref, shallowRef } from 'vue';
 import { kindOf } from '@shared/cells/registry';
-import type { RunExecutor } from '@shared/cells/kind';
 import type { SheetDocument } from '@shared/sheet/document';
 import { currentRunRecords, runSheet, type KeptOutput, type SheetRun } from '@shared/run/run-sheet';
 import { planRunSteps } from '@shared/run/steps';
 import type { CellOutput } from '@shared/run/outputs';
 import type { RunProgress } from '@shared/run/progress';
 import { errorMessage } from '@/api/http';
+import { createBrowserExecutor, nextTask, type BrowserExecutor } from './browser-executor';
 import type { SheetDocumentState } from './document';
-
-/** The browser's executor: the worker pool, loaded on the first run so a page that only reads starts none. */
-export interface BrowserExecutor extends RunExecutor {
-  cancel(): void;
-}
-
-export async function createBrowserExecutor(): Promise<BrowserExecutor> {
-  const { SimulationPool } = await import('@/workers/pool');
-  const pool = new SimulationPool();
-  return {
-    runSimulation: (plan, onProgress) => pool.simulate(plan, onProgress),
-    runStudy: (plan, options) => pool.runStudy(plan, options),
-    cancel: () => pool.cancel(),
-  };
-}
-
-/** Resolves in a later task, letting the browser handle input and paint in between. */
-function nextTask(): Promise<void> {
-  return new Promise((resolve) => setTimeout(resolve, 0));
-}
 
 /**
  * Runs of the sheet being edited, through the one orchestrator of shared/run: the outputs with
