@@ -1,3 +1,5 @@
+// Over 300 lines on purpose: finding, installing, initialising, locking down, adopting and
+// stopping the local cluster are one lifecycle whose steps share state (paths, the service account).
 import { execFile } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
 import { chmod, chown, mkdir, readdir, readFile, rm, stat, writeFile } from 'node:fs/promises';

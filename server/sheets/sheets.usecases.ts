@@ -1,3 +1,5 @@
+// Just over 300 lines: the rules of sheets and their versions (create, read, save with its 409,
+// restore, rename, delete) in one place a newcomer looks; forks, shares and comments have their own files.
 import { generateIdFromEntropySize } from 'lucia';
 import type {
   CreatedSheet,
