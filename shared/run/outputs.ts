@@ -1,5 +1,6 @@
 import type { Method } from '../sheet/document';
 import type { SimulationPlan } from '../engine/plan';
+import type { ObservedData } from '../data/observed';
 import type { LossCause, ProbeEstimate, SimulationResult, StudyLevel, StudyResult } from '../engine/result';
 
 /**
@@ -20,6 +21,7 @@ export type CellOutput =
     }
   | { kind: 'probe'; estimate: ProbeEstimate; finishedAt: Date }
   | { kind: 'study'; plan: SimulationPlan; result: StudyResult; finishedAt: Date; seconds: number }
+  | { kind: 'data'; observed: ObservedData; finishedAt: Date }
   | { kind: 'error'; message: string; finishedAt: Date };
 
 export const QUANTILE_KEYS = ['5', '25', '50', '75', '95'] as const;
@@ -124,7 +126,18 @@ export interface FailedCellJson {
   error: string;
 }
 
-export type CellOutputJson = SimulationJson | ProbeJson | StudyJson | FailedCellJson;
+/** A data cell's output in the runner's JSON: which dataset, and how much of it. */
+export interface DataJson {
+  id: string;
+  kind: 'data';
+  datasetId: string;
+  checksum: string;
+  columns: ObservedData['columns'];
+  groups: number;
+  observations: number;
+}
+
+export type CellOutputJson = SimulationJson | ProbeJson | StudyJson | DataJson | FailedCellJson;
 
 /** What the command-line runner prints for a sheet. */
 export interface SheetRunJson {
@@ -253,6 +266,18 @@ function studyJson(id: string, result: StudyResult): StudyJson {
   return output;
 }
 
+function dataJson(id: string, observed: ObservedData): DataJson {
+  return {
+    id,
+    kind: 'data',
+    datasetId: observed.datasetId,
+    checksum: observed.checksum,
+    columns: observed.columns.map((column) => ({ ...column })),
+    groups: observed.series.length,
+    observations: observed.series.reduce((sum, series) => sum + series.times.length, 0),
+  };
+}
+
 /** The plain JSON view of a cell's output, as the command-line runner prints it. */
 export function cellOutputJson(id: string, cellKind: string, output: CellOutput): CellOutputJson {
   switch (output.kind) {
@@ -262,6 +287,8 @@ export function cellOutputJson(id: string, cellKind: string, output: CellOutput)
       return probeJson(id, output.estimate);
     case 'study':
       return studyJson(id, output.result);
+    case 'data':
+      return dataJson(id, output.observed);
     case 'error':
       return { id, kind: cellKind, error: output.message };
   }
