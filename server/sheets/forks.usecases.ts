@@ -28,6 +28,7 @@ export function createForksUsecases({
         digests: version.digests,
         moments: version.moments,
         engineVersion: version.engineVersion,
+        results: version.results,
       });
     },
 

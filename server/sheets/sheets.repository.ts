@@ -122,7 +122,12 @@ export function createSheetsRepository({ db }: { db: DbExecutor }) {
       await db.update(sheets).set({ deletedAt: at }).where(eq(sheets.id, id));
     },
 
-    async insertVersion(version: Omit<SheetVersionRow, 'createdAt'> & { createdAt?: Date }) {
+    async insertVersion(
+      version: Omit<SheetVersionRow, 'createdAt' | 'results'> & {
+        createdAt?: Date;
+        results?: SheetVersionRow['results'];
+      },
+    ) {
       await db.insert(sheetVersions).values(version);
     },
 
@@ -143,6 +148,7 @@ export function createSheetsRepository({ db }: { db: DbExecutor }) {
           digests: sheetVersions.digests,
           moments: sheetVersions.moments,
           engineVersion: sheetVersions.engineVersion,
+          results: sheetVersions.results,
         })
         .from(sheetVersions)
         .innerJoin(users, eq(users.id, sheetVersions.authorId))

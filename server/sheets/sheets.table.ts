@@ -11,6 +11,7 @@ import {
   timestamp,
 } from 'drizzle-orm/pg-core';
 import type { VersionDigests, VersionMoments } from '@shared/api/sheets';
+import type { VersionResults } from '@shared/run/version-results';
 import { users } from '../users/users.table';
 
 export const sheets = pgTable(
@@ -61,6 +62,11 @@ export const sheetVersions = pgTable(
      * when there are none. Digests compare bit for bit only under the same engine version.
      */
     engineVersion: integer('engine_version'),
+    /**
+     * A compact summary of the version's results (shared/run/version-results.ts), so an old
+     * version opens with its numbers and charts; null when it was saved without one.
+     */
+    results: jsonb('results').$type<VersionResults>(),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (table) => [

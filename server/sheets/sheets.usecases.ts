@@ -16,6 +16,7 @@ import type {
   VersionList,
 } from '@shared/api/sheets';
 import { ENGINE_VERSION } from '@shared/engine/version';
+import { MAX_SUMMARY_CHARS, type VersionResults } from '@shared/run/version-results';
 import { emptySheetDocument, type SheetDocument } from '@shared/sheet/document';
 import { parseSheetDocument as upgradeAndParse } from '@shared/sheet/upgrade';
 import type { CommentsRepository } from '../comments/comments.repository';
@@ -59,6 +60,27 @@ function checkDigests(document: SheetDocument, digests: Record<string, string>, 
       throw invalidDocument(`moments.${cellId}: there is no digest for this simulation`, ['moments', cellId]);
     }
   }
+}
+
+/**
+ * A results summary names cells of the document, each of the kind it summarises, and stays
+ * within its size limit; an empty summary is stored as none.
+ */
+function checkedResults(document: SheetDocument, results: VersionResults | undefined): VersionResults | null {
+  if (!results || Object.keys(results).length === 0) return null;
+  const kinds = new Map(document.cells.map((cell) => [cell.id, cell.kind]));
+  for (const [cellId, summary] of Object.entries(results)) {
+    if (kinds.get(cellId) !== summary.kind)
+      throw invalidDocument(`results.${cellId}: the document has no ${summary.kind} cell with this id`, [
+        'results',
+        cellId,
+      ]);
+  }
+  if (JSON.stringify(results).length > MAX_SUMMARY_CHARS)
+    throw invalidDocument(`results: the summary of results is larger than ${MAX_SUMMARY_CHARS} characters`, [
+      'results',
+    ]);
+  return results;
 }
 
 /** The engine version stored beside digests: none without digests (the table's check says so). */
@@ -115,6 +137,7 @@ export function createSheetsUsecases({ sheets, transact, now = () => new Date() 
         digests?: VersionDigests;
         moments?: VersionMoments;
         engineVersion?: number | null;
+        results?: VersionResults | null;
       },
     ): Promise<CreatedSheet> {
       const document = parseSheetDocument(
@@ -151,6 +174,7 @@ export function createSheetsUsecases({ sheets, transact, now = () => new Date() 
           digests,
           moments: input.moments ?? {},
           engineVersion: digestsEngineVersion(digests, input.engineVersion ?? undefined),
+          results: input.results ?? null,
         });
       });
       return { id, title: input.title, version: 1 };
@@ -185,6 +209,7 @@ export function createSheetsUsecases({ sheets, transact, now = () => new Date() 
         document: withTitle(version.document, sheet.title),
         digests: version.digests,
         engineVersion: version.engineVersion,
+        results: version.results,
         createdAt: sheet.createdAt.toISOString(),
         updatedAt: sheet.updatedAt.toISOString(),
       };
@@ -240,6 +265,7 @@ export function createSheetsUsecases({ sheets, transact, now = () => new Date() 
           digests,
           moments,
           engineVersion: digestsEngineVersion(digests, input.engineVersion),
+          results: checkedResults(document, input.results),
         });
         await repositories.sheets.advance(sheet.id, {
           currentVersion: number,
@@ -276,6 +302,7 @@ export function createSheetsUsecases({ sheets, transact, now = () => new Date() 
           digests: old.digests,
           moments: old.moments,
           engineVersion: old.engineVersion,
+          results: old.results,
         });
         await repositories.sheets.advance(sheet.id, {
           currentVersion: next,
@@ -314,6 +341,7 @@ export function createSheetsUsecases({ sheets, transact, now = () => new Date() 
         digests: row.digests,
         moments: row.moments,
         engineVersion: row.engineVersion,
+        results: row.results,
       };
     },
   };

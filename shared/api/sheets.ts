@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { ENGINE_VERSION } from '../engine/version';
 import { cellIdSchema } from '../sheet/document';
 import { SHEET_ROLES } from './rights';
+import { versionResultsSchema } from '../run/version-results';
 
 /**
  * Payloads of /api/sheets/*. The document itself is checked with `sheetDocumentSchema` by the
@@ -85,6 +86,8 @@ export const saveVersionRequestSchema = z.object({
    * built with this server, so the server records its own ENGINE_VERSION.
    */
   engineVersion: engineVersionSchema.optional(),
+  /** A compact summary of the results that match `document` (shared/run/version-results.ts). */
+  results: versionResultsSchema.optional(),
 });
 export type SaveVersionRequest = z.infer<typeof saveVersionRequestSchema>;
 
@@ -127,6 +130,12 @@ export const forkSourceSchema = z.object({
 });
 export type ForkSource = z.infer<typeof forkSourceSchema>;
 
+/**
+ * Results saved with a version; one that no longer reads (a summary from a newer server) is
+ * dropped rather than keeping the version from opening.
+ */
+const savedResultsSchema = versionResultsSchema.nullable().catch(null).default(null);
+
 export const sheetDetailSchema = z.object({
   id: z.string(),
   title: z.string(),
@@ -144,6 +153,8 @@ export const sheetDetailSchema = z.object({
   digests: versionDigestsSchema,
   /** The engine version that made `digests`; null when the version has none. */
   engineVersion: z.number().int().nullable(),
+  /** The results saved with the current version, or null. */
+  results: savedResultsSchema,
   createdAt: z.string(),
   updatedAt: z.string(),
 });
@@ -167,6 +178,8 @@ export const versionDetailSchema = versionSummarySchema.extend({
   moments: versionMomentsSchema.default({}),
   /** The engine version that made `digests`; null when the version has none. */
   engineVersion: z.number().int().nullable(),
+  /** The results saved with the version, or null when it was saved without them. */
+  results: savedResultsSchema,
 });
 export type VersionDetail = z.infer<typeof versionDetailSchema>;
 

@@ -19,6 +19,7 @@ import {
 import { API_ERROR_CODES } from '@shared/api/errors';
 import type { SheetDocument, SheetDocumentInput } from '@shared/sheet/document';
 import { parseSheetDocument } from '@shared/sheet/upgrade';
+import type { VersionResults } from '@shared/run/version-results';
 import { ApiError, request, requestIfChanged, toDate } from './http';
 import { parseAnswer } from './parse';
 
@@ -52,6 +53,8 @@ export interface SaveVersionBody {
   moments?: VersionMoments;
   /** The engine version that made the digests. */
   engineVersion?: number;
+  /** A compact summary of the results that match the document. */
+  results?: VersionResults;
 }
 
 const sheetPath = (id: string): string => `/api/sheets/${encodeURIComponent(id)}`;

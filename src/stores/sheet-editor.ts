@@ -2,6 +2,7 @@ import { defineStore } from 'pinia';
 import { useSheetDocument } from './sheet/document';
 import { useSheetDrafts } from './sheet/drafts';
 import { useSheetRuns } from './sheet/runs';
+import { useSavedResults } from './sheet/saved-results';
 import { useRunGuard } from './sheet/run-guard';
 import { useSheetVersions } from './sheet/versions';
 import { useSheetSharing } from './sheet/sharing';
@@ -21,7 +22,8 @@ export const useSheetEditorStore = defineStore('sheet-editor', () => {
   const document = useSheetDocument();
   const drafts = useSheetDrafts(document);
   const runs = useSheetRuns(document);
-  const versions = useSheetVersions(document, drafts, runs);
+  const savedResults = useSavedResults(document, runs);
+  const versions = useSheetVersions(document, drafts, runs, savedResults);
   // The guard's `run` replaces the runs piece's: every run goes through its checks.
   const guard = useRunGuard(document, runs);
   const reload = () => versions.load(document.sheetId.value!, { userId: document.userId.value });

@@ -1,6 +1,11 @@
 import { sql } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ENGINE_VERSION } from '@shared/engine/version';
+import { inProcessExecutor } from '@shared/run/environments';
+import { runSheet } from '@shared/run/run-sheet';
+import { summariseResults } from '@shared/run/version-results';
+import { sheetCellDependencies, sheetFingerprints } from '@shared/sheet';
+import { parseSheetDocument } from '@shared/sheet/upgrade';
 import { createTestContext, signUp, type SignedUpUser, type TestContext } from './helpers';
 
 let context: TestContext;
@@ -135,6 +140,60 @@ describe('final moments are saved with the digests', () => {
     });
     expect(save.status).toBe(400);
     expect(save.body.error.path).toEqual(['moments', 'run']);
+    expect((await modeller.agent.get(`/api/sheets/${created.id}`)).body.version).toBe(1);
+  });
+});
+
+describe('a results summary is saved with a version', () => {
+  /** A real summary of the aquifer sheet's run, as the page sends it. */
+  async function aquiferResults(title: string) {
+    const doc = parseSheetDocument(aquiferDocument(title));
+    if (!doc.success) throw new Error('the aquifer document does not parse');
+    const run = await runSheet(doc.data, { executor: inProcessExecutor() });
+    const fingerprints = sheetFingerprints(doc.data, sheetCellDependencies(doc.data));
+    return summariseResults(doc.data, (id) => run.outputs.get(id), fingerprints);
+  }
+
+  it('returns it with the version and the sheet, and a fork keeps it', async () => {
+    const created = (await createSheet(modeller, 'Aquifer results')).body;
+    const results = await aquiferResults('Aquifer results');
+    const save = await modeller.agent.post(`/api/sheets/${created.id}/versions`).send({
+      baseVersion: 1,
+      message: 'Ran it',
+      document: aquiferDocument('Aquifer results'),
+      results,
+    });
+    expect(save.status).toBe(201);
+    expect((await modeller.agent.get(`/api/sheets/${created.id}/versions/2`)).body.results).toEqual(results);
+    expect((await modeller.agent.get(`/api/sheets/${created.id}`)).body.results).toEqual(results);
+    expect((await modeller.agent.get(`/api/sheets/${created.id}/versions/1`)).body.results).toBeNull();
+    const fork = await modeller.agent.post(`/api/sheets/${created.id}/forks`).send({ version: 2 });
+    expect((await modeller.agent.get(`/api/sheets/${fork.body.id}`)).body.results).toEqual(results);
+  });
+
+  it('refuses a summary of a cell the document does not have, with its path, and writes nothing', async () => {
+    const created = (await createSheet(modeller, 'Aquifer stray results')).body;
+    const { run, ...rest } = await aquiferResults('Aquifer stray results');
+    const save = await modeller.agent.post(`/api/sheets/${created.id}/versions`).send({
+      baseVersion: 1,
+      message: 'Stray',
+      document: aquiferDocument('Aquifer stray results'),
+      results: { ...rest, elsewhere: run },
+    });
+    expect(save.status).toBe(400);
+    expect(save.body.error.path).toEqual(['results', 'elsewhere']);
+    expect((await modeller.agent.get(`/api/sheets/${created.id}`)).body.version).toBe(1);
+  });
+
+  it('refuses a malformed summary with 400', async () => {
+    const created = (await createSheet(modeller, 'Aquifer bad results')).body;
+    const save = await modeller.agent.post(`/api/sheets/${created.id}/versions`).send({
+      baseVersion: 1,
+      message: 'Bad',
+      document: aquiferDocument('Aquifer bad results'),
+      results: { run: { kind: 'simulation', savedTimes: 'soon' } },
+    });
+    expect(save.status).toBe(400);
     expect((await modeller.agent.get(`/api/sheets/${created.id}`)).body.version).toBe(1);
   });
 });

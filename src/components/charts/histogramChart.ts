@@ -18,6 +18,12 @@ export function buildHistogramChart({ chart, result, plan, model }: ChartInput):
   const k = nearestSavedIndex(result.savedTimes, chart.time ?? result.t1);
   const t = result.savedTimes[k]!;
   const all = result.savedValues[i]!;
+  if (all.length === 0)
+    return {
+      ok: false,
+      message:
+        'A histogram needs every path’s values, which are not saved with a version: run the simulation to draw it.',
+    };
   const values = all.subarray(k * result.paths, (k + 1) * result.paths);
   const bins = histogram(values, chart.bins);
   if (bins.n === 0)

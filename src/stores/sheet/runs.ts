@@ -3,19 +3,26 @@ import { kindOf } from '@shared/cells/registry';
 import type { SheetDocument } from '@shared/sheet/document';
 import { currentRunRecords, runSheet, type KeptOutput, type SheetRun } from '@shared/run/run-sheet';
 import { planRunSteps } from '@shared/run/steps';
+import { summariseResults } from '@shared/run/version-results';
 import type { CellOutput } from '@shared/run/outputs';
 import type { RunProgress } from '@shared/run/progress';
 import { errorMessage } from '@/api/http';
 import { createBrowserExecutor, nextTask, type BrowserExecutor } from './browser-executor';
 import type { SheetDocumentState } from './document';
+import { createResultCache, type ResultCache } from './result-cache';
 
 /**
  * Runs of the sheet being edited, through the one orchestrator of shared/run: the outputs with
  * the fingerprints they were computed from, which cells are stale, progress and cancel. Nothing
  * here computes numbers: the orchestrator hands them to the worker pool.
  */
-export function useSheetRuns(state: SheetDocumentState) {
+export function useSheetRuns(state: SheetDocumentState, cache: ResultCache = createResultCache()) {
   const outputs = shallowRef<Record<string, CellOutput | undefined>>({});
+  /**
+   * Cells showing the results saved with a version (by its number): shown, labelled, never
+   * reused by a run, since a summary lacks the per-path values a probe or chart may need.
+   */
+  const savedWith = shallowRef<Record<string, number>>({});
   const outputFingerprints = shallowRef<Record<string, string>>({});
   const running = ref(false);
   const runningCellId = ref<string | null>(null);
@@ -31,8 +38,8 @@ export function useSheetRuns(state: SheetDocumentState) {
   let starting = false;
 
   const kept = (cellId: string): KeptOutput | undefined => {
-    // A result kept after a failed run is shown, never reused as current.
-    if (failures.value[cellId] !== undefined) return undefined;
+    // A result kept after a failed run is shown, never reused as current; nor is a saved summary.
+    if (failures.value[cellId] !== undefined || savedWith.value[cellId] !== undefined) return undefined;
     const output = outputs.value[cellId];
     return output ? { output, fingerprint: outputFingerprints.value[cellId] ?? '' } : undefined;
   };
@@ -53,7 +60,20 @@ export function useSheetRuns(state: SheetDocumentState) {
     outputs.value = {};
     outputFingerprints.value = {};
     failures.value = {};
+    savedWith.value = {};
     runNotice.value = null;
+  }
+
+  /**
+   * Shows an output that was not computed by this page: one from the browser's cache (current
+   * when its fingerprint matches) or one saved with a version. A cell that has an output already
+   * keeps it.
+   */
+  function restore(cellId: string, output: CellOutput, fingerprint: string, version: number | null): void {
+    if (outputs.value[cellId] !== undefined) return;
+    outputs.value = { ...outputs.value, [cellId]: output };
+    outputFingerprints.value = { ...outputFingerprints.value, [cellId]: fingerprint };
+    if (version !== null) savedWith.value = { ...savedWith.value, [cellId]: version };
   }
 
   /**
@@ -70,8 +90,13 @@ export function useSheetRuns(state: SheetDocumentState) {
       const { [cellId]: _cleared, ...rest } = failures.value;
       failures.value = rest;
     }
+    if (savedWith.value[cellId] !== undefined) {
+      const { [cellId]: _replaced, ...rest } = savedWith.value;
+      savedWith.value = rest;
+    }
     outputs.value = { ...outputs.value, [cellId]: output };
     outputFingerprints.value = { ...outputFingerprints.value, [cellId]: fingerprint };
+    void cache.put(fingerprint, output);
   }
 
   async function run(targetId: string | null): Promise<void> {
@@ -169,9 +194,21 @@ export function useSheetRuns(state: SheetDocumentState) {
     runNotice.value = null;
   }
 
-  /** Digests and final moments of the simulation outputs that match the document as it is now. */
+  /**
+   * Digests, final moments and the results summary of the outputs that match the document as it
+   * is now, for saving a version. Results shown from an earlier version's summary count: they
+   * stand for the same inputs, so a save that changed nothing they read carries them on.
+   */
   function runRecordsNow(doc: SheetDocument) {
-    return currentRunRecords(doc, kept, state.fingerprints.value);
+    const shown = (cellId: string): KeptOutput | undefined => {
+      const output = outputs.value[cellId];
+      if (!output || failures.value[cellId] !== undefined) return undefined;
+      return { output, fingerprint: outputFingerprints.value[cellId] ?? '' };
+    };
+    return {
+      ...currentRunRecords(doc, shown, state.fingerprints.value),
+      results: summariseResults(doc, shown, state.fingerprints.value),
+    };
   }
 
   return {
@@ -183,8 +220,11 @@ export function useSheetRuns(state: SheetDocumentState) {
     stepStartedAt,
     runNotice,
     failures,
+    savedWith,
     staleCellIds,
     record,
+    restore,
+    cache,
     resetOutputs,
     run,
     runDocument,

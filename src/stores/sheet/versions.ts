@@ -14,13 +14,19 @@ import { errorMessage } from '@/api/http';
 import type { SheetDocumentState } from './document';
 import type { SheetDraftsState } from './drafts';
 import type { SheetRunsState } from './runs';
+import type { SavedResultsState } from './saved-results';
 
 /**
  * Loading a sheet or one of its versions, the list of versions, saving a version against the
  * base the edits started from, and the choices after a conflict (409): load theirs and keep mine
  * as a recovery copy, or put mine in a new sheet.
  */
-export function useSheetVersions(state: SheetDocumentState, drafts: SheetDraftsState, runs: SheetRunsState) {
+export function useSheetVersions(
+  state: SheetDocumentState,
+  drafts: SheetDraftsState,
+  runs: SheetRunsState,
+  savedResults: SavedResultsState,
+) {
   const serverTitle = ref('');
   const serverUpdatedAt = ref<Date | null>(null);
   const owner = ref<{ id: string; name: string } | null>(null);
@@ -66,6 +72,7 @@ export function useSheetVersions(state: SheetDocumentState, drafts: SheetDraftsS
         state.viewingVersion.value = old.number;
         state.serverDocument.value = old.document;
         state.document.value = old.document;
+        savedResults.showSaved(old.document, old.results, old.number, old.createdAt);
       } else {
         state.serverDocument.value = sheet.document;
         state.document.value = sheet.document;
@@ -73,6 +80,12 @@ export function useSheetVersions(state: SheetDocumentState, drafts: SheetDraftsS
       }
       drafts.readRecovery();
       state.checkNow();
+      if (state.viewingVersion.value === null) {
+        // The browser's cache first (current results), then the summary saved with the version.
+        await savedResults.restoreCached(id);
+        if (state.sheetId.value !== id) return;
+        savedResults.showSaved(sheet.document, sheet.results, sheet.version, sheet.updatedAt);
+      }
     } catch (error) {
       loadError.value = errorMessage(error);
     } finally {
@@ -103,13 +116,14 @@ export function useSheetVersions(state: SheetDocumentState, drafts: SheetDraftsS
     saving.value = true;
     saveError.value = null;
     try {
-      const { digests, moments } = runs.runRecordsNow(doc);
+      const { digests, moments, results } = runs.runRecordsNow(doc);
       const saved = await saveVersion(id, {
         baseVersion: state.baseVersion.value,
         message,
         document: doc,
         digests,
         ...(Object.keys(digests).length > 0 ? { moments, engineVersion: ENGINE_VERSION } : {}),
+        ...(Object.keys(results).length > 0 ? { results } : {}),
       });
       state.baseVersion.value = saved.number;
       state.latestVersion.value = Math.max(state.latestVersion.value, saved.number);

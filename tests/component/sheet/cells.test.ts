@@ -31,6 +31,7 @@ function serve(document: SheetDocument): void {
     forkedFrom: null,
     forkedFromVersion: null,
     engineVersion: null,
+    results: null,
     document,
     digests: {},
     createdAt: new Date('2026-11-01T08:00:00Z'),

@@ -41,6 +41,7 @@ function serve(role: SheetRole, version = 3): void {
     forkedFrom: null,
     forkedFromVersion: null,
     engineVersion: null,
+    results: null,
     document,
     digests: {},
     createdAt: new Date('2026-11-01T08:00:00Z'),

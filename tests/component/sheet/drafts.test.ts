@@ -35,6 +35,7 @@ function serve(document: SheetDocument, version: number, updatedAt = SERVER_UPDA
     forkedFrom: null,
     forkedFromVersion: null,
     engineVersion: null,
+    results: null,
     document,
     digests: {},
     createdAt: new Date('2026-11-01T08:00:00Z'),

@@ -53,6 +53,7 @@ function serve(document = pondSheet()) {
     forkedFrom: null,
     forkedFromVersion: null,
     engineVersion: null,
+    results: null,
     document,
     digests: {},
     createdAt: new Date('2026-11-01T08:00:00Z'),

@@ -38,6 +38,7 @@ beforeEach(() => {
     forkedFrom: null,
     forkedFromVersion: null,
     engineVersion: null,
+    results: null,
     document: pondSheet(),
     digests: {},
     createdAt: new Date('2026-11-01T08:00:00Z'),
@@ -147,6 +148,7 @@ describe('older versions', () => {
       digests: {},
       moments: {},
       engineVersion: null,
+      results: null,
     });
     const mounted = await mountSheet();
     wrapper = mounted.wrapper;

@@ -58,6 +58,7 @@ beforeEach(() => {
     forkedFrom: null,
     forkedFromVersion: null,
     engineVersion: null,
+    results: null,
     document: pondSheet(),
     digests: {},
     createdAt: new Date('2026-11-01T08:00:00Z'),

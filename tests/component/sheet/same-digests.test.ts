@@ -51,6 +51,7 @@ describe('the page and the runner', () => {
         forkedFrom: null,
         forkedFromVersion: null,
         engineVersion: null,
+        results: null,
         document: doc,
         digests: {},
         createdAt: new Date('2026-11-01T08:00:00Z'),

@@ -1,0 +1,1 @@
+ALTER TABLE "sheet_versions" ADD COLUMN "results" jsonb;
