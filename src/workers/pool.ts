@@ -1,6 +1,12 @@
 import * as Comlink from 'comlink';
 import type { SimulationPlan } from '@shared/engine/plan';
-import type { ChunkResult, SimulationResult, StudyOptions, StudyResult } from '@shared/engine/result';
+import type {
+  ChunkResult,
+  SimulationResult,
+  StabilityReport,
+  StudyOptions,
+  StudyResult,
+} from '@shared/engine/result';
 import { ChunkPool, RunCancelledError, type ChunkWorker, type RunProgress } from '@shared/run/chunk-pool';
 import { collectTransferables } from '@shared/run/transferables';
 import type { SimulationWorkerApi } from './simulation.worker';
@@ -104,6 +110,11 @@ export class SimulationPool {
     } finally {
       ended();
     }
+  }
+
+  /** The step's stability at the plan's initial state (the drift is compiled, so in a worker). */
+  async stabilityBeforeRun(plan: SimulationPlan): Promise<StabilityReport | null> {
+    return this.onHelper((api) => api.stabilityBeforeRun(plan));
   }
 
   /** Stops every simulation and study in flight; their promises reject with RunCancelledError. */

@@ -1,7 +1,14 @@
 /// <reference lib="webworker" />
 import * as Comlink from 'comlink';
 import type { SimulationPlan } from '@shared/engine/plan';
-import type { ChunkResult, SimulationResult, StudyOptions, StudyResult } from '@shared/engine/result';
+import type {
+  ChunkResult,
+  SimulationResult,
+  StabilityReport,
+  StudyOptions,
+  StudyResult,
+} from '@shared/engine/result';
+import { stabilityReport } from '@shared/engine/stability';
 import { mergeChunks as engineMergeChunks } from '@shared/engine/merge';
 import { runStudy as engineRunStudy } from '@shared/engine/study';
 import {
@@ -56,6 +63,11 @@ const api = {
 
   runStudy(plan: SimulationPlan, options: StudyOptions): StudyResult {
     return engineRunStudy(plan, options);
+  },
+
+  /** The step's stability at the initial state, before any path is simulated. */
+  stabilityBeforeRun(plan: SimulationPlan): StabilityReport | null {
+    return stabilityReport(plan);
   },
 };
 

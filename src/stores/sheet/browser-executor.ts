@@ -1,8 +1,12 @@
 import type { RunExecutor } from '@shared/cells/kind';
+import type { SimulationPlan } from '@shared/engine/plan';
+import type { StabilityReport } from '@shared/engine/result';
 
 /** The browser's executor: the worker pool, loaded on the first run so a page that only reads starts none. */
 export interface BrowserExecutor extends RunExecutor {
   cancel(): void;
+  /** The step's stability at the initial state, checked before a run. */
+  stabilityBeforeRun(plan: SimulationPlan): Promise<StabilityReport | null>;
 }
 
 export async function createBrowserExecutor(): Promise<BrowserExecutor> {
@@ -12,6 +16,7 @@ export async function createBrowserExecutor(): Promise<BrowserExecutor> {
     runSimulation: (plan, onProgress) => pool.simulate(plan, onProgress),
     runStudy: (plan, options) => pool.runStudy(plan, options),
     cancel: () => pool.cancel(),
+    stabilityBeforeRun: (plan) => pool.stabilityBeforeRun(plan),
   };
 }
 

@@ -1,11 +1,11 @@
 import { computed, ref } from 'vue';
 import { estimateWork } from '@shared/engine/work';
-import { planRunSteps } from '@shared/run/steps';
 import { issueInWords } from '@shared/sheet/issue-words';
 import { stepCount } from '@shared/sheet/step-count';
 import { kindOf } from '@shared/cells/registry';
 import type { SheetDocumentState } from './document';
 import type { SheetRunsState } from './runs';
+import { simulationsToCompute } from './step-check';
 
 export interface HeavyRunEstimate {
   cellId: string;
@@ -42,13 +42,7 @@ export function useRunGuard(state: SheetDocumentState, runs: SheetRunsState) {
     const doc = state.document.value;
     if (!doc) return [];
     const estimates: HeavyRunEstimate[] = [];
-    for (const step of planRunSteps(doc, targetId, state.dependencies.value)) {
-      const cell = doc.cells.find((c) => c.id === step.cellId);
-      if (cell?.kind !== 'simulation') continue;
-      const current =
-        runs.outputFingerprints.value[cell.id] === state.fingerprints.value[cell.id] &&
-        runs.failures.value[cell.id] === undefined;
-      if (current && !step.force) continue;
+    for (const cell of simulationsToCompute(doc, targetId, state.dependencies.value, runs.isCurrent)) {
       const model = doc.cells.find((c) => c.id === cell.model);
       const stateNames = model?.kind === 'model' ? model.states.map((s) => s.name) : [];
       const work = estimateWork({ paths: cell.paths, steps: stepCount(cell), model: { stateNames } });

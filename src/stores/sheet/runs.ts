@@ -10,6 +10,7 @@ import { errorMessage } from '@/api/http';
 import { createBrowserExecutor, nextTask, type BrowserExecutor } from './browser-executor';
 import type { SheetDocumentState } from './document';
 import { createResultCache, type ResultCache } from './result-cache';
+import { simulationsToCompute, unstableSteps, type UnstableStep } from './step-check';
 
 /**
  * Runs of the sheet being edited, through the one orchestrator of shared/run: the outputs with
@@ -36,6 +37,14 @@ export function useSheetRuns(state: SheetDocumentState, cache: ResultCache = cre
   let executor: BrowserExecutor | null = null;
   /** True from a run's click until it shows as running (see run). */
   let starting = false;
+
+  /** The cell's shown output was computed here from its inputs as they are now. */
+  const isCurrent = (cellId: string): boolean =>
+    outputFingerprints.value[cellId] === state.fingerprints.value[cellId] &&
+    failures.value[cellId] === undefined &&
+    savedWith.value[cellId] === undefined;
+  /** A run held back because a step is unstable, until the person chooses (see UnstableStepDialog). */
+  const unstableRun = ref<{ targetId: string | null; steps: UnstableStep[] } | null>(null);
 
   const kept = (cellId: string): KeptOutput | undefined => {
     // A result kept after a failed run is shown, never reused as current; nor is a saved summary.
@@ -99,7 +108,8 @@ export function useSheetRuns(state: SheetDocumentState, cache: ResultCache = cre
     void cache.put(fingerprint, output);
   }
 
-  async function run(targetId: string | null): Promise<void> {
+  /** Runs the sheet (null) or one cell; unless `stepsConfirmed`, an unstable step holds it back first. */
+  async function run(targetId: string | null, options: { stepsConfirmed?: boolean } = {}): Promise<void> {
     if (running.value || starting || !state.document.value || !state.canRun.value) return;
     // A plain deep copy: edits made while the run goes on do not leak into it, and the plans built
     // from it hold no reactive proxies (which cannot be posted to a worker).
@@ -125,6 +135,14 @@ export function useSheetRuns(state: SheetDocumentState, cache: ResultCache = cre
         // The first run of the page loads the pool's code: its own task, before plans are built.
         executor = await createBrowserExecutor();
         await nextTask();
+      }
+      if (!options.stepsConfirmed) {
+        const toCompute = simulationsToCompute(doc, targetId, state.dependencies.value, isCurrent);
+        const steps = await unstableSteps(doc, toCompute, (plan) => executor!.stabilityBeforeRun(plan));
+        if (steps.length > 0) {
+          unstableRun.value = { targetId, steps };
+          return;
+        }
       }
       const result = await runSheet(doc, {
         executor,
@@ -184,6 +202,16 @@ export function useSheetRuns(state: SheetDocumentState, cache: ResultCache = cre
     }
   }
 
+  async function confirmUnstableRun(): Promise<void> {
+    const pending = unstableRun.value;
+    unstableRun.value = null;
+    if (pending) await run(pending.targetId, { stepsConfirmed: true });
+  }
+
+  function dismissUnstableRun(): void {
+    unstableRun.value = null;
+  }
+
   function cancelRun(): void {
     if (!running.value) return;
     runCancelled = true;
@@ -225,6 +253,10 @@ export function useSheetRuns(state: SheetDocumentState, cache: ResultCache = cre
     record,
     restore,
     cache,
+    isCurrent,
+    unstableRun,
+    confirmUnstableRun,
+    dismissUnstableRun,
     resetOutputs,
     run,
     runDocument,

@@ -2,11 +2,13 @@ import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import type { VueWrapper } from '@vue/test-utils';
 import * as sheetsApi from '@/api/sheets';
 import type { SimulationResult } from '@shared/engine/result';
-import type { ModelCell, SimulationCell } from '@shared/sheet';
+import type { ModelCell, ParamsCell, SimulationCell } from '@shared/sheet';
+import type { SimulationPlan } from '@shared/engine/plan';
 import { useSheetEditorStore } from '@/stores/sheet-editor';
 import { buttonNamed, cardOf, click, mountSheet, pondSheet, settle, stubEditors } from './harness';
 
 const pool = vi.hoisted(() => ({
+  stabilityBeforeRun: vi.fn(),
   simulate: vi.fn(),
   runStudy: vi.fn(),
   cancel: vi.fn(),
@@ -25,6 +27,7 @@ vi.mock('@/workers/pool', () => ({
     simulate = pool.simulate;
     runStudy = pool.runStudy;
     cancel = pool.cancel;
+    stabilityBeforeRun = pool.stabilityBeforeRun;
   },
 }));
 
@@ -169,5 +172,57 @@ describe('a run far beyond minutes asks first', () => {
     await click(buttonNamed('Do not run'));
     expect(pool.simulate).not.toHaveBeenCalled();
     expect(useSheetEditorStore().heavyRun).toBeNull();
+  });
+});
+
+describe('a step that is unstable for its model asks first', () => {
+  /**
+   * A stiff linear decay dA = -λ A dt + 0.1 dW with λ = 100 over 30 days in 300 steps: h = 0.1,
+   * hλ = -10, so one Euler–Maruyama step multiplies the mean by 1 + hλ = -9 (the step is stable
+   * only for |1 + hλ| ≤ 1, i.e. h ≤ 2/λ = 0.02; Higham 2000, §2, linear test equation).
+   */
+  const stiffSheet = () =>
+    sheetWith((cells) => {
+      const params = cells[1] as ParamsCell;
+      params.params[0]!.value = 100;
+      const model = cells[2] as ModelCell;
+      model.states[0]!.drift = '-growth * A';
+      model.states[0]!.diffusion = { weather: '0.1' };
+    });
+
+  beforeEach(async () => {
+    const { stabilityReport } = await import('@shared/engine/stability');
+    pool.stabilityBeforeRun.mockImplementation(async (plan: SimulationPlan) => stabilityReport(plan));
+    pool.simulate.mockResolvedValue(fakeResult('aa11bb22cc33dd44'));
+  });
+
+  it('names the simulation and the largest stable step, and runs only after a confirmation', async () => {
+    serve(stiffSheet());
+    ({ wrapper } = await mountSheet());
+    await click(buttonNamed('Run all'));
+    expect(pool.simulate).not.toHaveBeenCalled();
+    expect(document.body.textContent).toContain('The step is too large for this model');
+    expect(document.body.textContent).toMatch(/Simulation '[^']+'/);
+    // The largest stable step is 2/λ = 0.02 (Higham 2000, §2).
+    expect(document.body.textContent).toMatch(/A step below 0\.02\d* is stable here/);
+    await click(buttonNamed('Run with this step anyway'));
+    expect(pool.simulate).toHaveBeenCalledTimes(1);
+  });
+
+  it('does not run when the person declines, and does not ask for a stable step', async () => {
+    serve(stiffSheet());
+    ({ wrapper } = await mountSheet());
+    await click(buttonNamed('Run simulation cell'));
+    await click(buttonNamed('Do not run'));
+    expect(pool.simulate).not.toHaveBeenCalled();
+    expect(useSheetEditorStore().unstableRun).toBeNull();
+
+    wrapper.unmount();
+    document.body.innerHTML = '';
+    serve();
+    ({ wrapper } = await mountSheet());
+    await click(buttonNamed('Run all'));
+    expect(document.body.textContent).not.toContain('The step is too large for this model');
+    expect(pool.simulate).toHaveBeenCalledTimes(1);
   });
 });

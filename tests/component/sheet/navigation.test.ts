@@ -5,7 +5,12 @@ import type { SimulationResult } from '@shared/engine/result';
 import { useSheetEditorStore } from '@/stores/sheet-editor';
 import { buttonNamed, cardOf, click, mountSheet, pondSheet, settle } from './harness';
 
-const pool = vi.hoisted(() => ({ simulate: vi.fn(), runStudy: vi.fn(), cancel: vi.fn() }));
+const pool = vi.hoisted(() => ({
+  stabilityBeforeRun: vi.fn(),
+  simulate: vi.fn(),
+  runStudy: vi.fn(),
+  cancel: vi.fn(),
+}));
 
 vi.mock('@/api/sheets', async (importOriginal) => ({
   ...(await importOriginal<typeof import('@/api/sheets')>()),
@@ -18,6 +23,7 @@ vi.mock('@/workers/pool', () => ({
     simulate = pool.simulate;
     runStudy = pool.runStudy;
     cancel = pool.cancel;
+    stabilityBeforeRun = pool.stabilityBeforeRun;
   },
 }));
 

@@ -9,6 +9,7 @@ import { useSheetEditorStore } from '@/stores/sheet-editor';
 import { buttonNamed, cardOf, click, mountSheet, pondSheet, settle, stubEditors } from './harness';
 
 const pool = vi.hoisted(() => ({
+  stabilityBeforeRun: vi.fn(),
   simulate: vi.fn(),
   runStudy: vi.fn(),
   cancel: vi.fn(),
@@ -28,6 +29,7 @@ vi.mock('@/workers/pool', () => ({
     simulate = pool.simulate;
     runStudy = pool.runStudy;
     cancel = pool.cancel;
+    stabilityBeforeRun = pool.stabilityBeforeRun;
   },
 }));
 

@@ -18,12 +18,14 @@ vi.mock('@/api/sheets', async (importOriginal) => ({
 }));
 vi.mock('@/workers/pool', async () => {
   const { inProcessExecutor: inProcess } = await import('@shared/run/environments');
+  const { stabilityReport } = await import('@shared/engine/stability');
   return {
     SimulationPool: class {
       private readonly executor = inProcess();
       simulate = this.executor.runSimulation;
       runStudy = this.executor.runStudy;
       cancel = () => {};
+      stabilityBeforeRun = async (plan: Parameters<typeof stabilityReport>[0]) => stabilityReport(plan);
     },
   };
 });

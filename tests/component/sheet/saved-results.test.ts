@@ -17,7 +17,12 @@ import { buttonNamed, cardOf, click, mountSheet, pondSheet, settle } from './har
  * fake-indexeddb), and with an old version from the summary saved with it.
  */
 
-const pool = vi.hoisted(() => ({ simulate: vi.fn(), runStudy: vi.fn(), cancel: vi.fn() }));
+const pool = vi.hoisted(() => ({
+  stabilityBeforeRun: vi.fn(),
+  simulate: vi.fn(),
+  runStudy: vi.fn(),
+  cancel: vi.fn(),
+}));
 
 vi.mock('@/api/sheets', async (importOriginal) => ({
   ...(await importOriginal<typeof import('@/api/sheets')>()),
@@ -31,6 +36,7 @@ vi.mock('@/workers/pool', () => ({
     simulate = pool.simulate;
     runStudy = pool.runStudy;
     cancel = pool.cancel;
+    stabilityBeforeRun = pool.stabilityBeforeRun;
   },
 }));
 
