@@ -140,4 +140,52 @@ describe('the page does not hide a wrong number or lose a result', () => {
         .waitFor();
     });
   });
+
+  it('asks before running a stiff linear model at a step that is unstable for it', async () => {
+    await withFailureShot(page, 'honest-stiff', async () => {
+      // dX = -80 X dt + 0.2 dW over 2 time units in 20 steps: h = 0.1, hλ = -8, |1 + hλ| = 7 > 1,
+      // unstable for Euler–Maruyama (stable only for h < 2/80 = 0.025; Higham 2000, §2).
+      const stiff = {
+        schemaVersion: 1,
+        title: 'Stiff relaxation',
+        cells: [
+          { id: 'params-stiff', kind: 'params', params: [{ name: 'rate', value: 80 }] },
+          {
+            id: 'model-stiff',
+            kind: 'model',
+            name: 'Fast relaxation',
+            states: [{ name: 'x', initial: '1', drift: '-rate * x', diffusion: { W: '0.2' } }],
+            noises: [{ name: 'W' }],
+            calculus: 'ito',
+          },
+          {
+            id: 'simulation-stiff',
+            kind: 'simulation',
+            name: 'Coarse step',
+            model: 'model-stiff',
+            method: 'euler-maruyama',
+            t0: 0,
+            t1: 2,
+            steps: 20,
+            paths: 500,
+            seed: 5120,
+            saveCount: 11,
+            samplePaths: 5,
+            boundaries: {},
+            overrides: {},
+          },
+        ],
+      };
+      const stiffId = await createSheet(page, { title: 'Stiff relaxation', document: stiff });
+      await page.goto(appUrl(`/sheets/${stiffId}`));
+      await page.getByLabel('Version 1').waitFor();
+      await page.getByRole('button', { name: 'Run all' }).click();
+      await page.getByText('The step is too large for this model').waitFor({ timeout: 60_000 });
+      await page.getByText(/A step below 0\.025\d* is stable here/).waitFor();
+      await page.getByRole('button', { name: 'Do not run' }).click();
+      expect(await page.locator('article[data-cell-id="simulation-stiff"]').textContent()).toContain(
+        'not run yet',
+      );
+    });
+  });
 });
