@@ -11,13 +11,14 @@ import type { CellOutput } from './outputs';
  * The compact summary of a sheet's results saved with a version, so that an old version opens
  * with its numbers and charts ("as saved with version N") without running again: each
  * simulation's saved statistics on at most MAX_TIMES saved times, a few sample paths, its losses,
- * stability and digest; each probe's estimate; each study's orders. Tens of kilobytes, not the
- * per-path values: a chart that needs every path's values (a histogram) asks for a run instead,
- * and a restored output is never reused as the input of a new run.
+ * stability and digest; each probe's estimate; each study's orders. Tens of kilobytes (18 to 61
+ * KiB for the example sheets), not the per-path values: a chart that needs every path's values
+ * (a histogram) asks for a run instead, and a restored output is never reused as the input of a
+ * new run.
  */
 
 /** Saved times kept per simulation; the first and the last are always among them. */
-export const MAX_TIMES = 201;
+export const MAX_TIMES = 101;
 /** Sample paths kept per state variable. */
 export const MAX_PATHS = 10;
 /** The summary's JSON size limit, in characters (the server refuses more). */
@@ -157,6 +158,11 @@ export type VersionResults = z.infer<typeof versionResultsSchema>;
 type SimulationSummary = z.infer<typeof simulationSummarySchema>;
 
 const toJson = (x: number): number | null => (Number.isFinite(x) ? x : null);
+/**
+ * Sample paths are only drawn, so six significant digits are plenty and halve their size; the
+ * statistics keep every digit (the summary line and the runner read them).
+ */
+const drawn = (x: number): number | null => (Number.isFinite(x) ? Number(x.toPrecision(6)) : null);
 const fromJson = (x: number | null): number => x ?? Number.NaN;
 
 /** At most MAX_TIMES indices spread evenly over 0..count-1, with both ends. */
@@ -204,7 +210,9 @@ function summariseSimulation(
     savedSteps: kept.map((k) => result.savedSteps[k]!),
     stats,
     covariance,
-    samplePaths: result.samplePaths.map((paths) => paths.slice(0, MAX_PATHS).map(pick)),
+    samplePaths: result.samplePaths.map((paths) =>
+      paths.slice(0, MAX_PATHS).map((path) => kept.map((k) => drawn(path[k]!))),
+    ),
     losses: { ...result.losses, byCause: { ...result.losses.byCause }, advice: [...result.losses.advice] },
     extinctions: result.extinctions.map((e) => ({
       ...e,
