@@ -32,6 +32,7 @@ export const SHEET_ROUTE_RIGHTS = {
   'POST /api/sheets/:id/owner': 'transfer',
   'GET /api/sheets/:id/comments': 'read',
   'POST /api/sheets/:id/comments': 'comment',
+  'POST /api/sheets/:id/datasets': 'uploadData',
   /** A new body needs editComment, a resolved flag resolveComment. */
   'PATCH /api/comments/:id': ['editComment', 'resolveComment'],
   'DELETE /api/comments/:id': 'deleteComment',

@@ -2,6 +2,9 @@ import { Router } from 'express';
 import { createCommentsRepository } from '../comments/comments.repository';
 import { commentsRoutes, sheetCommentsRoutes } from '../comments/comments.routes';
 import { createCommentsUsecases } from '../comments/comments.usecases';
+import { createDatasetsRepository } from '../datasets/datasets.repository';
+import { datasetsRoutes, sheetDatasetsRoutes } from '../datasets/datasets.routes';
+import { createDatasetsUsecases } from '../datasets/datasets.usecases';
 import type { Db, DbExecutor } from '../db/client';
 import { createTransact } from '../db/transact';
 import type { Mailer } from '../mail/mailer';
@@ -44,6 +47,10 @@ export function createSheetFeatures({ db, mailer, report, now }: SheetFeatureDep
     forks: createForksUsecases({ sheets: repositories.sheets, sheetUsecases: sheets }),
     shares: createSharesUsecases({ repositories, transact, notify, now }),
     comments: createCommentsUsecases({ repositories, notify, now }),
+    datasets: createDatasetsUsecases({
+      datasets: createDatasetsRepository({ db }),
+      sheets: repositories.sheets,
+    }),
   };
 }
 
@@ -55,7 +62,9 @@ export function sheetFeatureRoutes(features: SheetFeatures, { appOrigin }: { app
   router.use('/sheets', sheetsRoutes(features));
   router.use('/sheets', sheetSharesRoutes({ shares: features.shares, appOrigin }));
   router.use('/sheets', sheetCommentsRoutes({ comments: features.comments, appOrigin }));
+  router.use('/sheets', sheetDatasetsRoutes(features));
   router.use('/comments', commentsRoutes(features));
+  router.use('/datasets', datasetsRoutes(features));
   router.use('/invitations', invitationsRoutes(features));
   return router;
 }

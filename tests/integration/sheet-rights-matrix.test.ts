@@ -186,6 +186,15 @@ const CALLS: Partial<Record<SheetRoute, Call[]>> = {
         agent.post(`/api/sheets/${f.sheetId}/comments`).send({ cellId: 'run', version: 2, body: 'Seed?' }),
     },
   ],
+  'POST /api/sheets/:id/datasets': [
+    {
+      success: 201,
+      send: (agent, f) =>
+        agent
+          .post(`/api/sheets/${f.sheetId}/datasets`)
+          .attach('file', Buffer.from('day,salinity\n0,12\n1,14.5\n'), 'creek.csv'),
+    },
+  ],
   'PATCH /api/comments/:id': [
     {
       action: 'editComment',
@@ -224,7 +233,15 @@ function expectedStatus(route: SheetRoute, call: Call, persona: Persona): number
 
 /** Everything a sheet request could change, as text. */
 async function databaseState(): Promise<string> {
-  const tables = ['users', 'sheets', 'sheet_versions', 'sheet_shares', 'sheet_invitations', 'comments'];
+  const tables = [
+    'users',
+    'sheets',
+    'sheet_versions',
+    'sheet_shares',
+    'sheet_invitations',
+    'comments',
+    'datasets',
+  ];
   const parts: string[] = [];
   for (const table of tables) {
     const result = await context.database.db.execute(

@@ -6,6 +6,7 @@ import { planRunSteps } from '@shared/run/steps';
 import type { CellOutput } from '@shared/run/outputs';
 import type { RunProgress } from '@shared/run/progress';
 import { errorMessage } from '@/api/http';
+import { createBrowserDatasetProvider } from '@/api/datasets';
 import { createBrowserExecutor, nextTask, type BrowserExecutor } from './browser-executor';
 import type { SheetDocumentState } from './document';
 
@@ -27,6 +28,7 @@ export function useSheetRuns(state: SheetDocumentState) {
   const failures = shallowRef<Record<string, string>>({});
   let runCancelled = false;
   let executor: BrowserExecutor | null = null;
+  const datasets = createBrowserDatasetProvider();
   /** True from a run's click until it shows as running (see run). */
   let starting = false;
 
@@ -103,6 +105,7 @@ export function useSheetRuns(state: SheetDocumentState) {
       }
       const result = await runSheet(doc, {
         executor,
+        datasets,
         target: targetId,
         fingerprints: state.fingerprints.value,
         kept,
@@ -142,6 +145,7 @@ export function useSheetRuns(state: SheetDocumentState) {
       const copy = JSON.parse(JSON.stringify(doc)) as SheetDocument;
       return await runSheet(copy, {
         executor,
+        datasets,
         onStepStart: (step) => {
           runningCellId.value = step.cellId;
           stepStartedAt.value = performance.now();
