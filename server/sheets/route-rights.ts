@@ -21,6 +21,8 @@ export const SHEET_ROUTE_RIGHTS = {
   'GET /api/sheets/:id/versions': 'read',
   'POST /api/sheets/:id/versions': 'saveVersion',
   'GET /api/sheets/:id/versions/:number': 'read',
+  'GET /api/sheets/:id/versions/:number/file': 'read',
+  'POST /api/sheets/import': 'signedIn',
   'POST /api/sheets/:id/versions/:number/restore': 'restore',
   'GET /api/sheets/:id/forks': 'read',
   'POST /api/sheets/:id/forks': 'fork',

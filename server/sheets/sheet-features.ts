@@ -6,6 +6,8 @@ import { createDatasetsRepository } from '../datasets/datasets.repository';
 import { datasetsRoutes, sheetDatasetsRoutes } from '../datasets/datasets.routes';
 import { createDatasetsUsecases } from '../datasets/datasets.usecases';
 import type { Db, DbExecutor } from '../db/client';
+import { sheetFilesRoutes } from '../sheet-files/sheet-files.routes';
+import { createSheetFilesUsecases } from '../sheet-files/sheet-files.usecases';
 import { createTransact } from '../db/transact';
 import type { Mailer } from '../mail/mailer';
 import { createSharesRepository } from '../shares/shares.repository';
@@ -51,6 +53,14 @@ export function createSheetFeatures({ db, mailer, report, now }: SheetFeatureDep
       datasets: createDatasetsRepository({ db }),
       sheets: repositories.sheets,
     }),
+    sheetFiles: createSheetFilesUsecases({
+      repositories: { sheets: repositories.sheets, datasets: createDatasetsRepository({ db }) },
+      transact: createTransact(db, (tx) => ({
+        sheets: createSheetsRepository({ db: tx }),
+        datasets: createDatasetsRepository({ db: tx }),
+      })),
+      now,
+    }),
   };
 }
 
@@ -59,6 +69,8 @@ export type SheetFeatures = ReturnType<typeof createSheetFeatures>;
 /** The API routes of sheets and what hangs off them, to mount under /api (see route-rights.ts). */
 export function sheetFeatureRoutes(features: SheetFeatures, { appOrigin }: { appOrigin?: string }): Router {
   const router = Router();
+  // Before the sheet routes, so that /import is not read as a sheet id.
+  router.use('/sheets', sheetFilesRoutes(features));
   router.use('/sheets', sheetsRoutes(features));
   router.use('/sheets', sheetSharesRoutes({ shares: features.shares, appOrigin }));
   router.use('/sheets', sheetCommentsRoutes({ comments: features.comments, appOrigin }));

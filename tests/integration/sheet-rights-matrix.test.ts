@@ -134,6 +134,28 @@ const CALLS: Partial<Record<SheetRoute, Call[]>> = {
   'GET /api/sheets/:id/versions/:number': [
     { success: 200, send: (agent, f) => agent.get(`/api/sheets/${f.sheetId}/versions/1`) },
   ],
+  'GET /api/sheets/:id/versions/:number/file': [
+    { success: 200, send: (agent, f) => agent.get(`/api/sheets/${f.sheetId}/versions/2/file`) },
+  ],
+  'POST /api/sheets/import': [
+    {
+      success: 201,
+      send: (agent) =>
+        agent.post('/api/sheets/import').attach(
+          'file',
+          Buffer.from(
+            JSON.stringify({
+              format: 'meander.sheet',
+              formatVersion: 1,
+              exportedAt: '2026-01-01T00:00:00.000Z',
+              engineVersion: 1,
+              document: creekDocument('Imported creek'),
+            }),
+          ),
+          'creek.meander.json',
+        ),
+    },
+  ],
   'POST /api/sheets/:id/versions/:number/restore': [
     { success: 201, send: (agent, f) => agent.post(`/api/sheets/${f.sheetId}/versions/1/restore`) },
   ],
