@@ -26,6 +26,7 @@ import { noStore, securityHeaders } from './http/security-headers';
 import { type Logger, loggableError, silentLogger } from './logger';
 import type { MailboxReader } from './mail/mail-fake';
 import type { Mailer } from './mail/mailer';
+import { isFileUpload } from './http/file-upload';
 import { createSheetFeatures, sheetFeatureRoutes } from './sheets/sheet-features';
 import { createUsersRepository } from './users/users.repository';
 
@@ -90,7 +91,7 @@ export function createApp(deps: AppDeps): Express {
 
   const api = express.Router();
   api.use(noStore());
-  api.use(jsonBody({ limit: '2mb' }));
+  api.use(jsonBody({ limit: '2mb', multipartAt: isFileUpload }));
   api.use(requireSameOrigin(origins));
   // Before the session lookup: health must answer 503, not fail, when the database is down.
   api.use('/health', healthRoutes({ db }));

@@ -1,4 +1,5 @@
 import { exampleSheets } from '@shared/examples/index';
+import pondOxygen from '@shared/examples/sheet-files/pond-oxygen.meander.json';
 import type { SheetDocument } from '@shared/sheet/document';
 
 /**
@@ -7,4 +8,12 @@ import type { SheetDocument } from '@shared/sheet/document';
  */
 export function demoSheetDocuments(): SheetDocument[] {
   return exampleSheets.map((example) => structuredClone(example.document));
+}
+
+/**
+ * Demo sheets with observed data, as sheet files (scripts/pond-oxygen-data.ts writes the one
+ * there is); the seeder imports each for the first demo member.
+ */
+export function demoSheetFiles(): Uint8Array[] {
+  return [new TextEncoder().encode(JSON.stringify(pondOxygen))];
 }

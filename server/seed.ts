@@ -4,7 +4,7 @@ import { createPasswordHasher } from './auth/passwords';
 import type { Db } from './db/client';
 import type { Mailer } from './mail/mailer';
 import { seedDemoGroup } from './seed-group';
-import { demoSheetDocuments } from './seed-sheets';
+import { demoSheetDocuments, demoSheetFiles } from './seed-sheets';
 import { createSheetFeatures } from './sheets/sheet-features';
 import { createUsersRepository } from './users/users.repository';
 
@@ -94,6 +94,12 @@ export async function seedDemo(db: Db, options: SeedOptions = {}): Promise<SeedR
     created[0]!,
     options.appOrigin ?? 'http://127.0.0.1:3000',
   );
+  // A sheet with observed data comes as a sheet file: its dataset is stored with it.
+  for (const file of demoSheetFiles()) await features.sheetFiles.importFile(maren!, file);
   // The editor's fork is a sheet too.
-  return { seeded: true, accounts: DEMO_ACCOUNTS, sheetCount: documents.length + 1 };
+  return {
+    seeded: true,
+    accounts: DEMO_ACCOUNTS,
+    sheetCount: documents.length + demoSheetFiles().length + 1,
+  };
 }

@@ -6,7 +6,7 @@ import { scaleSheetPaths } from '../../shared/run/scale';
 import type { SheetRunJson } from '../../shared/run/outputs';
 import type { RunArguments } from './args';
 import { createThreadPool, defaultThreadCount } from './thread-pool';
-import { validateSheetText } from './validate';
+import { loadSheetText } from './validate';
 
 /** What the command prints and returns; cli.ts does the actual writing and exiting. */
 export interface CommandOutcome {
@@ -52,7 +52,7 @@ export async function runCommand(
           : String(error);
     return { exitCode: EXIT_USAGE, stdout: '', stderr: [`cannot read ${args.file}: ${reason}`] };
   }
-  const validation = validateSheetText(text);
+  const validation = await loadSheetText(text);
   if (!validation.ok) {
     return {
       exitCode: EXIT_INVALID,
@@ -65,7 +65,7 @@ export async function runCommand(
   const threads = createThreadPool(args.workers ?? defaultThreadCount());
   let output: SheetRunJson;
   try {
-    output = await runSheetToJson(doc, threads.executor);
+    output = await runSheetToJson(doc, threads.executor, { datasets: validation.datasets });
   } finally {
     await threads.close();
   }

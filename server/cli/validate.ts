@@ -1,4 +1,6 @@
 import type { z } from 'zod';
+import type { DatasetProvider } from '../../shared/data/provider';
+import { parseSheetFile, SHEET_FILE_FORMAT, sheetFileDatasets } from '../../shared/sheet-file/sheet-file';
 import {
   cellIdSchema,
   checkSheet,
@@ -54,4 +56,34 @@ export function validateSheetText(text: string): ValidationOutcome {
   const issues: SheetIssue[] = checkSheet(parsed.data);
   if (issues.length > 0) return { ok: false, problems: issues.map(describeIssue) };
   return { ok: true, doc: parsed.data };
+}
+
+/** A checked document and, for a sheet file, its embedded datasets. */
+export type LoadedSheet =
+  { ok: true; doc: SheetDocument; datasets?: DatasetProvider } | { ok: false; problems: string[] };
+
+/**
+ * Reads either a bare sheet document or a Meander sheet file (a document with its datasets,
+ * digests and engine version, as the sheet page exports it).
+ */
+export async function loadSheetText(text: string): Promise<LoadedSheet> {
+  let raw: unknown;
+  try {
+    raw = JSON.parse(text);
+  } catch {
+    return validateSheetText(text);
+  }
+  const isSheetFile =
+    raw !== null && typeof raw === 'object' && (raw as { format?: unknown }).format === SHEET_FILE_FORMAT;
+  if (!isSheetFile) return validateSheetText(text);
+  const parsed = await parseSheetFile(raw);
+  if (!parsed.ok)
+    return { ok: false, problems: [`${pathText(parsed.fault.path) || 'file'}: ${parsed.fault.message}`] };
+  const issues: SheetIssue[] = checkSheet(parsed.file.document);
+  if (issues.length > 0) return { ok: false, problems: issues.map(describeIssue) };
+  try {
+    return { ok: true, doc: parsed.file.document, datasets: sheetFileDatasets(parsed.file) };
+  } catch (error) {
+    return { ok: false, problems: [error instanceof Error ? error.message : String(error)] };
+  }
 }

@@ -6,7 +6,7 @@ import type { RunExecutor } from '../../shared/cells/kind';
 import type { VerifyArguments } from './args';
 import { EXIT_INVALID, EXIT_OK, EXIT_USAGE, type CommandOutcome } from './run-command';
 import { createThreadPool, defaultThreadCount } from './thread-pool';
-import { validateSheetText } from './validate';
+import { loadSheetText } from './validate';
 
 /**
  * `verify FILE.json --digests DIGESTS.json`: reruns the sheet and compares each simulation with
@@ -87,7 +87,7 @@ export async function verifyCommand(args: VerifyArguments, executor?: RunExecuto
   if (typeof sheetText !== 'string') return { exitCode: EXIT_USAGE, stdout: '', stderr: [sheetText.problem] };
   if (typeof digestsText !== 'string')
     return { exitCode: EXIT_USAGE, stdout: '', stderr: [digestsText.problem] };
-  const validation = validateSheetText(sheetText);
+  const validation = await loadSheetText(sheetText);
   if (!validation.ok) {
     return {
       exitCode: EXIT_INVALID,
@@ -102,7 +102,9 @@ export async function verifyCommand(args: VerifyArguments, executor?: RunExecuto
   const threads = executor ? null : createThreadPool(args.workers ?? defaultThreadCount());
   let rerun: Record<string, SimulationRecord>;
   try {
-    const output = await runSheetToJson(validation.doc, executor ?? threads!.executor);
+    const output = await runSheetToJson(validation.doc, executor ?? threads!.executor, {
+      datasets: validation.datasets,
+    });
     rerun = {};
     for (const cell of output.cells)
       if (cell.kind === 'simulation' && 'digest' in cell) rerun[cell.id] = simulationRecord(cell);

@@ -7,3 +7,4 @@ export * from '../auth/sign-up-requests.table';
 export * from '../sheets/sheets.table';
 export * from '../shares/shares.table';
 export * from '../comments/comments.table';
+export * from '../datasets/datasets.table';

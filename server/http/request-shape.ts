@@ -18,13 +18,25 @@ export function rejectMalformedUrl(): RequestHandler {
 
 /**
  * JSON bodies only: another content type is a 415 that says what to send, and bytes that are not
- * UTF-8 are a 400 instead of being decoded into replacement characters and stored.
+ * UTF-8 are a 400 instead of being decoded into replacement characters and stored. File uploads
+ * (multipart) are let through on the paths `multipartAt` accepts; their route reads them.
  */
-export function jsonBody({ limit }: { limit: string }): RequestHandler[] {
+export function jsonBody({
+  limit,
+  multipartAt = () => false,
+}: {
+  limit: string;
+  multipartAt?: (method: string, path: string) => boolean;
+}): RequestHandler[] {
   const requireJson: RequestHandler = (req, _res, next) => {
     const hasBody =
       req.headers['transfer-encoding'] !== undefined || Number(req.headers['content-length'] ?? 0) > 0;
-    next(BODY_METHODS.has(req.method) && hasBody && !req.is('application/json') ? notJson() : undefined);
+    const upload = req.is('multipart/form-data') && multipartAt(req.method, req.path);
+    next(
+      BODY_METHODS.has(req.method) && hasBody && !upload && !req.is('application/json')
+        ? notJson()
+        : undefined,
+    );
   };
   const parse = express.json({
     limit,

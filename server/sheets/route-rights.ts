@@ -21,6 +21,8 @@ export const SHEET_ROUTE_RIGHTS = {
   'GET /api/sheets/:id/versions': 'read',
   'POST /api/sheets/:id/versions': 'saveVersion',
   'GET /api/sheets/:id/versions/:number': 'read',
+  'GET /api/sheets/:id/versions/:number/file': 'read',
+  'POST /api/sheets/import': 'signedIn',
   'POST /api/sheets/:id/versions/:number/restore': 'restore',
   'GET /api/sheets/:id/forks': 'read',
   'POST /api/sheets/:id/forks': 'fork',
@@ -32,6 +34,7 @@ export const SHEET_ROUTE_RIGHTS = {
   'POST /api/sheets/:id/owner': 'transfer',
   'GET /api/sheets/:id/comments': 'read',
   'POST /api/sheets/:id/comments': 'comment',
+  'POST /api/sheets/:id/datasets': 'uploadData',
   /** A new body needs editComment, a resolved flag resolveComment. */
   'PATCH /api/comments/:id': ['editComment', 'resolveComment'],
   'DELETE /api/comments/:id': 'deleteComment',

@@ -45,6 +45,7 @@ export const SHEET_RIGHTS = {
     authorWhat: 'delete comments you wrote',
   },
   saveVersion: { roles: editors, what: 'save versions' },
+  uploadData: { roles: editors, what: 'upload observed data' },
   rename: { roles: editors, what: 'rename it' },
   restore: { roles: editors, what: 'restore an old version' },
   share: { roles: owner, what: 'share it and change roles' },

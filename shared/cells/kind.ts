@@ -5,6 +5,7 @@ import type { SheetIssue } from '../sheet/issues';
 import type { SheetIndex } from '../sheet/sheet-index';
 import type { CellOutput } from '../run/outputs';
 import type { RunProgress } from '../run/progress';
+import type { DatasetProvider } from '../data/provider';
 import type { EdgeColour } from './colours';
 
 /**
@@ -108,5 +109,7 @@ export interface RunStepContext {
   plan(simulationId: string): SimulationPlan;
   /** The current output of another cell: this run's, or a kept one whose inputs have not changed. */
   currentOutput(cellId: string): CellOutput | undefined;
+  /** Stored datasets' rows, for data cells; absent where the runner has none. */
+  datasets?: DatasetProvider;
   onProgress(progress: RunProgress): void;
 }

@@ -2,6 +2,7 @@ import { z } from 'zod';
 import type { Cell, CellKind } from '../sheet/document';
 import type { CellKindDefinition } from './kind';
 import { chartCellSchema, chartKind } from './chart';
+import { dataCellSchema, dataKind } from './data';
 import { modelCellSchema, modelKind } from './model';
 import { noteCellSchema, noteKind } from './note';
 import { paramsCellSchema, paramsKind } from './params';
@@ -22,6 +23,7 @@ export const cellSchema = z.discriminatedUnion('kind', [
   chartCellSchema,
   probeCellSchema,
   studyCellSchema,
+  dataCellSchema,
 ]);
 
 type Definitions = { [K in CellKind]: CellKindDefinition<K> };
@@ -34,6 +36,7 @@ export const CELL_KINDS: Definitions = {
   chart: chartKind,
   probe: probeKind,
   study: studyKind,
+  data: dataKind,
 };
 
 /** The kinds in menu order. */

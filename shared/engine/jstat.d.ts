@@ -10,6 +10,7 @@ declare module 'jstat' {
     lognormal: Distribution;
     studentt: Distribution;
     chisquare: Distribution;
+    beta: Distribution;
     mean(values: ArrayLike<number>): number;
     /** Sample (n − 1) version when `sample` is true. */
     stdev(values: ArrayLike<number>, sample?: boolean): number;

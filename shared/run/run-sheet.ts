@@ -1,5 +1,6 @@
 import { kindOf } from '../cells/registry';
 import type { RunExecutor, RunStepContext } from '../cells/kind';
+import type { DatasetProvider } from '../data/provider';
 import { ENGINE_VERSION } from '../engine/version';
 import type { SimulationPlan } from '../engine/plan';
 import { sheetCellDependencies } from '../sheet/dependencies';
@@ -38,6 +39,8 @@ export interface RunSheetOptions {
   fingerprints?: Readonly<Record<string, string>>;
   /** Outputs of earlier runs, reused where their fingerprint still matches. */
   kept?: (cellId: string) => KeptOutput | undefined;
+  /** Where data cells read their datasets' rows. */
+  datasets?: DatasetProvider;
   onStepStart?(step: RunStep): void;
   onProgress?(cellId: string, progress: RunProgress): void;
   onCellOutput?(cellId: string, kept: KeptOutput): void;
@@ -95,6 +98,7 @@ export async function runSheet(doc: SheetDocument, options: RunSheetOptions): Pr
       return plan;
     },
     currentOutput: (cellId) => outputs.get(cellId)?.output ?? keptCurrent(cellId)?.output,
+    datasets: options.datasets,
     onProgress: (progress) => options.onProgress?.(step.cellId, progress),
   });
 

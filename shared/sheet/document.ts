@@ -38,6 +38,7 @@ export type SimulationCell = Extract<Cell, { kind: 'simulation' }>;
 export type ChartCell = Extract<Cell, { kind: 'chart' }>;
 export type ProbeCell = Extract<Cell, { kind: 'probe' }>;
 export type StudyCell = Extract<Cell, { kind: 'study' }>;
+export type DataCell = Extract<Cell, { kind: 'data' }>;
 
 export function emptySheetDocument(title: string): SheetDocument {
   return { schemaVersion: SHEET_SCHEMA_VERSION, title, cells: [] };

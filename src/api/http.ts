@@ -40,6 +40,8 @@ export interface RequestOptions {
   method?: 'GET' | 'POST' | 'PATCH' | 'PUT' | 'DELETE';
   /** Sent as JSON. */
   body?: unknown;
+  /** Sent as multipart/form-data instead of a JSON body (file uploads). */
+  formData?: FormData;
   /** Appended as a query string; `undefined`, `null` and '' are left out. */
   query?: Record<string, QueryValue>;
   signal?: AbortSignal;
@@ -114,13 +116,15 @@ function fallbackMessage(response: Response): string {
 
 /** Sends one request and returns the parsed JSON body (`undefined` for 204 or an empty body). */
 export async function request<T>(path: string, options: RequestOptions = {}): Promise<T> {
-  const { method = 'GET', body, query, signal } = options;
+  const { method = 'GET', body, formData, query, signal } = options;
   const headers: Record<string, string> = { Accept: 'application/json' };
   const init: RequestInit = { method, headers, credentials: 'same-origin' };
   if (body !== undefined) {
     headers['Content-Type'] = 'application/json';
     init.body = JSON.stringify(body);
   }
+  // The browser writes the multipart Content-Type with its boundary itself.
+  if (formData !== undefined) init.body = formData;
   if (signal) init.signal = signal;
 
   let response: Response;

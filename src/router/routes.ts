@@ -49,6 +49,13 @@ export const routes: RouteRecordRaw[] = [
     meta: { title: 'Sheet' },
   },
   {
+    path: '/sheets/:id/versions/:number/report',
+    name: 'version-report',
+    component: () => import('@/views/ReportView.vue'),
+    props: true,
+    meta: { title: 'Report' },
+  },
+  {
     path: '/invitations/:token',
     name: 'invitation',
     component: () => import('@/views/InvitationView.vue'),

@@ -1,3 +1,4 @@
+import { importSheetFile } from '@/api/sheet-files';
 import { defineStore } from 'pinia';
 import { ref } from 'vue';
 import * as sheetsApi from '@/api/sheets';
@@ -65,5 +66,12 @@ export const useSheetsStore = defineStore('sheets', () => {
     error.value = null;
   }
 
-  return { items, loaded, loading, error, fetchAll, create, rename, remove, reset };
+  /** A sheet file exported from Meander, as a new sheet of the caller's; the list is refetched. */
+  async function importFile(file: File): Promise<CreatedSheet> {
+    const created = await importSheetFile(file, file.name);
+    await fetchAll();
+    return created;
+  }
+
+  return { items, loaded, loading, error, fetchAll, create, importFile, rename, remove, reset };
 });

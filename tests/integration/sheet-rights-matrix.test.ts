@@ -134,6 +134,28 @@ const CALLS: Partial<Record<SheetRoute, Call[]>> = {
   'GET /api/sheets/:id/versions/:number': [
     { success: 200, send: (agent, f) => agent.get(`/api/sheets/${f.sheetId}/versions/1`) },
   ],
+  'GET /api/sheets/:id/versions/:number/file': [
+    { success: 200, send: (agent, f) => agent.get(`/api/sheets/${f.sheetId}/versions/2/file`) },
+  ],
+  'POST /api/sheets/import': [
+    {
+      success: 201,
+      send: (agent) =>
+        agent.post('/api/sheets/import').attach(
+          'file',
+          Buffer.from(
+            JSON.stringify({
+              format: 'meander.sheet',
+              formatVersion: 1,
+              exportedAt: '2026-01-01T00:00:00.000Z',
+              engineVersion: 1,
+              document: creekDocument('Imported creek'),
+            }),
+          ),
+          'creek.meander.json',
+        ),
+    },
+  ],
   'POST /api/sheets/:id/versions/:number/restore': [
     { success: 201, send: (agent, f) => agent.post(`/api/sheets/${f.sheetId}/versions/1/restore`) },
   ],
@@ -186,6 +208,15 @@ const CALLS: Partial<Record<SheetRoute, Call[]>> = {
         agent.post(`/api/sheets/${f.sheetId}/comments`).send({ cellId: 'run', version: 2, body: 'Seed?' }),
     },
   ],
+  'POST /api/sheets/:id/datasets': [
+    {
+      success: 201,
+      send: (agent, f) =>
+        agent
+          .post(`/api/sheets/${f.sheetId}/datasets`)
+          .attach('file', Buffer.from('day,salinity\n0,12\n1,14.5\n'), 'creek.csv'),
+    },
+  ],
   'PATCH /api/comments/:id': [
     {
       action: 'editComment',
@@ -224,7 +255,15 @@ function expectedStatus(route: SheetRoute, call: Call, persona: Persona): number
 
 /** Everything a sheet request could change, as text. */
 async function databaseState(): Promise<string> {
-  const tables = ['users', 'sheets', 'sheet_versions', 'sheet_shares', 'sheet_invitations', 'comments'];
+  const tables = [
+    'users',
+    'sheets',
+    'sheet_versions',
+    'sheet_shares',
+    'sheet_invitations',
+    'comments',
+    'datasets',
+  ];
   const parts: string[] = [];
   for (const table of tables) {
     const result = await context.database.db.execute(

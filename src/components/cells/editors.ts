@@ -15,6 +15,7 @@ const loaders: Record<CellKind, () => Promise<Component>> = {
   chart: () => import('./ChartCell.vue'),
   probe: () => import('./ProbeCell.vue'),
   study: () => import('./StudyCell.vue'),
+  data: () => import('./DataCell.vue'),
 };
 
 /**
@@ -29,6 +30,7 @@ const readingLoaders: Record<CellKind, () => Promise<Component>> = {
   chart: () => import('./ChartReading.vue'),
   probe: () => import('./ProbeReading.vue'),
   study: () => import('./StudyReading.vue'),
+  data: () => import('./DataReading.vue'),
 };
 
 export type CellEditorMap = Partial<Record<CellKind, Component>>;

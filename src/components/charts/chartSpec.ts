@@ -1,6 +1,7 @@
 import type { PlotLayout, PlotTrace } from 'plotly.js-dist-min';
 import type { SimulationPlan, SimulationResult } from '@shared/engine';
 import type { ChartCell, ModelCell } from '@shared/sheet/document';
+import type { ObservedOverlay } from './observedOverlay';
 
 /** Everything a chart shows, computed from a run without touching the DOM (so it is testable). */
 export interface ChartSpec {
@@ -14,6 +15,8 @@ export interface ChartSpec {
   fileName: string;
   /** Something the reader should know (an overlay skipped, paths left out). */
   note?: string;
+  /** A number read off the chart against observations (the fan's calibration read-out). */
+  readout?: string;
 }
 
 export interface ChartInput {
@@ -22,6 +25,8 @@ export interface ChartInput {
   plan: SimulationPlan;
   /** The simulated model cell, for recognising a known law. */
   model?: ModelCell;
+  /** Observed points of the chart's state, from the sheet's data cells. */
+  observed?: ObservedOverlay | null;
 }
 
 export type ChartBuild = { ok: true; spec: ChartSpec } | { ok: false; message: string };

@@ -7,6 +7,7 @@ import { summariseResults } from '@shared/run/version-results';
 import type { CellOutput } from '@shared/run/outputs';
 import type { RunProgress } from '@shared/run/progress';
 import { errorMessage } from '@/api/http';
+import { createBrowserDatasetProvider } from '@/api/datasets';
 import { createBrowserExecutor, nextTask, type BrowserExecutor } from './browser-executor';
 import type { SheetDocumentState } from './document';
 import { createResultCache, type ResultCache } from './result-cache';
@@ -35,6 +36,7 @@ export function useSheetRuns(state: SheetDocumentState, cache: ResultCache = cre
   const failures = shallowRef<Record<string, string>>({});
   let runCancelled = false;
   let executor: BrowserExecutor | null = null;
+  const datasets = createBrowserDatasetProvider();
   /** True from a run's click until it shows as running (see run). */
   let starting = false;
 
@@ -146,6 +148,7 @@ export function useSheetRuns(state: SheetDocumentState, cache: ResultCache = cre
       }
       const result = await runSheet(doc, {
         executor,
+        datasets,
         target: targetId,
         fingerprints: state.fingerprints.value,
         kept,
@@ -185,6 +188,7 @@ export function useSheetRuns(state: SheetDocumentState, cache: ResultCache = cre
       const copy = JSON.parse(JSON.stringify(doc)) as SheetDocument;
       return await runSheet(copy, {
         executor,
+        datasets,
         onStepStart: (step) => {
           runningCellId.value = step.cellId;
           stepStartedAt.value = performance.now();

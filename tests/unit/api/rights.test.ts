@@ -3,7 +3,7 @@ import { allowedActions, mayDo, refusalMessage, SHEET_ROLES } from '@shared/api/
 
 describe('the rights table', () => {
   // The rule as the sharing issue states it: each role adds to the one below.
-  it('lets a viewer read, run and fork; a commenter also comment; an editor also save, rename, restore', () => {
+  it('lets a viewer read, run and fork; a commenter also comment; an editor also save, upload data, rename, restore', () => {
     expect(allowedActions('viewer')).toEqual(['read', 'run', 'fork']);
     expect(allowedActions('commenter')).toEqual([
       'read',
@@ -17,6 +17,7 @@ describe('the rights table', () => {
     expect(allowedActions('editor')).toEqual([
       ...allowedActions('commenter'),
       'saveVersion',
+      'uploadData',
       'rename',
       'restore',
     ]);
