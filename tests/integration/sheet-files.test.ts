@@ -120,16 +120,22 @@ describe('importing a sheet file', () => {
     await colleague.agent.get(`/api/datasets/${file.datasets[0]!.id}`).expect(404);
   });
 
-  const BAD: [string, (copy: Record<string, any>) => unknown, RegExp][] = [
+  /** The parts of an exported file the spoilers below change. */
+  type Spoilable = {
+    format: string;
+    document: { schemaVersion: number; cells: Record<string, unknown>[] };
+    datasets: { content: string }[];
+  };
+  const BAD: [string, (copy: Spoilable) => unknown, RegExp][] = [
     [
       'a document with a bad field',
-      (copy) => ((copy.document.cells[2].steps = -5), copy),
+      (copy) => ((copy.document.cells[2]!.steps = -5), copy),
       /^document\.cells\.2\.steps: /,
     ],
     ['another format', (copy) => ((copy.format = 'spreadsheet'), copy), /^format: not a Meander sheet file/],
     [
       'a dataset changed after export',
-      (copy) => ((copy.datasets[0].content = CSV.replace('0.31', '0.35')), copy),
+      (copy) => ((copy.datasets[0]!.content = CSV.replace('0.31', '0.35')), copy),
       /^datasets\.0\.checksum: the content of dataset 'station readings' does not match its checksum/,
     ],
     [
@@ -148,7 +154,10 @@ describe('importing a sheet file', () => {
     'refuses %s with 400 and the path of the fault, creating nothing',
     async (_what, spoil, message) => {
       const before = [await count('sheets'), await count('datasets')];
-      const response = await importFile(colleague, JSON.stringify(spoil(structuredClone(file))));
+      const response = await importFile(
+        colleague,
+        JSON.stringify(spoil(structuredClone(file) as unknown as Spoilable)),
+      );
       expect(response.status, JSON.stringify(response.body)).toBe(400);
       expect(response.body.error.code).toBe('sheet_files.invalid');
       expect(response.body.error.message).toMatch(message);
