@@ -136,10 +136,18 @@ function linearLikelihood(
     const co = linearCoefficients(model, correlation, pv);
     const l1 = new Float64Array(1);
     const cache = new Map<number, IntervalTransition>();
+    // One state: the transition of the previous interval is kept, since intervals usually repeat.
+    let lastH = Number.NaN;
+    let f = 0;
+    let c = 0;
+    let v = 0;
     for (let k = 0; k < count; k++) {
       const h = dt[k]!;
       if (d === 1) {
-        const [f, c, v] = scalarTransition(co.a[0]!, co.b[0]!, co.q[0]!, h);
+        if (h !== lastH) {
+          [f, c, v] = scalarTransition(co.a[0]!, co.b[0]!, co.q[0]!, h);
+          lastH = h;
+        }
         r[0] = x1[k]! - f * x0[k]! - c;
         l1[0] = Math.sqrt(v);
         if (!visit(k, v > 0 ? Math.log(v) : Number.NaN, l1)) return;
@@ -159,9 +167,34 @@ function linearLikelihood(
     }
   };
 
+  /** The one-state case as a plain loop (the numbers of eachInnovation, without its calls). */
+  const scalarLogLikelihood = (theta: Float64Array): number => {
+    model.parameters(theta, pv);
+    const co = linearCoefficients(model, correlation, pv);
+    let lastH = Number.NaN;
+    let f = 0;
+    let c = 0;
+    let v = 0;
+    let constant = 0;
+    let sum = 0;
+    for (let k = 0; k < count; k++) {
+      const h = dt[k]!;
+      if (h !== lastH) {
+        [f, c, v] = scalarTransition(co.a[0]!, co.b[0]!, co.q[0]!, h);
+        if (!(v > 0)) return -Infinity;
+        constant = HALF_LOG_2PI + 0.5 * Math.log(v);
+        lastH = h;
+      }
+      const e = x1[k]! - f * x0[k]! - c;
+      sum -= constant + (0.5 * e * e) / v;
+    }
+    return Number.isNaN(sum) ? -Infinity : sum;
+  };
+
   return {
     residualBasis: 'the exact Gaussian transition',
     logLikelihood(theta) {
+      if (d === 1) return scalarLogLikelihood(theta);
       let sum = 0;
       eachInnovation(theta, (_k, logDet, l) => {
         if (Number.isNaN(logDet)) {
