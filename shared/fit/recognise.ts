@@ -16,7 +16,7 @@ type Degree = 'constant' | 'affine' | 'other';
 const rank: Record<Degree, number> = { constant: 0, affine: 1, other: 2 };
 const max = (a: Degree, b: Degree): Degree => (rank[a] >= rank[b] ? a : b);
 
-export function degreeIn(node: ExprNode, states: ReadonlySet<string>, time: string): Degree {
+function degreeIn(node: ExprNode, states: ReadonlySet<string>, time: string): Degree {
   const of = (n: ExprNode) => degreeIn(n, states, time);
   switch (node.kind) {
     case 'number':

@@ -17,7 +17,7 @@ export interface ResidualCheck {
 
 export const MAX_QQ_POINTS = 200;
 
-export function kolmogorovSurvival(lambda: number): number {
+function kolmogorovSurvival(lambda: number): number {
   if (lambda < 0.2) return 1;
   let sum = 0;
   for (let k = 1; k <= 100; k++) {

@@ -13,7 +13,7 @@ import type { Likelihood } from './likelihood';
 import type { Transitions } from './transitions';
 
 /** The largest number of stored normal draws (8 bytes each): 32 MB. */
-export const MAX_SIMULATED_DRAWS = 4_000_000;
+const MAX_SIMULATED_DRAWS = 4_000_000;
 
 /**
  * Simulated likelihood (Pedersen 1995, Scand. J. Statistics 22, 55–71): each observation

@@ -8,9 +8,9 @@ import type { Transitions } from './transitions';
  * For Ornstein–Uhlenbeck the Euler pseudo-likelihood estimates (1 − e^{−κΔ})/Δ instead of κ, a
  * relative bias of about κΔ/2; past κΔ ≈ 0.1 that bias (5 %) is worth a warning.
  */
-export const LONG_INTERVAL_RATIO = 0.1;
+const LONG_INTERVAL_RATIO = 0.1;
 
-export function driftRate(model: CompiledFitModel, transitions: Transitions, theta: Float64Array): number {
+function driftRate(model: CompiledFitModel, transitions: Transitions, theta: Float64Array): number {
   const { d, m } = model;
   const pv = new Float64Array(model.parameterCount);
   model.parameters(theta, pv);
