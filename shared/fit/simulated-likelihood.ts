@@ -117,13 +117,57 @@ export function simulatedLikelihood(
     return top + Math.log(sum / draws);
   };
 
+  // One state, one noise source: the same numbers as transitionLogDensity without the matrix
+  // helpers (the hot loop of this method).
+  const halfLogShrink = Array.from(
+    { length: steps },
+    (_, s) => 0.5 * Math.log((steps - s - 1) / (steps - s)),
+  );
+  const scalarLogDensity = (k: number): number => {
+    const delta = dt[k]! / steps;
+    const target = x1[k]!;
+    for (let j = 0; j < draws; j++) {
+      let position = x0[k]!;
+      let logWeight = 0;
+      let base = (k * draws + j) * (steps - 1);
+      for (let s = 0; s < steps - 1; s++, base++) {
+        u[0] = position;
+        model.coefficients(pv, t0[k]! + s * delta, u, f, g);
+        const variance = g[0]! * g[0]!;
+        if (!(variance > 0)) return Number.NaN;
+        const remaining = steps - s;
+        const draw = z[base]!;
+        const next =
+          position +
+          (target - position) / remaining +
+          Math.sqrt(((remaining - 1) / remaining) * delta * variance) * draw;
+        const e = next - position - f[0]! * delta;
+        logWeight += halfLogShrink[s]! - (0.5 * e * e) / (variance * delta) + 0.5 * draw * draw;
+        position = next;
+      }
+      u[0] = position;
+      model.coefficients(pv, t0[k]! + (steps - 1) * delta, u, f, g);
+      const variance = g[0]! * g[0]! * delta;
+      if (!(variance > 0)) return Number.NaN;
+      const e = target - position - f[0]! * delta;
+      logWeights[j] = logWeight - HALF_LOG_2PI - 0.5 * Math.log(variance) - (0.5 * e * e) / variance;
+    }
+    let top = -Infinity;
+    for (let j = 0; j < draws; j++) if (logWeights[j]! > top) top = logWeights[j]!;
+    if (!Number.isFinite(top)) return top;
+    let sum = 0;
+    for (let j = 0; j < draws; j++) sum += Math.exp(logWeights[j]! - top);
+    return top + Math.log(sum / draws);
+  };
+  const scalar = d === 1 && m === 1 && correlation === null;
+
   return {
     residualBasis: 'one Euler step over each observation interval (an approximation for this method)',
     logLikelihood(theta) {
       model.parameters(theta, pv);
       let sum = 0;
       for (let k = 0; k < count; k++) {
-        const value = transitionLogDensity(k);
+        const value = scalar ? scalarLogDensity(k) : transitionLogDensity(k);
         if (Number.isNaN(value)) return -Infinity;
         sum += value;
       }

@@ -151,3 +151,22 @@ describe('a fit in progress', () => {
     );
   });
 });
+
+describe('the simulated likelihood', () => {
+  it('gives the same value on its one-state fast path as on the general path (a second, silent noise source)', () => {
+    const times = evenTimes(40, 0.7);
+    const values = ouSeries(generator(21), { kappa: 0.9, mu: 1, sigma: 0.4 }, 40, 0.7, 1.5);
+    const fast = ouProblem([{ times, values }], 'simulated', undefined, { subSteps: 6, draws: 10, seed: 3 });
+    const general = structuredClone(fast);
+    general.model.noiseCount = 2;
+    general.model.diffusion = [[fast.model.diffusion[0]![0]!, '0']];
+    const value = (problem: typeof fast) =>
+      buildLikelihood(
+        problem,
+        compileFitModel(problem.model),
+        transitionsOf(problem.series, 1),
+      ).logLikelihood(Float64Array.of(0.8, 1.1, 0.45));
+    // Same draws, same formula (Durham & Gallant 2002, eq. 14), two implementations.
+    expect(value(fast)).toBeCloseTo(value(general), 9);
+  });
+});
