@@ -1,4 +1,4 @@
-import { CholeskyDecomposition, Matrix, inverse } from 'ml-matrix';
+import { CholeskyDecomposition, EigenvalueDecomposition, Matrix, inverse } from 'ml-matrix';
 
 /**
  * The observed information: the Hessian of the negative log-likelihood at the estimate by
@@ -47,10 +47,26 @@ export function numericalHessian(
   return hessian;
 }
 
+/**
+ * The smallest eigenvalue of the information scaled to a unit diagonal below which it counts as
+ * singular: the likelihood is then flat along some combination of parameters (two estimates
+ * correlated beyond 0.99999 have 1 − 0.99999), whatever the parameters' units. Central
+ * differences leave noise of about 1e-7 there on an exactly flat direction, so a smaller value
+ * could not be told from one.
+ */
+const SINGULAR = 1e-5;
+
 /** The inverse of a positive definite information matrix, or null (flat or not at a maximum). */
 export function covarianceFromInformation(information: Matrix): Matrix | null {
   const values = information.to1DArray();
   if (!values.every(Number.isFinite)) return null;
   if (!new CholeskyDecomposition(information).isPositiveDefinite()) return null;
+  const n = information.rows;
+  const scale = Array.from({ length: n }, (_, i) => 1 / Math.sqrt(information.get(i, i)));
+  const unit = new Matrix(n, n);
+  for (let i = 0; i < n; i++)
+    for (let j = 0; j < n; j++) unit.set(i, j, information.get(i, j) * scale[i]! * scale[j]!);
+  const smallest = Math.min(...new EigenvalueDecomposition(unit, { assumeSymmetric: true }).realEigenvalues);
+  if (!(smallest > SINGULAR)) return null;
   return inverse(information);
 }
