@@ -1,6 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser } from 'playwright-core';
+import AxeBuilder from '@axe-core/playwright';
+import type { Browser, Page } from 'playwright-core';
 import { appUrl, launchBrowser, signUp, uniqueEmail, watchPageErrors, withFailureShot } from './browser';
 
 /**
@@ -11,6 +12,20 @@ import { appUrl, launchBrowser, signUp, uniqueEmail, watchPageErrors, withFailur
 const demoFile = readFileSync(
   new URL('../../shared/examples/sheet-files/pond-oxygen.meander.json', import.meta.url),
 );
+
+/** No serious or critical axe-core violation (WCAG 2.1 A/AA and best practice), as in accessibility.test.ts. */
+async function audit(page: Page): Promise<void> {
+  const results = await new AxeBuilder({ page })
+    .withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'best-practice'])
+    .analyze();
+  const grave = results.violations
+    .filter((violation) => violation.impact === 'serious' || violation.impact === 'critical')
+    .map((violation) => ({
+      rule: violation.id,
+      targets: violation.nodes.slice(0, 5).map((n) => n.target.join(' ')),
+    }));
+  expect(grave, JSON.stringify(grave, null, 1)).toEqual([]);
+}
 
 describe('fitting a model to observed data', () => {
   let browser: Browser;
@@ -52,6 +67,11 @@ describe('fitting a model to observed data', () => {
         /converged: a fresh search from the best point found nothing better/,
       );
       const kappa = Number(kappaRow.split(/\s+/)[1]);
+      await fitCard.screenshot({ path: new URL('./screenshots/fit-cell.png', import.meta.url).pathname });
+      await page.getByRole('button', { name: 'Edit fit cell' }).click();
+      await fitCard.getByRole('group', { name: 'Parameters to estimate' }).waitFor();
+      await audit(page);
+      await page.getByRole('button', { name: 'Edit fit cell' }).click();
 
       await fitCard.getByRole('button', { name: 'Use these values' }).click();
       const undoBar = page.getByRole('status').filter({ hasText: 'Used the fitted values' });
