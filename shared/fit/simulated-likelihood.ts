@@ -20,7 +20,7 @@ const MAX_SIMULATED_DRAWS = 4_000_000;
  * interval is cut into M sub-steps; the transition density is the average over K simulated paths
  * of the Euler density of the last sub-step, weighted by importance sampling. The paths are drawn
  * from the modified Brownian bridge of Durham & Gallant (2002, J. Business & Economic Statistics
- * 20, 297–316, eq. 14), which aims each sub-step at the next observation:
+ * 20, 297–316), which aims each sub-step at the next observation:
  *
  *   u_{m+1} = u_m + (x₁ − u_m)/(M − m) + √((M − m − 1)/(M − m) · δ) · L(u_m) Z,   δ = Δ/M,
  *

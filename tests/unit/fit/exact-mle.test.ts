@@ -8,7 +8,7 @@ import { evenTimes, fitSheet, gbmSeries, generator, observedOf, ouProblem, ouSer
  * even interval Δ, X_{k+1} = c + φ X_k + ε_k is a Gaussian AR(1), whose conditional MLE is the
  * least-squares regression (Brockwell & Davis 1991, Time Series: Theory and Methods, §8.7); by
  * invariance κ̂ = −log φ̂ / Δ, μ̂ = ĉ / (1 − φ̂), σ̂² = 2κ̂ s² / (1 − φ̂²) with s² = RSS / n
- * (Tang & Chen 2009, J. Econometrics 149, 65–81, eq. 2.3).
+ * (Tang & Chen 2009, J. Econometrics 149, 65–81, their OU estimators).
  */
 function ouClosedForm(values: number[], dt: number) {
   const x = values.slice(0, -1);
@@ -40,7 +40,7 @@ describe('the exact likelihood', () => {
     const expected = ouClosedForm(values, dt);
     expect(fit.converged).toBe(true);
     const [kappa, mu, sigma] = fit.estimates.map((e) => e.estimate);
-    // Closed form (Brockwell & Davis §8.7; Tang & Chen 2009 eq. 2.3), relative 1e-6.
+    // Closed form (Brockwell & Davis §8.7; Tang & Chen 2009), relative 1e-6.
     expect(Math.abs(kappa! / expected.kappa - 1)).toBeLessThan(1e-6);
     expect(Math.abs(mu! / expected.mu - 1)).toBeLessThan(1e-6);
     expect(Math.abs(sigma! / expected.sigma - 1)).toBeLessThan(1e-6);

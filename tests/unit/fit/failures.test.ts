@@ -1,4 +1,6 @@
+import jStat from 'jstat';
 import { describe, expect, it } from 'vitest';
+import { residualCheck } from '@shared/fit/residual-check';
 import { buildFitProblem } from '@shared/fit/build-problem';
 import { fitModel } from '@shared/fit/fit-model';
 import { evenTimes, fitSheet, generator, observedOf, ouSeries } from './fixtures';
@@ -63,5 +65,25 @@ describe('a fit that fails', () => {
     expect(() => fitModel(buildFitProblem(doc, cell, short))).toThrow(
       /2 observed transitions are too few to estimate 2 parameters/,
     );
+  });
+});
+
+describe('the residual check', () => {
+  // Kolmogorov–Smirnov against N(0, 1) (Stephens 1970): a sample at the normal's own quantiles
+  // fits perfectly; the same sample shifted by half a standard deviation is far off for n = 400.
+  const quantiles = Array.from({ length: 400 }, (_, i) => jStat.normal.inv((i + 0.5) / 400, 0, 1));
+
+  it('finds nothing wrong with residuals at the normal quantiles', () => {
+    const check = residualCheck(quantiles);
+    expect(check.ksStatistic).toBeLessThan(0.002);
+    expect(check.ksPValue).toBeGreaterThan(0.99);
+    expect(check.qq).toHaveLength(200);
+  });
+
+  it('flags residuals shifted by half a standard deviation', () => {
+    // D ≈ Φ(0.25) − Φ(−0.25) ≈ 0.197, λ ≈ 3.9: p far below 1e-6.
+    const check = residualCheck(quantiles.map((q) => q + 0.5));
+    expect(check.ksStatistic).toBeCloseTo(0.197, 2);
+    expect(check.ksPValue).toBeLessThan(1e-6);
   });
 });

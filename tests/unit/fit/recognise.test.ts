@@ -166,7 +166,7 @@ describe('the simulated likelihood', () => {
         compileFitModel(problem.model),
         transitionsOf(problem.series, 1),
       ).logLikelihood(Float64Array.of(0.8, 1.1, 0.45));
-    // Same draws, same formula (Durham & Gallant 2002, eq. 14), two implementations.
+    // Same draws, same formula (Durham & Gallant 2002, the modified Brownian bridge), two implementations.
     expect(value(fast)).toBeCloseTo(value(general), 9);
   });
 });
