@@ -16,6 +16,7 @@ export default defineConfig({
         resolve: { alias },
         test: {
           name: 'unit',
+          server: { deps: { inline: ['fmin'] } },
           include: ['tests/unit/**/*.test.ts'],
           environment: 'node',
           testTimeout: 60_000,
@@ -26,6 +27,7 @@ export default defineConfig({
         resolve: { alias },
         test: {
           name: 'component',
+          server: { deps: { inline: ['fmin'] } },
           include: ['tests/component/**/*.test.ts'],
           environment: 'jsdom',
           testTimeout: 20_000,
@@ -35,6 +37,7 @@ export default defineConfig({
         resolve: { alias },
         test: {
           name: 'integration',
+          server: { deps: { inline: ['fmin'] } },
           include: ['tests/integration/**/*.test.ts'],
           environment: 'node',
           globalSetup: ['tests/setup/services.ts'],
@@ -47,6 +50,7 @@ export default defineConfig({
         resolve: { alias },
         test: {
           name: 'e2e',
+          server: { deps: { inline: ['fmin'] } },
           include: ['tests/e2e/**/*.test.ts'],
           environment: 'node',
           globalSetup: ['tests/setup/services.ts', 'tests/setup/app-server.ts'],

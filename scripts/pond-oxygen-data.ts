@@ -10,7 +10,8 @@ import { sheetDocumentSchema } from '../shared/sheet/document';
 /**
  * Writes the demo sheet file shared/examples/sheet-files/pond-oxygen.meander.json: an invented
  * dissolved-oxygen deficit in two mill ponds after a summer storm, observed every one to three
- * days for 120 days, with its sheet (data cell, model, fan chart with the observations).
+ * days for 120 days, with its sheet (data cell, model, a fit of κ, μ and σ by the exact
+ * likelihood, fan chart with the observations).
  *
  * The data are simulated, not measured. Model (Ornstein–Uhlenbeck, sampled with its exact
  * Gaussian transition, so no discretisation error):
@@ -75,7 +76,9 @@ const document = sheetDocumentSchema.parse({
         'dD = κ (μ − D) dt + σ dW\n\n' +
         '**The observations in this sheet are invented data for the demo**, simulated from this very model ' +
         '(scripts/pond-oxygen-data.ts states the values used). The parameters below are first guesses, not estimates: ' +
-        'compare the band with the diamonds and read the calibration line under the fan chart.\n\n' +
+        'compare the band with the diamonds and read the calibration line under the fan chart. ' +
+        'The fit cell estimates κ, μ and σ from the readings of both ponds; "Use these values" puts the estimates ' +
+        'into the parameters, and a rerun shows the band that follows from them.\n\n' +
         'Real water-quality or fish-welfare decisions need measured data, a checked model and qualified review.',
     },
     {
@@ -119,6 +122,14 @@ const document = sheetDocumentSchema.parse({
       timeColumn: 'day',
       groupColumn: 'pond',
       columns: [{ column: 'deficit', state: 'D', unit: 'mg/L' }],
+    },
+    {
+      id: 'pond-fit',
+      kind: 'fit',
+      data: 'pond-observed',
+      model: 'pond-model',
+      parameters: ['kappa', 'mu', 'sigma'],
+      method: 'exact',
     },
     {
       id: 'pond-run',

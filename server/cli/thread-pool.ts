@@ -3,6 +3,7 @@ import { availableParallelism } from 'node:os';
 import type { SimulationPlan } from '../../shared/engine/plan';
 import type { ChunkResult, StudyOptions, StudyResult } from '../../shared/engine/result';
 import { ChunkPool, type ChunkWorker } from '../../shared/run/chunk-pool';
+import type { FitProblem, FitResult } from '../../shared/fit/problem';
 import type { RunExecutor } from '../../shared/cells/kind';
 import { poolExecutor } from '../../shared/run/environments';
 import type { ClaimedChunks, ClaimTask } from '../../shared/run/chunk-task';
@@ -92,6 +93,12 @@ export class SimulationThread {
     return answer.result;
   }
 
+  async runFit(problem: FitProblem): Promise<FitResult> {
+    const answer = await this.request({ type: 'fit', problem });
+    if (answer.type !== 'fit-done') throw new Error(`unexpected answer "${answer.type}" to a fit`);
+    return answer.result;
+  }
+
   terminate(): Promise<number> {
     this.failAll(new Error('the simulation thread was shut down'));
     return this.worker.terminate();
@@ -143,7 +150,13 @@ export function createThreadPool(size = defaultThreadCount()): ThreadPool {
   };
   return {
     pool,
-    executor: poolExecutor(pool, study),
+    executor: {
+      ...poolExecutor(pool, study),
+      runFit: (problem) => {
+        studyThread ??= new SimulationThread();
+        return studyThread.runFit(problem);
+      },
+    },
     async close() {
       pool.dispose();
       await studyThread?.terminate();

@@ -1,5 +1,6 @@
 import { parentPort } from 'node:worker_threads';
 import { runStudy } from '../../shared/engine/study';
+import { fitModel } from '../../shared/fit/fit-model';
 import { chunkTransferables, runChunkTask, runClaimedChunks } from '../../shared/run/chunk-task';
 import { collectTransferables } from '../../shared/run/transferables';
 import type { FromWorker, ToWorker } from './messages';
@@ -26,6 +27,8 @@ port.on('message', (message: ToWorker) => {
     } else if (message.type === 'claim') {
       const { indices, chunks } = runClaimedChunks(message.plan, message.task);
       send({ type: 'claim-done', id: message.id, indices, chunks }, collectTransferables(chunks));
+    } else if (message.type === 'fit') {
+      send({ type: 'fit-done', id: message.id, result: fitModel(message.problem) });
     } else {
       send({ type: 'study-done', id: message.id, result: runStudy(message.plan, message.options) });
     }

@@ -7,6 +7,7 @@ import type { CellOutput } from '../run/outputs';
 import type { RunProgress } from '../run/progress';
 import type { DatasetProvider } from '../data/provider';
 import type { EdgeColour } from './colours';
+import type { FitProblem, FitResult } from '../fit/problem';
 
 /**
  * What a cell kind is, apart from its Vue editor: everything the document schema, the checker,
@@ -97,6 +98,8 @@ export interface RunExecutor {
     options: StudyOptions,
     onProgress?: (progress: RunProgress) => void,
   ): Promise<StudyResult>;
+  /** A parameter fit (shared/fit/fit-model.ts); absent where the runner cannot fit. */
+  runFit?(problem: FitProblem, onProgress?: (progress: RunProgress) => void): Promise<FitResult>;
 }
 
 /** What the orchestrator gives a run step. */

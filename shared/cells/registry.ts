@@ -3,6 +3,7 @@ import type { Cell, CellKind } from '../sheet/document';
 import type { CellKindDefinition } from './kind';
 import { chartCellSchema, chartKind } from './chart';
 import { dataCellSchema, dataKind } from './data';
+import { fitCellSchema, fitKind } from './fit';
 import { modelCellSchema, modelKind } from './model';
 import { noteCellSchema, noteKind } from './note';
 import { paramsCellSchema, paramsKind } from './params';
@@ -24,6 +25,7 @@ export const cellSchema = z.discriminatedUnion('kind', [
   probeCellSchema,
   studyCellSchema,
   dataCellSchema,
+  fitCellSchema,
 ]);
 
 type Definitions = { [K in CellKind]: CellKindDefinition<K> };
@@ -37,6 +39,7 @@ export const CELL_KINDS: Definitions = {
   probe: probeKind,
   study: studyKind,
   data: dataKind,
+  fit: fitKind,
 };
 
 /** The kinds in menu order. */

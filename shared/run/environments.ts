@@ -6,6 +6,7 @@ import type { ChunkPool } from './chunk-pool';
 import { runChunkTask } from './chunk-task';
 import { splitPaths } from './chunks';
 import type { RunExecutor } from '../cells/kind';
+import { fitModel } from '../fit/fit-model';
 
 /**
  * Ready-made executors for runSheet. Both use the same chunk split, so a sheet gives the same
@@ -34,6 +35,9 @@ export function inProcessExecutor(): RunExecutor {
     },
     async runStudy(plan, options) {
       return runStudy(plan, options);
+    },
+    async runFit(problem, onProgress) {
+      return fitModel(problem, { onProgress });
     },
   };
 }

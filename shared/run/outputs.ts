@@ -1,6 +1,7 @@
 import type { Method } from '../sheet/document';
 import type { SimulationPlan } from '../engine/plan';
 import type { ObservedData } from '../data/observed';
+import type { FitResult } from '../fit/problem';
 import type { LossCause, ProbeEstimate, SimulationResult, StudyLevel, StudyResult } from '../engine/result';
 
 /**
@@ -22,6 +23,7 @@ export type CellOutput =
   | { kind: 'probe'; estimate: ProbeEstimate; finishedAt: Date }
   | { kind: 'study'; plan: SimulationPlan; result: StudyResult; finishedAt: Date; seconds: number }
   | { kind: 'data'; observed: ObservedData; finishedAt: Date }
+  | { kind: 'fit'; result: FitResult; finishedAt: Date; seconds: number }
   | { kind: 'error'; message: string; finishedAt: Date };
 
 export const QUANTILE_KEYS = ['5', '25', '50', '75', '95'] as const;
@@ -137,7 +139,32 @@ export interface DataJson {
   observations: number;
 }
 
-export type CellOutputJson = SimulationJson | ProbeJson | StudyJson | DataJson | FailedCellJson;
+/** A fit cell's output in the runner's JSON (non-finite numbers as null). */
+export interface FitJson {
+  id: string;
+  kind: 'fit';
+  method: FitResult['method'];
+  ok: boolean;
+  converged: boolean;
+  convergence: string;
+  estimates: {
+    name: string;
+    unit: string;
+    estimate: number | null;
+    standardError: number | null;
+    ci: [number | null, number | null];
+    atBound: boolean;
+  }[];
+  logLikelihood: number | null;
+  aic: number | null;
+  observations: number;
+  groups: number;
+  ksPValue: number | null;
+  warnings: string[];
+  advice: string[];
+}
+
+export type CellOutputJson = SimulationJson | ProbeJson | StudyJson | DataJson | FitJson | FailedCellJson;
 
 /** What the command-line runner prints for a sheet. */
 export interface SheetRunJson {
@@ -278,6 +305,32 @@ function dataJson(id: string, observed: ObservedData): DataJson {
   };
 }
 
+function fitJson(id: string, result: FitResult): FitJson {
+  return {
+    id,
+    kind: 'fit',
+    method: result.method,
+    ok: result.ok,
+    converged: result.converged,
+    convergence: result.convergence,
+    estimates: result.estimates.map((e) => ({
+      name: e.name,
+      unit: e.unit,
+      estimate: finiteOrNull(e.estimate),
+      standardError: e.standardError,
+      ci: [e.ci[0], e.ci[1]],
+      atBound: e.atBound,
+    })),
+    logLikelihood: finiteOrNull(result.logLikelihood),
+    aic: finiteOrNull(result.aic),
+    observations: result.observations,
+    groups: result.groups,
+    ksPValue: result.residuals.ksPValue,
+    warnings: [...result.warnings],
+    advice: [...result.advice],
+  };
+}
+
 /** The plain JSON view of a cell's output, as the command-line runner prints it. */
 export function cellOutputJson(id: string, cellKind: string, output: CellOutput): CellOutputJson {
   switch (output.kind) {
@@ -289,6 +342,8 @@ export function cellOutputJson(id: string, cellKind: string, output: CellOutput)
       return studyJson(id, output.result);
     case 'data':
       return dataJson(id, output.observed);
+    case 'fit':
+      return fitJson(id, output.result);
     case 'error':
       return { id, kind: cellKind, error: output.message };
   }

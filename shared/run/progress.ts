@@ -5,4 +5,6 @@ export interface RunProgress {
   elapsedMs: number;
   /** Estimated time left, null until the first paths are done. */
   etaMs: number | null;
+  /** What is counted, when not paths (a fit counts likelihood evaluations). */
+  unit?: string;
 }

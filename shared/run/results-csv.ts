@@ -2,12 +2,13 @@ import type { SheetDocument } from '../sheet/document';
 import { kindOf } from '../cells/registry';
 import type { CellOutput } from './outputs';
 import { toCsv, withUnit } from './csv';
+import type { FitResult } from '../fit/problem';
 
 /**
  * A sheet's results as CSV files: per simulation its saved statistics (wide: one row per saved
  * time) and its sample paths (long: one row per path and time); all probes in one file, all
- * step-size studies in one file. Columns carry units in brackets. Cells without a current
- * output are left out; other kinds of output (a fit, later) are listed generically by the caller.
+ * step-size studies in one file, all fits in one file (one row per estimated parameter). Columns
+ * carry units in brackets. Cells without a current output are left out.
  */
 
 export interface ResultFile {
@@ -48,6 +49,7 @@ export function resultFiles(doc: SheetDocument, outputs: Outputs): ResultFile[] 
   const files: ResultFile[] = [];
   const probeRows: (number | string)[][] = [];
   const studyRows: (number | string)[][] = [];
+  const fitRows: (number | string)[][] = [];
   for (const cell of doc.cells) {
     const output = outputs(cell.id);
     if (cell.kind === 'simulation' && output?.kind === 'simulation') {
@@ -84,6 +86,7 @@ export function resultFiles(doc: SheetDocument, outputs: Outputs): ResultFile[] 
           result.weakOrder,
         ]);
     }
+    if (cell.kind === 'fit' && output?.kind === 'fit') fitRows.push(...fitFileRows(cell.id, output.result));
   }
   if (probeRows.length > 0)
     files.push({
@@ -112,7 +115,57 @@ export function resultFiles(doc: SheetDocument, outputs: Outputs): ResultFile[] 
         studyRows,
       ),
     });
+  if (fitRows.length > 0)
+    files.push({
+      fileName: 'fits.csv',
+      csv: toCsv(
+        [
+          'cell',
+          'method',
+          'parameter',
+          'unit',
+          'estimate',
+          'standard_error',
+          'ci95_low',
+          'ci95_high',
+          'at_bound',
+          'log_likelihood',
+          'aic',
+          'observations',
+          'series',
+          'converged',
+          'convergence',
+          'ks_p_value',
+          'warnings',
+        ],
+        fitRows,
+      ),
+    });
   return files;
+}
+
+/** One row per estimated parameter; a blank where a number is not available. */
+function fitFileRows(cellId: string, result: FitResult): (number | string)[][] {
+  const orBlank = (x: number | null) => (x === null ? '' : x);
+  return result.estimates.map((e) => [
+    cellId,
+    result.method,
+    e.name,
+    e.unit,
+    e.estimate,
+    orBlank(e.standardError),
+    orBlank(e.ci[0]),
+    orBlank(e.ci[1]),
+    e.atBound ? 'yes' : 'no',
+    result.logLikelihood,
+    result.aic,
+    result.observations,
+    result.groups,
+    result.converged ? 'yes' : 'no',
+    result.convergence,
+    orBlank(result.residuals.ksPValue),
+    result.warnings.join(' '),
+  ]);
 }
 
 function statisticsFile(

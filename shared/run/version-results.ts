@@ -5,13 +5,15 @@ import type { SimulationPlan } from '../engine/plan';
 import type { SavedStats, SimulationResult } from '../engine/result';
 import type { SheetDocument } from '../sheet/document';
 import type { KeptOutput } from './run-sheet';
+import { FIT_METHODS, type FitResult } from '../fit/problem';
+import { MAX_QQ_POINTS } from '../fit/residual-check';
 import type { CellOutput } from './outputs';
 
 /**
  * The compact summary of a sheet's results saved with a version, so that an old version opens
  * with its numbers and charts ("as saved with version N") without running again: each
  * simulation's saved statistics on at most MAX_TIMES saved times, a few sample paths, its losses,
- * stability and digest; each probe's estimate; each study's orders. Tens of kilobytes (18 to 61
+ * stability and digest; each probe's estimate; each study's orders; each fit's estimates. Tens of kilobytes (18 to 61
  * KiB for the example sheets), not the per-path values: a chart that needs every path's values
  * (a histogram) asks for a run instead, and a restored output is never reused as the input of a
  * new run.
@@ -145,10 +147,53 @@ const studySummarySchema = z.object({
   }),
 });
 
+const words = z.string().max(2000);
+
+const fitSummarySchema = z.object({
+  kind: z.literal('fit'),
+  seconds: z.number().min(0),
+  result: z.object({
+    method: z.enum(FIT_METHODS),
+    ok: z.boolean(),
+    estimates: z
+      .array(
+        z.object({
+          name: z.string().max(64),
+          unit: z.string().max(40),
+          estimate: value,
+          standardError: value,
+          ci: z.tuple([value, value]),
+          atBound: z.boolean(),
+        }),
+      )
+      .max(20),
+    logLikelihood: value,
+    aic: value,
+    observations: z.number().int().min(0),
+    transitions: z.number().int().min(0),
+    groups: z.number().int().min(0),
+    evaluations: z.number().int().min(0),
+    converged: z.boolean(),
+    convergence: words,
+    advice: z.array(words).max(20),
+    warnings: z.array(words).max(20),
+    residuals: z.object({
+      count: z.number().int().min(0),
+      ksStatistic: value,
+      ksPValue: value,
+      basis: words,
+      qq: z.array(z.tuple([value, value])).max(MAX_QQ_POINTS),
+    }),
+    startsBelowBest: z.number().int().min(0),
+    seconds: z.number().min(0),
+  }),
+});
+
 const cellSummarySchema = z.discriminatedUnion('kind', [
   simulationSummarySchema,
   probeSummarySchema,
   studySummarySchema,
+  fitSummarySchema,
 ]);
 
 export const versionResultsSchema = z
@@ -283,10 +328,63 @@ export function summariseResults(
           weakOrderCI: [toJson(output.result.weakOrderCI[0]), toJson(output.result.weakOrderCI[1])],
         },
       };
+    else if (output.kind === 'fit') results[cell.id] = summariseFit(output.result, output.seconds);
   }
   if (JSON.stringify(results).length > MAX_SUMMARY_CHARS)
     for (const summary of Object.values(results)) if (summary.kind === 'simulation') summary.samplePaths = [];
   return results;
+}
+
+type FitSummary = z.infer<typeof fitSummarySchema>;
+
+function summariseFit(result: FitResult, seconds: number): FitSummary {
+  const orNull = (x: number | null) => (x === null ? null : toJson(x));
+  return {
+    kind: 'fit',
+    seconds,
+    result: {
+      ...result,
+      estimates: result.estimates.map((e) => ({
+        ...e,
+        estimate: toJson(e.estimate),
+        standardError: orNull(e.standardError),
+        ci: [orNull(e.ci[0]), orNull(e.ci[1])],
+      })),
+      logLikelihood: toJson(result.logLikelihood),
+      aic: toJson(result.aic),
+      advice: [...result.advice],
+      warnings: [...result.warnings],
+      residuals: {
+        ...result.residuals,
+        ksStatistic: orNull(result.residuals.ksStatistic),
+        ksPValue: orNull(result.residuals.ksPValue),
+        qq: result.residuals.qq.map(([a, b]) => [toJson(a), toJson(b)]),
+      },
+    },
+  };
+}
+
+function restoredFit(summary: FitSummary): FitResult {
+  const { result } = summary;
+  const finiteOrNull = (x: number | null) => (x === null || !Number.isFinite(x) ? null : x);
+  return {
+    ...result,
+    estimates: result.estimates.map((e) => ({
+      ...e,
+      estimate: fromJson(e.estimate),
+      ci: [e.ci[0], e.ci[1]],
+    })),
+    logLikelihood: fromJson(result.logLikelihood),
+    aic: fromJson(result.aic),
+    advice: [...result.advice],
+    warnings: [...result.warnings],
+    residuals: {
+      ...result.residuals,
+      ksStatistic: finiteOrNull(result.residuals.ksStatistic),
+      ksPValue: finiteOrNull(result.residuals.ksPValue),
+      qq: result.residuals.qq.map(([a, b]) => [fromJson(a), fromJson(b)]),
+    },
+  };
 }
 
 const floats = (values: (number | null)[]) => Float64Array.from(values, fromJson);
@@ -391,6 +489,13 @@ export function outputsFromResults(
           ci: [fromJson(estimate.ci[0]), fromJson(estimate.ci[1])],
         },
         finishedAt: savedAt,
+      });
+    } else if (summary.kind === 'fit') {
+      outputs.set(cell.id, {
+        kind: 'fit',
+        result: restoredFit(summary),
+        finishedAt: savedAt,
+        seconds: summary.seconds,
       });
     } else if (cell.kind === 'study') {
       const { result } = summary;

@@ -23,6 +23,7 @@ const FIELD_LABELS: Record<string, string> = {
   min: 'minimum',
   max: 'maximum',
   schemaVersion: 'format version',
+  subSteps: 'sub-steps',
 };
 
 function label(field: string | number): string {
@@ -44,6 +45,9 @@ function fieldWords(doc: SheetDocument, cellId: string, path: readonly (string |
     const name = cell.params[index]?.name || `parameter ${index + 1}`;
     return field === undefined ? `parameter ${name}` : `${label(field)} of ${name}`;
   }
+  if (cell?.kind === 'fit' && list === 'parameters' && typeof index === 'number')
+    return `parameter ${cell.parameters[index] ?? index + 1} to estimate`;
+  if (cell?.kind === 'fit' && list === 'method') return 'likelihood';
   if (list === 'overrides' && typeof index === 'string') return `override of ${index}`;
   if (list === 'boundaries' && typeof index === 'string') return `boundary of ${index}`;
   return path.map(label).join(', ');

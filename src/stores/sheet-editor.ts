@@ -9,6 +9,7 @@ import { useSheetSharing } from './sheet/sharing';
 import { useSheetComments } from './sheet/comments';
 import { useSheetHistory } from './sheet/history';
 import { useSheetHead } from './sheet/head';
+import { useFitValues } from './sheet/fit-values';
 
 /**
  * The sheet being edited, as one store for the sheet page, made of pieces by job (in ./sheet/):
@@ -31,6 +32,7 @@ export const useSheetEditorStore = defineStore('sheet-editor', () => {
   const comments = useSheetComments(document);
   const history = useSheetHistory(document, runs, versions.lineage, reload);
   const head = useSheetHead(document);
+  const fitValues = useFitValues(document, runs);
   return {
     ...document,
     ...drafts,
@@ -41,5 +43,6 @@ export const useSheetEditorStore = defineStore('sheet-editor', () => {
     ...comments,
     ...history,
     ...head,
+    ...fitValues,
   };
 });

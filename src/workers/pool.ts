@@ -9,6 +9,7 @@ import type {
 } from '@shared/engine/result';
 import { ChunkPool, RunCancelledError, type ChunkWorker, type RunProgress } from '@shared/run/chunk-pool';
 import { collectTransferables } from '@shared/run/transferables';
+import type { FitProblem, FitResult } from '@shared/fit/problem';
 import type { SimulationWorkerApi } from './simulation.worker';
 import { runStarted } from './activity';
 
@@ -107,6 +108,17 @@ export class SimulationPool {
     const ended = runStarted();
     try {
       return await this.onHelper((api) => api.runStudy(plan, options));
+    } finally {
+      ended();
+    }
+  }
+
+  /** A parameter fit on the helper worker, with progress; cancel terminates the worker. */
+  async runFit(problem: FitProblem, onProgress?: (progress: RunProgress) => void): Promise<FitResult> {
+    const ended = runStarted();
+    const callback = onProgress ? Comlink.proxy(onProgress) : undefined;
+    try {
+      return await this.onHelper((api) => api.runFit(problem, callback));
     } finally {
       ended();
     }

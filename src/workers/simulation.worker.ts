@@ -11,6 +11,9 @@ import type {
 import { stabilityReport } from '@shared/engine/stability';
 import { mergeChunks as engineMergeChunks } from '@shared/engine/merge';
 import { runStudy as engineRunStudy } from '@shared/engine/study';
+import { fitModel } from '@shared/fit/fit-model';
+import type { FitProblem, FitResult } from '@shared/fit/problem';
+import type { RunProgress } from '@shared/run/progress';
 import {
   chunkTransferables,
   runChunkTask,
@@ -63,6 +66,15 @@ const api = {
 
   runStudy(plan: SimulationPlan, options: StudyOptions): StudyResult {
     return engineRunStudy(plan, options);
+  },
+
+  /** A parameter fit; the pool cancels it by terminating this worker, as it does a study. */
+  runFit(problem: FitProblem, onProgress?: (progress: RunProgress) => void): FitResult {
+    try {
+      return fitModel(problem, { onProgress });
+    } finally {
+      releaseCallback(onProgress);
+    }
   },
 
   /** The step's stability at the initial state, before any path is simulated. */

@@ -119,6 +119,8 @@ describe('observed data, sheet files and the printable report', () => {
         .getByRole('status')
         .filter({ hasText: /^Calibration:/ })
         .waitFor();
+      // The fit reads the uploaded series and shows its estimates with errors in the report.
+      await page.getByText('Estimates (7 observations in 1 series)').waitFor();
       await page.emulateMedia({ media: 'print' });
       const pdf = await page.pdf({ format: 'A4', printBackground: false });
       const text = pdf.toString('latin1');

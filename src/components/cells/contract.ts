@@ -1,3 +1,4 @@
+import type { InjectionKey } from 'vue';
 import type { Cell, SheetDocument } from '@shared/sheet/document';
 import type { CellIssue } from '@shared/sheet/issues';
 import type { CellOutput } from '@shared/run/outputs';
@@ -31,3 +32,16 @@ export type CellEditorEmits<C extends Cell = Cell> = {
  * line, the results), with no inputs. The card shows it until the person opens the editor.
  */
 export type CellReadingProps<C extends Cell = Cell> = Omit<CellEditorProps<C>, 'readonly'>;
+
+/**
+ * Edits a cell makes beyond its own fields, provided by the sheet page: a fit writes its estimates
+ * into the params cells ("Use these values", one undoable edit). Absent where nothing may be
+ * edited (tests that do not provide it, old versions).
+ */
+export interface SheetEdits {
+  /** Whether the person may edit the sheet as shown (not a viewer, not an old version). */
+  mayEdit(): boolean;
+  /** Returns how many parameters changed. */
+  useFitEstimates(fitCellId: string): number;
+}
+export const sheetEditsKey: InjectionKey<SheetEdits> = Symbol('sheet edits');

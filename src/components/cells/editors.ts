@@ -16,6 +16,7 @@ const loaders: Record<CellKind, () => Promise<Component>> = {
   probe: () => import('./ProbeCell.vue'),
   study: () => import('./StudyCell.vue'),
   data: () => import('./DataCell.vue'),
+  fit: () => import('./FitCell.vue'),
 };
 
 /**
@@ -31,6 +32,7 @@ const readingLoaders: Record<CellKind, () => Promise<Component>> = {
   probe: () => import('./ProbeReading.vue'),
   study: () => import('./StudyReading.vue'),
   data: () => import('./DataReading.vue'),
+  fit: () => import('./FitReading.vue'),
 };
 
 export type CellEditorMap = Partial<Record<CellKind, Component>>;

@@ -15,6 +15,7 @@ export async function createBrowserExecutor(): Promise<BrowserExecutor> {
   return {
     runSimulation: (plan, onProgress) => pool.simulate(plan, onProgress),
     runStudy: (plan, options) => pool.runStudy(plan, options),
+    runFit: (problem, onProgress) => pool.runFit(problem, onProgress),
     cancel: () => pool.cancel(),
     stabilityBeforeRun: (plan) => pool.stabilityBeforeRun(plan),
   };

@@ -100,14 +100,14 @@ describe('adding cells from the "Add cell" menu', () => {
     ]);
   });
 
-  it('offers simulation, chart, probe, study and data only once there is something for them to read', async () => {
+  it('offers the kinds that read other cells only once there is something for them to read', async () => {
     serve({ schemaVersion: 1, title: 'Blank', cells: [] });
     ({ wrapper } = await mountSheet());
     await click(buttonNamed('Add cell'));
     const disabled = [...document.querySelectorAll<HTMLButtonElement>('[role="menuitem"]')]
       .filter((b) => b.disabled)
       .map((b) => b.textContent?.trim());
-    expect(disabled).toEqual(['Simulation', 'Chart', 'Probe', 'Step-size study', 'Data']);
+    expect(disabled).toEqual(['Simulation', 'Chart', 'Probe', 'Step-size study', 'Data', 'Fit']);
   });
 
   it('inserts at the place of the "Add cell" button that was used', async () => {

@@ -34,6 +34,29 @@ describe('running a sheet file from the command line', () => {
     });
   });
 
+  it('fits the demo data and recovers the values they were generated with, within the intervals', async () => {
+    const run = await runCli(['run', demoFile, '--workers', '1', '--paths-scale', '0.1']);
+    expect(run.code, run.stderr).toBe(0);
+    const output = JSON.parse(run.stdout) as {
+      cells: {
+        id: string;
+        kind: string;
+        converged?: boolean;
+        estimates?: { name: string; ci: number[] }[];
+      }[];
+    };
+    const fit = output.cells.find((cell) => cell.id === 'pond-fit');
+    expect(fit?.converged).toBe(true);
+    // True values of the invented data (scripts/pond-oxygen-data.ts): κ 0.35, μ 2.4, σ 0.55.
+    const truth: Record<string, number> = { kappa: 0.35, mu: 2.4, sigma: 0.55 };
+    for (const estimate of fit?.estimates ?? []) {
+      const [low, high] = estimate.ci;
+      expect(low).toBeLessThan(truth[estimate.name]!);
+      expect(high).toBeGreaterThan(truth[estimate.name]!);
+    }
+    expect(fit?.estimates?.map((e) => e.name)).toEqual(['kappa', 'mu', 'sigma']);
+  });
+
   it('refuses a file whose dataset was changed after export, naming the place', async () => {
     const file = JSON.parse(readFileSync(demoFile, 'utf8'));
     file.datasets[0].content = file.datasets[0].content.replace('5.100', '5.200');

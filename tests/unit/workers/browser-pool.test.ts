@@ -6,6 +6,8 @@ import { runStudy } from '@shared/engine/study';
 import { RunCancelledError, type RunProgress } from '@shared/run/chunk-pool';
 import { buildSimulationPlan, sheetDocumentSchema } from '@shared/sheet/index';
 import { ShimWorker } from './web-worker-shim';
+import { fitModel } from '@shared/fit/fit-model';
+import { evenTimes, generator, ouProblem, ouSeries } from '../fit/fixtures';
 
 /**
  * The browser pool and its comlink worker, run in Node through a Worker shim on worker_threads:
@@ -84,5 +86,30 @@ describe('SimulationPool (browser pool over comlink)', () => {
   it('runs a study on the helper worker with the same numbers as in-process', async () => {
     const options = { levels: 3, coarsestSteps: 4, paths: 40, state: 0, reference: 'finest' } as const;
     expect(await pool.runStudy(plan, options)).toEqual(runStudy(plan, options));
+  });
+
+  it('runs a fit on the helper worker with progress, the same estimates as in-process, and cancels it', async () => {
+    const values = ouSeries(generator(31), { kappa: 1, mu: 0.5, sigma: 0.4 }, 200, 0.5, 0.5);
+    const problem = ouProblem([{ times: evenTimes(200, 0.5), values }], 'exact');
+    const progress: RunProgress[] = [];
+    const result = await pool.runFit(problem, (p) => progress.push(p));
+    expect(result.estimates).toEqual(fitModel(problem).estimates);
+
+    const slow = ouProblem(
+      [
+        {
+          times: evenTimes(400, 0.5),
+          values: ouSeries(generator(32), { kappa: 1, mu: 0, sigma: 0.4 }, 400, 0.5, 0),
+        },
+      ],
+      'simulated',
+      undefined,
+      { subSteps: 32, draws: 128 },
+    );
+    const running = pool.runFit(slow, (p) => progress.push(p));
+    await new Promise((resolve) => setTimeout(resolve, 1500));
+    pool.cancel();
+    await expect(running).rejects.toBeInstanceOf(RunCancelledError);
+    expect(progress.at(-1)?.unit).toBe('likelihood evaluations');
   });
 });
