@@ -8,7 +8,9 @@ import { noteCellSchema, noteKind } from './note';
 import { paramsCellSchema, paramsKind } from './params';
 import { probeCellSchema, probeKind } from './probe';
 import { simulationCellSchema, simulationKind } from './simulation';
+import { scenariosCellSchema, scenariosKind } from './scenarios';
 import { studyCellSchema, studyKind } from './study';
+import { sweepCellSchema, sweepKind } from './sweep';
 
 /**
  * Every cell kind, in the order the "Add cell" menu lists them. A new kind adds its schema to
@@ -24,6 +26,8 @@ export const cellSchema = z.discriminatedUnion('kind', [
   probeCellSchema,
   studyCellSchema,
   dataCellSchema,
+  scenariosCellSchema,
+  sweepCellSchema,
 ]);
 
 type Definitions = { [K in CellKind]: CellKindDefinition<K> };
@@ -37,6 +41,8 @@ export const CELL_KINDS: Definitions = {
   probe: probeKind,
   study: studyKind,
   data: dataKind,
+  scenarios: scenariosKind,
+  sweep: sweepKind,
 };
 
 /** The kinds in menu order. */

@@ -251,8 +251,8 @@ function monitoringText(result: SimulationResult, watch: number): string {
   return `continuity-corrected (Broadie–Glasserman–Kou): checked at the ${steps} against the level moved ${shift.toPrecision(3)} (0.5826·σ·√h) toward the start`;
 }
 
-/** Hit indicator per live path: reached `level` from `direction` by `time`. */
-function hits(
+/** Hit indicator per live path: reached `level` from `direction` by `time` (also read by paired-difference.ts). */
+export function hits(
   result: SimulationResult,
   probe: ProbeRequest,
   level: number,

@@ -2,6 +2,8 @@ import type { Method } from '../sheet/document';
 import type { SimulationPlan } from '../engine/plan';
 import type { ObservedData } from '../data/observed';
 import type { LossCause, ProbeEstimate, SimulationResult, StudyLevel, StudyResult } from '../engine/result';
+import { scenariosJson, type ScenariosJson, type ScenariosResult } from './scenarios-result';
+import { sweepJson, type SweepJson, type SweepResult } from './sweep-result';
 
 /**
  * What a run leaves on a cell: one type for every runner (browser, command line, tests). Charts
@@ -22,6 +24,8 @@ export type CellOutput =
   | { kind: 'probe'; estimate: ProbeEstimate; finishedAt: Date }
   | { kind: 'study'; plan: SimulationPlan; result: StudyResult; finishedAt: Date; seconds: number }
   | { kind: 'data'; observed: ObservedData; finishedAt: Date }
+  | { kind: 'sweep'; result: SweepResult; finishedAt: Date; seconds: number }
+  | { kind: 'scenarios'; result: ScenariosResult; finishedAt: Date; seconds: number }
   | { kind: 'error'; message: string; finishedAt: Date };
 
 export const QUANTILE_KEYS = ['5', '25', '50', '75', '95'] as const;
@@ -137,7 +141,8 @@ export interface DataJson {
   observations: number;
 }
 
-export type CellOutputJson = SimulationJson | ProbeJson | StudyJson | DataJson | FailedCellJson;
+export type CellOutputJson =
+  SimulationJson | ProbeJson | StudyJson | DataJson | SweepJson | ScenariosJson | FailedCellJson;
 
 /** What the command-line runner prints for a sheet. */
 export interface SheetRunJson {
@@ -289,6 +294,10 @@ export function cellOutputJson(id: string, cellKind: string, output: CellOutput)
       return studyJson(id, output.result);
     case 'data':
       return dataJson(id, output.observed);
+    case 'sweep':
+      return sweepJson(id, output.result);
+    case 'scenarios':
+      return scenariosJson(id, output.result);
     case 'error':
       return { id, kind: cellKind, error: output.message };
   }

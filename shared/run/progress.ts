@@ -5,4 +5,6 @@ export interface RunProgress {
   elapsedMs: number;
   /** Estimated time left, null until the first paths are done. */
   etaMs: number | null;
+  /** A run of many points (sweep, scenarios): which point runs now (from 1), of how many. */
+  point?: { index: number; count: number };
 }
