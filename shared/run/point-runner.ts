@@ -39,7 +39,7 @@ export class PointRunner {
   async run(plan: SimulationPlan): Promise<SimulationResult> {
     if (this.context.isCancelled()) throw new RunCancelledError();
     this.index++;
-    const point = { index: Math.min(this.index, this.count), count: this.count };
+    const index = Math.min(this.index, this.count);
     const result = await this.context.executor.runSimulation(plan, (progress) => {
       const pathsDone = this.pathsBefore + progress.pathsDone;
       const elapsedMs = performance.now() - this.started;
@@ -48,7 +48,11 @@ export class PointRunner {
         paths: this.plannedPaths,
         elapsedMs,
         etaMs: pathsDone > 0 ? (elapsedMs * Math.max(0, this.plannedPaths - pathsDone)) / pathsDone : null,
-        point,
+        point: {
+          index,
+          count: this.count,
+          share: progress.paths > 0 ? progress.pathsDone / progress.paths : 0,
+        },
       });
     });
     this.pathsBefore += plan.paths;

@@ -5,6 +5,9 @@ export interface RunProgress {
   elapsedMs: number;
   /** Estimated time left, null until the first paths are done. */
   etaMs: number | null;
-  /** A run of many points (sweep, scenarios): which point runs now (from 1), of how many. */
-  point?: { index: number; count: number };
+  /**
+   * A run of many points (sweep, scenarios): which point runs now (from 1), of how many, and the
+   * share of that point's paths done (0 to 1); pathsDone and paths above count every point.
+   */
+  point?: { index: number; count: number; share: number };
 }

@@ -16,8 +16,8 @@ const loaders: Record<CellKind, () => Promise<Component>> = {
   probe: () => import('./ProbeCell.vue'),
   study: () => import('./StudyCell.vue'),
   data: () => import('./DataCell.vue'),
-  scenarios: () => Promise.resolve(CellPlainView),
-  sweep: () => Promise.resolve(CellPlainView),
+  scenarios: () => import('./ScenariosCell.vue'),
+  sweep: () => import('./SweepCell.vue'),
 };
 
 /**
@@ -33,8 +33,8 @@ const readingLoaders: Record<CellKind, () => Promise<Component>> = {
   probe: () => import('./ProbeReading.vue'),
   study: () => import('./StudyReading.vue'),
   data: () => import('./DataReading.vue'),
-  scenarios: () => Promise.resolve(CellPlainView),
-  sweep: () => Promise.resolve(CellPlainView),
+  scenarios: () => import('./ScenariosReading.vue'),
+  sweep: () => import('./SweepReading.vue'),
 };
 
 export type CellEditorMap = Partial<Record<CellKind, Component>>;

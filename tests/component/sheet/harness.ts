@@ -106,6 +106,8 @@ function stubViews(role: 'editor' | 'reading'): CellEditorMap {
     chart: stub('chart'),
     probe: stub('probe'),
     study: stub('study'),
+    scenarios: stub('scenarios'),
+    sweep: stub('sweep'),
   };
 }
 

@@ -80,7 +80,8 @@ describe('sweeps on worker threads', () => {
     expect(run.cancelled).toBe(true);
     expect(run.outputs.has('sw')).toBe(false);
     expect(calls).toBe(2);
-    expect(seen[0]!.point).toEqual({ index: 1, count: 20 });
+    expect(seen[0]!.point).toMatchObject({ index: 1, count: 20 });
+    expect(seen.every((p) => p.point!.share >= 0 && p.point!.share <= 1)).toBe(true);
     expect(seen.every((p) => p.paths === 20 * 100_000)).toBe(true);
   });
 });
