@@ -100,14 +100,22 @@ describe('adding cells from the "Add cell" menu', () => {
     ]);
   });
 
-  it('offers simulation, chart, probe and study only once there is something for them to read', async () => {
+  it('offers simulation, chart, probe, study, scenarios and sweep only once there is something for them to read', async () => {
     serve({ schemaVersion: 1, title: 'Blank', cells: [] });
     ({ wrapper } = await mountSheet());
     await click(buttonNamed('Add cell'));
     const disabled = [...document.querySelectorAll<HTMLButtonElement>('[role="menuitem"]')]
       .filter((b) => b.disabled)
       .map((b) => b.textContent?.trim());
-    expect(disabled).toEqual(['Simulation', 'Chart', 'Probe', 'Step-size study']);
+    expect(disabled).toEqual([
+      'Simulation',
+      'Chart',
+      'Probe',
+      'Step-size study',
+      'Data',
+      'Scenarios',
+      'Sweep',
+    ]);
   });
 
   it('inserts at the place of the "Add cell" button that was used', async () => {
