@@ -60,9 +60,12 @@ export function axisValues(axis: SweepAxis): number[] {
   return Array.from({ length: axis.count }, (_, k) => {
     const share = k / (axis.count - 1);
     if (k === axis.count - 1) return axis.to;
-    return axis.spacing === 'log'
-      ? axis.from * (axis.to / axis.from) ** share
-      : axis.from + (axis.to - axis.from) * share;
+    const value =
+      axis.spacing === 'log'
+        ? axis.from * (axis.to / axis.from) ** share
+        : axis.from + (axis.to - axis.from) * share;
+    // 12 significant digits: 0.05 rather than 0.049999999999999996 in tables and overrides.
+    return Number(value.toPrecision(12));
   });
 }
 
