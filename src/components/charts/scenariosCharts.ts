@@ -1,5 +1,4 @@
 import type { ScenariosResult } from '@shared/run/scenarios-result';
-import { scenariosTable } from '@shared/run/scenarios-result';
 import { axisTitle, chartLayout, PATH_COLOURS } from './chartTheme';
 import { fileNameFor, toCsv } from './chartCsv';
 import { plural, type ChartSpec } from './chartSpec';
@@ -73,45 +72,50 @@ export function buildScenarioFan(result: ScenariosResult, state: string): ChartS
   };
 }
 
-/** Each probe per scenario as a dot with its 95 % interval, one row of dots per probe. */
-export function buildScenarioProbes(result: ScenariosResult): ChartSpec | null {
-  if (result.probes.length === 0) return null;
+/**
+ * One probe across the scenarios: a dot per scenario with its 95 % interval, one row each (one
+ * chart per probe, so probes on different scales do not share an axis).
+ */
+export function buildScenarioProbe(result: ScenariosResult, probeIndex: number): ChartSpec | null {
+  const probe = result.probes[probeIndex];
+  if (!probe) return null;
   const traces = result.scenarios.map((scenario, k) => {
-    const probes = scenario.probes;
+    const at = scenario.probes[probeIndex]!;
     return {
       type: 'scatter',
       mode: 'markers',
       name: scenario.name,
-      x: probes.map((probe) => probe.estimate),
-      y: result.probes.map((probe) => probe.title),
-      marker: { color: colourOf(k), symbol: SYMBOLS[k % SYMBOLS.length], size: 9 },
+      x: [at.estimate],
+      y: [scenario.name],
+      marker: { color: colourOf(k), symbol: SYMBOLS[k % SYMBOLS.length], size: 10 },
       error_x: {
         type: 'data',
         symmetric: false,
-        array: probes.map((probe) => probe.ci[1] - probe.estimate),
-        arrayminus: probes.map((probe) => probe.estimate - probe.ci[0]),
+        array: [at.ci[1] - at.estimate],
+        arrayminus: [at.estimate - at.ci[0]],
         visible: true,
         color: colourOf(k),
-        thickness: 1.2,
+        thickness: 1.4,
       },
-      offsetgroup: String(k),
     };
   });
-  const table = scenariosTable(result);
-  const header = ['scenario', 'probe', 'estimate', 'standardError', 'ciLow', 'ciHigh'];
+  const layout = chartLayout(
+    { title: `${probe.title}, with 95 % interval` },
+    { title: '' },
+    { margin: { l: 140, r: 16, t: 16, b: 52 }, showlegend: false },
+  );
+  // Scenarios are categories, one row each, in the cell's order from the top.
+  layout.yaxis = { ...(layout.yaxis as object), type: 'category', autorange: 'reversed' };
+  const rows = result.scenarios.map((scenario) => {
+    const at = scenario.probes[probeIndex]!;
+    return [scenario.name, at.estimate, at.standardError, at.ci[0], at.ci[1]];
+  });
   return {
     traces,
-    layout: chartLayout(
-      { title: 'estimate with 95 % interval' },
-      { title: '' },
-      { scattermode: 'group', margin: { l: 180, r: 16, t: 24, b: 52 } },
-    ),
-    ariaLabel: `Probes of ${plural(result.scenarios.length, 'scenario')}: ${result.probes.map((p) => p.title).join(', ')}, each with its 95 % interval`,
-    caption: 'Dots: estimates; bars: 95 % intervals; one marker shape and colour per scenario',
-    csv: toCsv(
-      header,
-      table.map((row) => header.map((key) => row[key] ?? '')),
-    ),
-    fileName: fileNameFor('scenarios probes'),
+    layout,
+    ariaLabel: `${probe.title} for ${plural(result.scenarios.length, 'scenario')}, each with its 95 % interval`,
+    caption: `${probe.title}: dots are estimates, bars 95 % intervals; one marker shape and colour per scenario`,
+    csv: toCsv(['scenario', 'estimate', 'standardError', 'ciLow', 'ciHigh'], rows),
+    fileName: fileNameFor(`scenarios ${probe.title}`),
   };
 }
