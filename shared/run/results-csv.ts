@@ -1,12 +1,15 @@
 import type { SheetDocument } from '../sheet/document';
 import { kindOf } from '../cells/registry';
 import type { CellOutput } from './outputs';
-import { toCsv, withUnit } from './csv';
+import { recordsCsv, toCsv, withUnit } from './csv';
+import { scenariosTable } from './scenarios-result';
+import { sweepTable } from './sweep-result';
 
 /**
  * A sheet's results as CSV files: per simulation its saved statistics (wide: one row per saved
  * time) and its sample paths (long: one row per path and time); all probes in one file, all
- * step-size studies in one file. Columns carry units in brackets. Cells without a current
+ * step-size studies in one file; per sweep and per scenarios cell its table. Columns carry units
+ * in brackets. Cells without a current
  * output are left out; other kinds of output (a fit, later) are listed generically by the caller.
  */
 
@@ -48,6 +51,10 @@ export function resultFiles(doc: SheetDocument, outputs: Outputs): ResultFile[] 
         (estimate.warnings ?? []).join(' '),
       ]);
     }
+    if (cell.kind === 'sweep' && output?.kind === 'sweep')
+      files.push({ fileName: `sweep-${cell.id}.csv`, csv: recordsCsv(sweepTable(output.result)) });
+    if (cell.kind === 'scenarios' && output?.kind === 'scenarios')
+      files.push({ fileName: `scenarios-${cell.id}.csv`, csv: recordsCsv(scenariosTable(output.result)) });
     if (cell.kind === 'study' && output?.kind === 'study') {
       const { result } = output;
       for (const level of result.levels)

@@ -2,19 +2,13 @@ import { Z95 } from '@shared/engine/probes';
 import type { SweepResult } from '@shared/run/sweep-result';
 import { sweepTable } from '@shared/run/sweep-result';
 import { chartLayout, CHART_COLOURS } from './chartTheme';
-import { fileNameFor, toCsv } from './chartCsv';
+import { recordsCsv } from '@shared/run/csv';
+import { fileNameFor } from './chartCsv';
 import { plural, type ChartSpec } from './chartSpec';
 
 /** The CSV of a sweep: its table, one row per point (the chart's data and the table's export). */
 export function sweepCsv(result: SweepResult): string {
-  const rows = sweepTable(result);
-  const header = Object.keys(rows[0] ?? {});
-  const all = new Set(rows.flatMap((row) => Object.keys(row)));
-  for (const key of all) if (!header.includes(key)) header.push(key);
-  return toCsv(
-    header,
-    rows.map((row) => header.map((key) => row[key] ?? '')),
-  );
+  return recordsCsv(sweepTable(result));
 }
 
 /**
