@@ -9,8 +9,8 @@ import { sweepTable } from './sweep-result';
  * A sheet's results as CSV files: per simulation its saved statistics (wide: one row per saved
  * time) and its sample paths (long: one row per path and time); all probes in one file, all
  * step-size studies in one file; per sweep and per scenarios cell its table. Columns carry units
- * in brackets. Cells without a current
- * output are left out; other kinds of output (a fit, later) are listed generically by the caller.
+ * in brackets. Cells without a current output are left out; other kinds of output (a fit, later)
+ * are listed generically by the caller.
  */
 
 export interface ResultFile {
@@ -26,6 +26,26 @@ function stateUnits(doc: SheetDocument, modelId: string): Map<string, string> {
 }
 
 const squared = (unit: string) => (unit ? `(${unit})²` : '');
+
+/**
+ * The names of the files `resultFiles` would write, without building them (a sheet page lists
+ * them in a menu and builds one only when it is asked for).
+ */
+export function resultFileNames(doc: SheetDocument, outputs: Outputs): string[] {
+  const names: string[] = [];
+  let probes = false;
+  let studies = false;
+  for (const cell of doc.cells) {
+    const output = outputs(cell.id);
+    if (cell.kind === 'simulation' && output?.kind === 'simulation')
+      names.push(`${cell.id}-statistics.csv`, `${cell.id}-sample-paths.csv`);
+    probes ||= cell.kind === 'probe' && output?.kind === 'probe';
+    studies ||= cell.kind === 'study' && output?.kind === 'study';
+  }
+  if (probes) names.push('probes.csv');
+  if (studies) names.push('studies.csv');
+  return names;
+}
 
 export function resultFiles(doc: SheetDocument, outputs: Outputs): ResultFile[] {
   const files: ResultFile[] = [];

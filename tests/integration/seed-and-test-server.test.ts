@@ -3,6 +3,7 @@ import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { exampleSheets } from '@shared/examples/index';
 import { connectDatabase, type Database } from '../../server/db/client';
 import { DEMO_ACCOUNTS, seedDemo } from '../../server/seed';
+import { demoSheetFiles } from '../../server/seed-sheets';
 import { startTestServer } from '../../server/testing';
 import { createTestDatabase } from './helpers';
 
@@ -21,8 +22,10 @@ describe('seedDemo', () => {
   it('creates the demo accounts and sheets on an empty site, and does nothing the second time', async () => {
     const first = await seedDemo(database.db);
     expect(first.seeded).toBe(true);
-    // Every example sheet, and the demo editor's fork of the shared one.
-    expect(first.sheetCount).toBe(exampleSheets.length + 1);
+    // Every example sheet, every demo sheet file (a sheet with its stored data), and the demo
+    // editor's fork of the shared one.
+    const expected = exampleSheets.length + demoSheetFiles().length + 1;
+    expect(first.sheetCount).toBe(expected);
     const second = await seedDemo(database.db);
     expect(second.seeded).toBe(false);
     const users = await database.db.query.users.findMany();
@@ -31,7 +34,7 @@ describe('seedDemo', () => {
     );
     expect(users.filter((user) => user.role === 'admin')).toHaveLength(1);
     const sheets = await database.db.query.sheets.findMany();
-    expect(sheets).toHaveLength(exampleSheets.length + 1);
+    expect(sheets).toHaveLength(expected);
   });
 });
 

@@ -100,7 +100,7 @@ describe('adding cells from the "Add cell" menu', () => {
     ]);
   });
 
-  it('offers simulation, chart, probe, study, scenarios and sweep only once there is something for them to read', async () => {
+  it('offers simulation, chart, probe, study, data, scenarios and sweep only once there is something for them to read', async () => {
     serve({ schemaVersion: 1, title: 'Blank', cells: [] });
     ({ wrapper } = await mountSheet());
     await click(buttonNamed('Add cell'));

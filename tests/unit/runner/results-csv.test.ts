@@ -1,7 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { inProcessExecutor } from '@shared/run/environments';
-import { resultFiles } from '@shared/run/results-csv';
+import { resultFileNames, resultFiles } from '@shared/run/results-csv';
 import { runSheet } from '@shared/run/run-sheet';
 import { sheetDocumentSchema } from '@shared/sheet/index';
 
@@ -19,6 +19,10 @@ describe('results as CSV files', () => {
       'probes.csv',
       'studies.csv',
     ]);
+    // The menu's cheap listing names the same files in the same order.
+    expect(resultFileNames(fixture, (id) => run.outputs.get(id)?.output)).toEqual(
+      files.map((file) => file.fileName),
+    );
     const output = run.outputs.get('gauge-run')!.output;
     if (output.kind !== 'simulation') throw new Error('no simulation output');
     const stats = files[0]!.csv.trim().split('\r\n');
@@ -57,5 +61,6 @@ describe('results as CSV files', () => {
 
   it('leaves out cells without a current output', () => {
     expect(resultFiles(fixture, () => undefined)).toEqual([]);
+    expect(resultFileNames(fixture, () => undefined)).toEqual([]);
   });
 });
