@@ -1,6 +1,7 @@
-import type { Cell, ProbeCell, SheetDocument } from '../sheet/document';
+import type { Cell, ProbeCell, SheetDocument, SimulationCell } from '../sheet/document';
 import type { SheetIssue } from '../sheet/issues';
 import { wrongReference, type SheetIndex } from '../sheet/sheet-index';
+import { MAX_PATHS } from '../engine/limits';
 
 /** Look-ups and checks the sweep and scenarios kinds share. */
 
@@ -53,4 +54,32 @@ export function checkOverrideNames(
       path: [...path, name],
       message: `there is no parameter '${name}'${names.length > 0 ? `; the sheet's parameters are: ${names.join(', ')}` : ''}`,
     }));
+}
+
+/**
+ * Paths a sweep or scenarios cell runs in all (every point, and a target search's refined runs
+ * at most), and the simulation whose steps each path takes; null when the cell names none.
+ */
+export function manyPointWork(
+  doc: SheetDocument,
+  cell: Extract<Cell, { kind: 'sweep' | 'scenarios' }>,
+): { simulation: SimulationCell; paths: number } | null {
+  const simulationId = cell.kind === 'scenarios' ? cell.simulation : probeCellOf(doc, cell.probe)?.simulation;
+  const simulation = doc.cells.find(
+    (c): c is SimulationCell => c.kind === 'simulation' && c.id === simulationId,
+  );
+  if (!simulation) return null;
+  const paths = cell.paths ?? simulation.paths;
+  if (cell.kind === 'scenarios') return { simulation, paths: cell.scenarios.length * paths };
+  const points = cell.axes.reduce(
+    (product, axis) => product * (axis.spacing === 'list' ? axis.values.length : axis.count),
+    1,
+  );
+  const refined = cell.target ? cell.target.refineRuns * refinePathsOf(cell.target, paths) : 0;
+  return { simulation, paths: points * paths + refined };
+}
+
+/** Paths of each refined run of a target search: as set, else four times the sweep's. */
+export function refinePathsOf(target: { refinePaths?: number }, paths: number): number {
+  return target.refinePaths ?? Math.min(4 * paths, MAX_PATHS);
 }

@@ -6,7 +6,7 @@ import type { SweepPointResult } from '../run/sweep-result';
 import type { SweepCell } from '../sheet/document';
 import type { RunStepContext } from './kind';
 import { secondsSince } from './helpers';
-import { probeCellOf } from './many-points';
+import { probeCellOf, refinePathsOf } from './many-points';
 import { probeKind, probeRequest } from './probe';
 import { axisValues, sweepPoints } from './sweep';
 
@@ -28,7 +28,7 @@ export async function runSweep(cell: SweepCell, context: RunStepContext): Promis
   const paths = cell.paths ?? base.paths;
   const crn = !cell.independent;
   const target = cell.target && cell.axes.length === 1 ? cell.target : undefined;
-  const refinePaths = target?.refinePaths ?? Math.min(4 * paths, 1_000_000);
+  const refinePaths = target ? refinePathsOf(target, paths) : 0;
   const runner = new PointRunner(context, points.length, points.length * paths);
   if (target) runner.extend(target.refineRuns, target.refineRuns * refinePaths);
 
