@@ -185,7 +185,7 @@ describe('reading views', () => {
           ci: [0.03 + 0.1 * k, 0.07 + 0.1 * k] as [number, number],
           paths: 1000,
           digest: `d${k}`,
-          warnings: [],
+          warnings: k === 1 ? ['conditional on the 900 surviving paths'] : [],
           step: k === 0 ? null : { estimate: 0.1, pairedSE: 0.004, independentSE: 0.014 },
           error: null,
         })),
@@ -207,6 +207,10 @@ describe('reading views', () => {
     const answer = wrapper.find('[aria-label="Target search result"]');
     expect(answer.text()).toMatch(/0\.35 · interval \[0\.31, 0\.39\]/);
     expect(wrapper.find('table').text()).toMatch(/0\.004 · 0\.014/);
+    // A point's warning is said with the value it belongs to.
+    expect(wrapper.find('[role="alert"]').text()).toBe(
+      'At sigma = 0.5: conditional on the 900 surviving paths',
+    );
     expect(wrapper.text()).toMatch(/qualified review/);
   });
 
