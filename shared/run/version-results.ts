@@ -6,12 +6,21 @@ import type { SavedStats, SimulationResult } from '../engine/result';
 import type { SheetDocument } from '../sheet/document';
 import type { KeptOutput } from './run-sheet';
 import type { CellOutput } from './outputs';
+import {
+  restoredScenarios,
+  restoredSweep,
+  scenariosSummarySchema,
+  summariseScenarios,
+  summariseSweep,
+  sweepSummarySchema,
+} from './version-results-points';
 
 /**
  * The compact summary of a sheet's results saved with a version, so that an old version opens
  * with its numbers and charts ("as saved with version N") without running again: each
  * simulation's saved statistics on at most MAX_TIMES saved times, a few sample paths, its losses,
- * stability and digest; each probe's estimate; each study's orders. Tens of kilobytes (18 to 61
+ * stability and digest; each probe's estimate; each study's orders; each sweep's and scenarios
+ * cell's result (version-results-points.ts). Tens of kilobytes (18 to 61
  * KiB for the example sheets), not the per-path values: a chart that needs every path's values
  * (a histogram) asks for a run instead, and a restored output is never reused as the input of a
  * new run.
@@ -149,6 +158,8 @@ const cellSummarySchema = z.discriminatedUnion('kind', [
   simulationSummarySchema,
   probeSummarySchema,
   studySummarySchema,
+  sweepSummarySchema,
+  scenariosSummarySchema,
 ]);
 
 export const versionResultsSchema = z
@@ -283,6 +294,9 @@ export function summariseResults(
           weakOrderCI: [toJson(output.result.weakOrderCI[0]), toJson(output.result.weakOrderCI[1])],
         },
       };
+    else if (output.kind === 'sweep') results[cell.id] = summariseSweep(output.result, output.seconds);
+    else if (output.kind === 'scenarios')
+      results[cell.id] = summariseScenarios(output.result, output.seconds, keptTimeIndices);
   }
   if (JSON.stringify(results).length > MAX_SUMMARY_CHARS)
     for (const summary of Object.values(results)) if (summary.kind === 'simulation') summary.samplePaths = [];
@@ -391,6 +405,20 @@ export function outputsFromResults(
           ci: [fromJson(estimate.ci[0]), fromJson(estimate.ci[1])],
         },
         finishedAt: savedAt,
+      });
+    } else if (summary.kind === 'sweep') {
+      outputs.set(cell.id, {
+        kind: 'sweep',
+        result: restoredSweep(summary),
+        finishedAt: savedAt,
+        seconds: summary.seconds,
+      });
+    } else if (summary.kind === 'scenarios') {
+      outputs.set(cell.id, {
+        kind: 'scenarios',
+        result: restoredScenarios(summary),
+        finishedAt: savedAt,
+        seconds: summary.seconds,
       });
     } else if (cell.kind === 'study') {
       const { result } = summary;
