@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { MAX_PATHS } from '../engine/limits';
-import type { SweepCell } from '../sheet/document';
+import type { SheetDocument, SweepCell } from '../sheet/document';
 import type { CellKindDefinition } from './kind';
 import { cellIdSchema, finite, symbolNameSchema } from './fields';
 import { nearestCell } from './helpers';
@@ -169,7 +169,7 @@ export const sweepKind: CellKindDefinition<'sweep'> = {
 };
 
 /** A short name of the swept probe, for titles and tables. */
-export function sweptProbeTitle(cell: SweepCell, doc: Parameters<typeof probeCellOf>[0]): string {
+export function sweptProbeTitle(cell: SweepCell, doc: SheetDocument): string {
   const probe = probeCellOf(doc, cell.probe);
   return probe ? probeKind.title(probe) : cell.probe;
 }
