@@ -1,10 +1,11 @@
 /**
  * Stochastic root finding on a swept curve: the parameter value x at which a probe's expected
  * value equals a target. The sweep brackets the root (two neighbouring values whose estimates lie
- * on either side of the target); then secant steps kept inside the bracket (regula falsi with a
- * bisection safeguard; e.g. Press et al. 2007, Numerical Recipes §9.2) on refined runs with the
- * same random streams. The interval is every x whose 95 % interval, interpolated linearly between
- * the evaluated values, contains the target: the inversion of the pointwise confidence band.
+ * on either side of the target); then secant steps kept inside the bracket (regula falsi, Illinois
+ * variant, Dowell & Jarratt 1971, BIT 11; with a bisection-like safeguard, e.g. Press et al. 2007,
+ * Numerical Recipes §9.2) on refined runs with the same random streams. The interval is every x
+ * whose 95 % interval, interpolated linearly between the evaluated values, contains the target:
+ * the inversion of the pointwise confidence band.
  */
 
 export interface CurvePoint {
@@ -52,14 +53,16 @@ function findBracket(points: readonly CurvePoint[], target: number): [CurvePoint
   return last && side(last, target) === 0 ? [last, last] : null;
 }
 
-/** The secant (linear interpolation) point of a bracket, pulled at least 10 % inside it. */
-function secantPoint(a: CurvePoint, b: CurvePoint, target: number): number {
-  const width = b.x - a.x;
-  const slope = b.estimate - a.estimate;
-  const raw = slope === 0 ? a.x + width / 2 : a.x + ((target - a.estimate) * width) / slope;
-  const lo = a.x + 0.1 * width;
-  const hi = b.x - 0.1 * width;
-  return Number.isFinite(raw) ? Math.min(hi, Math.max(lo, raw)) : a.x + width / 2;
+/**
+ * The secant (linear interpolation) zero of f between (a, fa) and (b, fb), f = estimate − target,
+ * pulled at least 10 % inside the bracket.
+ */
+function secantPoint(a: number, fa: number, b: number, fb: number): number {
+  const width = b - a;
+  const raw = fb === fa ? a + width / 2 : a - (fa * width) / (fb - fa);
+  const lo = a + 0.1 * width;
+  const hi = b - 0.1 * width;
+  return Number.isFinite(raw) ? Math.min(hi, Math.max(lo, raw)) : a + width / 2;
 }
 
 /** Linear interpolation of where the curve f crosses the target between two points. */
@@ -169,15 +172,30 @@ export async function searchTarget(
     return { ...base, message: describe(base, points) };
   }
   let [a, b] = bracket;
+  // Illinois variant of regula falsi: an end kept twice in a row has its f halved, so the
+  // secant also moves the far end and the bracket shrinks from both sides.
+  let fa = a.estimate - target;
+  let fb = b.estimate - target;
+  let kept: 'a' | 'b' | null = null;
   for (let i = 0; i < options.iterations && a !== b; i++) {
     if (options.isCancelled?.() === true) break;
-    const point = await options.evaluate(secantPoint(a, b, target));
+    const point = await options.evaluate(secantPoint(a.x, fa, b.x, fb));
     refined.push(point);
+    const f = point.estimate - target;
     if (side(point, target) === 0) {
       a = point;
       b = point;
-    } else if (side(point, target) === side(a, target)) a = point;
-    else b = point;
+    } else if (side(point, target) === side(a, target)) {
+      a = point;
+      fa = f;
+      if (kept === 'b') fb /= 2;
+      kept = 'b';
+    } else {
+      b = point;
+      fb = f;
+      if (kept === 'a') fa /= 2;
+      kept = 'a';
+    }
   }
   const root = a === b ? a.x : crossing({ x: a.x, f: a.estimate }, { x: b.x, f: b.estimate }, target);
   const band = bandInterval([...points, ...refined], target, root);
