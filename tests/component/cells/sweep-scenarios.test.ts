@@ -120,6 +120,24 @@ describe('SweepCell editor', () => {
     const updated = (wrapper.emitted('update') as [SweepCellType][]).at(-1)![0];
     expect(updated.target).toEqual({ value: 0.05, refineRuns: 6 });
   });
+
+  it('sets and clears the paths of the refined runs', async () => {
+    const cell = sweepCell({ target: { value: 0.1, refineRuns: 3 } });
+    const wrapper = mount(SweepCell, { props: props(cell) });
+    mounted.push(wrapper);
+    await input(wrapper, 'Paths per refined run').setValue('5000');
+    expect((wrapper.emitted('update') as [SweepCellType][]).at(-1)![0].target).toEqual({
+      value: 0.1,
+      refineRuns: 3,
+      refinePaths: 5000,
+    });
+    await wrapper.setProps({ cell: { ...cell, target: { value: 0.1, refineRuns: 3, refinePaths: 5000 } } });
+    await input(wrapper, 'Paths per refined run').setValue('');
+    expect((wrapper.emitted('update') as [SweepCellType][]).at(-1)![0].target).toEqual({
+      value: 0.1,
+      refineRuns: 3,
+    });
+  });
 });
 
 describe('ScenariosCell editor', () => {
