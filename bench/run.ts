@@ -6,13 +6,14 @@ import { createThreadPool, type ThreadPool } from '../server/cli/thread-pool';
 import { benchSheets, type BenchSheet } from './cases';
 import { median } from './median';
 import { prepareReferences, type Reference } from './references';
+import { measureSweepCase } from './sweep-case';
 
 /**
  * `npm run bench:engine [-- --case NAME] [--rounds N] [--threads N]`: one JSON line per case and
  * reference (medians over rounds), then a ratio line. Engine cases and the reference programs
  * run alternately in every round, so a machine that slows down mid-run slows both.
  */
-const CASE_NAMES = ['ou-scalar', 'ou-scalar-pool', 'grazing-2d', 'gbm-milstein'] as const;
+const CASE_NAMES = ['ou-scalar', 'ou-scalar-pool', 'grazing-2d', 'gbm-milstein', 'sweep-20'] as const;
 type CaseName = (typeof CASE_NAMES)[number];
 
 interface Options {
@@ -153,6 +154,8 @@ async function main(): Promise<void> {
         poolScaling: ratio(medians.get('ou-scalar-pool')?.stepsPerSec, engine),
       });
     }
+    // Its own line: a sweep against separate runs of the same simulation (bench/sweep-case.ts).
+    if (options.cases.includes('sweep-20')) print(await measureSweepCase(options.rounds));
   } finally {
     setup?.cleanup();
     await threadPool?.close();

@@ -1,4 +1,5 @@
 import type { SimulationPlan, WatchSpec } from '../engine/plan';
+import type { PlanPoint } from '../sheet/plan';
 import type { SimulationResult, StudyOptions, StudyResult } from '../engine/result';
 import type { Cell, CellKind, ModelCell, SheetDocument, SimulationCell } from '../sheet/document';
 import type { SheetIssue } from '../sheet/issues';
@@ -110,6 +111,15 @@ export interface RunStepContext {
   forced: boolean;
   /** The engine plan of a simulation cell, built once per run. */
   plan(simulationId: string): SimulationPlan;
+  /**
+   * The plan of one point of a run of many (sweep, scenarios): overrides, kernel inputs, paths
+   * and seed on top of the simulation's plan. Built fresh each call (points differ).
+   */
+  pointPlan(simulationId: string, point: PlanPoint): SimulationPlan;
+  /** Parameters whose values differ between these points' overrides (to compile as kernel inputs). */
+  varyingParameters(simulationId: string, points: readonly Readonly<Record<string, number>>[]): string[];
+  /** The person cancelled the run: a step of many runs stops between them. */
+  isCancelled(): boolean;
   /** The current output of another cell: this run's, or a kept one whose inputs have not changed. */
   currentOutput(cellId: string): CellOutput | undefined;
   /** Stored datasets' rows, for data cells; absent where the runner has none. */

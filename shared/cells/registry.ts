@@ -9,7 +9,9 @@ import { noteCellSchema, noteKind } from './note';
 import { paramsCellSchema, paramsKind } from './params';
 import { probeCellSchema, probeKind } from './probe';
 import { simulationCellSchema, simulationKind } from './simulation';
+import { scenariosCellSchema, scenariosKind } from './scenarios';
 import { studyCellSchema, studyKind } from './study';
+import { sweepCellSchema, sweepKind } from './sweep';
 
 /**
  * Every cell kind, in the order the "Add cell" menu lists them. A new kind adds its schema to
@@ -26,6 +28,8 @@ export const cellSchema = z.discriminatedUnion('kind', [
   studyCellSchema,
   dataCellSchema,
   fitCellSchema,
+  scenariosCellSchema,
+  sweepCellSchema,
 ]);
 
 type Definitions = { [K in CellKind]: CellKindDefinition<K> };
@@ -40,6 +44,8 @@ export const CELL_KINDS: Definitions = {
   study: studyKind,
   data: dataKind,
   fit: fitKind,
+  scenarios: scenariosKind,
+  sweep: sweepKind,
 };
 
 /** The kinds in menu order. */

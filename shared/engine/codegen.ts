@@ -41,8 +41,8 @@ interface Parts {
   timeUpdate: string;
 }
 
-function parts(plan: SimulationPlan, layout: PlanLayout): Parts {
-  const { model } = plan;
+function parts(plan: SimulationPlan, layout: PlanLayout, withInputs = false): Parts {
+  const model = withInputs ? inputFormModel(plan) : plan.model;
   const d = layout.stateCount;
   const m = layout.noiseCount;
   const step = stepSourceFor(model, plan.method);
@@ -98,14 +98,39 @@ function parts(plan: SimulationPlan, layout: PlanLayout): Parts {
   };
 }
 
-function initialValues(plan: SimulationPlan): string {
-  return plan.model.initial.map((value, i) => `s${i} = ${numberLiteral(value)};`).join(' ');
+/** The model with the input form's coefficients, for a kernel that reads parameters per run. */
+function inputFormModel(plan: SimulationPlan): SimulationPlan['model'] {
+  const form = plan.model.inputForm!;
+  return { ...plan.model, drift: form.drift, diffusion: form.diffusion };
 }
 
-function watchUpdates(plan: SimulationPlan, layout: PlanLayout, time: string): string {
+/**
+ * What a kernel with inputs reads from ctx.inputs, in this order: the input parameters' values,
+ * the initial values, the watched levels, then 1 when every path starts within the blow-up
+ * bound (see startsWithinBound), else 0. Literals in the plain kernel, so both give equal bits.
+ */
+export function kernelInputs(plan: SimulationPlan, layout: PlanLayout): Float64Array {
+  const form = plan.model.inputForm;
+  if (form === undefined) return new Float64Array(0);
+  return Float64Array.from([
+    ...form.names.map((name) => plan.model.params[name] ?? NaN),
+    ...plan.model.initial,
+    ...layout.watchLevels,
+    startsWithinBound(plan) ? 1 : 0,
+  ]);
+}
+
+function initialValues(plan: SimulationPlan, withInputs = false): string {
+  const offset = plan.model.inputForm?.names.length ?? 0;
+  return plan.model.initial
+    .map((value, i) => `s${i} = ${withInputs ? `K.inputs[${offset + i}]` : numberLiteral(value)};`)
+    .join(' ');
+}
+
+function watchUpdates(plan: SimulationPlan, layout: PlanLayout, time: string, withInputs = false): string {
   return plan.watches
     .map((watch, w) => {
-      const level = numberLiteral(layout.watchLevels[w]!);
+      const level = withInputs ? `wl${w}` : numberLiteral(layout.watchLevels[w]!);
       const reached =
         watch.direction === 'below' ? `s${watch.state} <= ${level}` : `s${watch.state} >= ${level}`;
       return `if (hw${w} === 0 && ${reached}) { hw${w} = 1; fp${w} = ${time}; }`;
@@ -153,6 +178,19 @@ function startsWithinBound(plan: SimulationPlan): boolean {
   });
 }
 
+/** Constants of a kernel with inputs: pv{k} (parameters), wl{w} (watched levels), within. */
+function inputDeclarations(plan: SimulationPlan): string {
+  const form = plan.model.inputForm!;
+  const d = plan.model.stateNames.length;
+  const watchStart = form.names.length + d;
+  const names = [
+    ...form.names.map((_, k) => `pv${k} = K.inputs[${k}]`),
+    ...plan.watches.map((_, w) => `wl${w} = K.inputs[${watchStart + w}]`),
+    `within = K.inputs[${watchStart + plan.watches.length}] === 1`,
+  ];
+  return `const ${names.join(', ')};`;
+}
+
 /**
  * Source of a function body that returns `kernel(ctx)`: the kernel simulates paths ctx.pStart …
  * ctx.pEnd − 1 of a chunk (see KernelContext in kernel.ts for what ctx holds), writes the chunk's
@@ -172,7 +210,8 @@ function startsWithinBound(plan: SimulationPlan): boolean {
 export function buildKernelSource(plan: SimulationPlan, layout: PlanLayout): string {
   const d = layout.stateCount;
   const m = layout.noiseCount;
-  const p = parts(plan, layout);
+  const inputs = plan.model.inputForm !== undefined;
+  const p = parts(plan, layout, inputs);
   const states = range(d);
   const save = states.map((i) => `saved[(k * ${d} + ${i}) * pathCount + p] = s${i};`).join(' ');
   const saveNaN = states.map((i) => `saved[(k * ${d} + ${i}) * pathCount + p] = NaN;`).join(' ');
@@ -186,11 +225,14 @@ export function buildKernelSource(plan: SimulationPlan, layout: PlanLayout): str
 
   const blowupAndRunning = `if (${p.blowupTest}) { blown = true; break seg; }\n${running}`;
   const outsideSeen = states.map((i) => `s${i} <= mx${i} && s${i} >= mn${i}`).join(' && ');
-  const checks = startsWithinBound(plan)
-    ? `if (!(${outsideSeen})) {\n${blowupAndRunning}\n}`
-    : blowupAndRunning;
+  // With inputs, whether paths start within the bound is read per run (the `within` input).
+  const checks = inputs
+    ? `if (!within || !(${outsideSeen})) {\n${blowupAndRunning}\n}`
+    : startsWithinBound(plan)
+      ? `if (!(${outsideSeen})) {\n${blowupAndRunning}\n}`
+      : blowupAndRunning;
   /** The step after its draws: increments, scheme, boundaries, checks, watches. */
-  const stepTail = `${p.increments}\n${p.stepAndBoundaries}\n${checks}\n${watchUpdates(plan, layout, END_OF_STEP)}`;
+  const stepTail = `${p.increments}\n${p.stepAndBoundaries}\n${checks}\n${watchUpdates(plan, layout, END_OF_STEP, inputs)}`;
   const fastDraws = range(m)
     .map((j) => fastNormalDrawSource(`z${j}`, `slow = ${j}; break;`))
     .join('\n');
@@ -225,17 +267,18 @@ function runPath(p) {
   const pathCount = K.pathCount;
   const t0 = ${numberLiteral(plan.t0)}, h = ${numberLiteral(layout.h)}, steps = ${plan.steps};
   const sqh = Math.sqrt(h), halfInvSqh = 0.5 / sqh;
+  ${inputs ? inputDeclarations(plan) : ''}
   let x0 = 0, x1 = 0, x2 = 0, x3 = 0, r = 0, xt = 0, iz = 0, rf = 0.0, slow = 0;
   let t = t0, tn = t0, n = 0, k = 0, q = 0, j = 0, end = 0, nextSave = 0, nextProbe = 0, blown = false;
   ${p.declarations}
   K.streamSeed(K.seed, K.firstPath + p, seedState, 0);
   x0 = seedState[0] | 0; x1 = seedState[1] | 0; x2 = seedState[2] | 0; x3 = seedState[3] | 0;
-  ${initialValues(plan)}
+  ${initialValues(plan, inputs)}
   ${states.map((i) => `ab${i} = 0; abT${i} = NaN;`).join(' ')}
   ${plan.watches.map((_, w) => `hw${w} = 0; fp${w} = NaN;`).join(' ')}
   ${p.initialBoundaries}
   ${states.map((i) => `mx${i} = s${i}; mn${i} = s${i};`).join(' ')}
-  ${watchUpdates(plan, layout, 't0')}
+  ${watchUpdates(plan, layout, 't0', inputs)}
   while (saveSteps[k] === 0) { ${save} k++; }
   while (probeSteps[q] === 0) { j = probeOrder[q]; ${probe} q++; }
   n = 1;

@@ -1,6 +1,6 @@
 import type { SimulationPlan } from './plan';
 import type { PlanLayout } from './layout';
-import { buildIncrementKernelSource, buildKernelSource } from './codegen';
+import { buildIncrementKernelSource, buildKernelSource, kernelInputs } from './codegen';
 import { streamSeed } from './random/stream-seed';
 import { normalSlowPath, ZIGGURAT_FAST_TABLE } from './random/ziggurat';
 import { compileGenerated } from './compile-generated';
@@ -25,6 +25,8 @@ export interface KernelContext {
   saveSteps: Int32Array;
   probeStepsSorted: Int32Array;
   probeOrder: Int32Array;
+  /** A kernel built from the plan's input form reads these per run (see kernelInputs in codegen.ts). */
+  inputs: Float64Array;
   seed: number;
   firstPath: number;
   pathCount: number;
@@ -79,4 +81,4 @@ export function compileIncrementKernel(plan: SimulationPlan, layout: PlanLayout)
 }
 
 export const KERNEL_TABLE = ZIGGURAT_FAST_TABLE;
-export { streamSeed, normalSlowPath };
+export { streamSeed, normalSlowPath, kernelInputs };

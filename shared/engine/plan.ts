@@ -10,7 +10,8 @@ import type { BoundaryRule, Method } from '../sheet/document';
  *   s0..s{d-1} state variables, in `stateNames` order
  *   w0..w{m-1} Brownian motion W_t of each noise source (only in `exact` sources)
  *   the helper names defined by EXPRESSION_PRELUDE in shared/expr (math functions)
- * Parameters are already folded in as numeric literals.
+ * Parameters are already folded in as numeric literals (except in `inputForm`, where some are
+ *   pv0..pv{k-1}, read by the kernel per run).
  */
 export interface ModelSpec {
   stateNames: string[];
@@ -30,6 +31,25 @@ export interface ModelSpec {
   correlation: number[][] | null;
   /** Exact solution per state, in terms of t, w0..w{m-1} and s0..s{d-1} standing for initial values. */
   exact: (string | null)[];
+  /**
+   * Present only when a run of many points (a sweep, scenarios) varies parameters: the same
+   * coefficients with those parameters left as kernel inputs (`pv0`, `pv1` … in `names` order)
+   * instead of literals, so one compiled kernel serves every point. The kernel then reads the
+   * parameter values (from `params`), the initial values and the watched levels per run. Absent
+   * for a single run: the plain literal path. A backend that cannot read inputs falls back to
+   * the JavaScript kernel when it is present.
+   */
+  inputForm?: InputForm;
+}
+
+/** Drift and diffusion sources with some parameters as kernel inputs (see ModelSpec.inputForm). */
+export interface InputForm {
+  /** Parameter names read from the kernel's inputs; the k-th is `pv{k}` in the sources. */
+  names: string[];
+  /** d sources. */
+  drift: string[];
+  /** d × m sources. */
+  diffusion: string[][];
 }
 
 /** A level a probe watches on one state variable, so the engine records first passages. */

@@ -19,7 +19,11 @@ export function wilsonInterval(successes: number, trials: number, z = Z95): [num
   const z2n = (z * z) / trials;
   const centre = (p + z2n / 2) / (1 + z2n);
   const half = (z / (1 + z2n)) * Math.sqrt((p * (1 - p)) / trials + (z * z) / (4 * trials * trials));
-  return [Math.max(0, centre - half), Math.min(1, centre + half)];
+  // At 0 or n successes the end is exactly 0 or 1 (the formula gives it up to rounding: 4e-19).
+  return [
+    successes === 0 ? 0 : Math.max(0, centre - half),
+    successes === trials ? 1 : Math.min(1, centre + half),
+  ];
 }
 
 function proportion(successes: number, trials: number, note?: string): ProbeEstimate {
@@ -251,8 +255,8 @@ function monitoringText(result: SimulationResult, watch: number): string {
   return `continuity-corrected (Broadie–Glasserman–Kou): checked at the ${steps} against the level moved ${shift.toPrecision(3)} (0.5826·σ·√h) toward the start`;
 }
 
-/** Hit indicator per live path: reached `level` from `direction` by `time`. */
-function hits(
+/** Hit indicator per live path: reached `level` from `direction` by `time` (also read by paired-difference.ts). */
+export function hits(
   result: SimulationResult,
   probe: ProbeRequest,
   level: number,

@@ -1,7 +1,14 @@
 import type { SimulationPlan } from './plan';
 import type { ChunkResult, SimulationHooks, SimulationResult } from './result';
 import { planLayout, type PlanLayout } from './layout';
-import { compileKernel, KERNEL_TABLE, normalSlowPath, streamSeed, type KernelContext } from './kernel';
+import {
+  compileKernel,
+  kernelInputs,
+  KERNEL_TABLE,
+  normalSlowPath,
+  streamSeed,
+  type KernelContext,
+} from './kernel';
 import { mergeChunks } from './merge';
 
 /** Aim for batches of about this much wall time between hook checks (cancel lands within 200 ms). */
@@ -94,6 +101,7 @@ export function simulateChunk(
     saveSteps: layout.saveSteps,
     probeStepsSorted,
     probeOrder: layout.probeOrder,
+    inputs: kernelInputs(plan, layout),
     seed: plan.seed,
     firstPath,
     pathCount,

@@ -11,3 +11,12 @@ export function toCsv(header: readonly string[], rows: readonly (readonly (numbe
 export function withUnit(name: string, unit: string | undefined): string {
   return unit ? `${name} [${unit}]` : name;
 }
+
+/** Rows of named values as CSV, columns in order of first appearance; null is empty. */
+export function recordsCsv(rows: readonly Readonly<Record<string, number | string | null>>[]): string {
+  const header = [...new Set(rows.flatMap((row) => Object.keys(row)))];
+  return toCsv(
+    header,
+    rows.map((row) => header.map((key) => row[key] ?? '')),
+  );
+}

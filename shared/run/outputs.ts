@@ -3,6 +3,8 @@ import type { SimulationPlan } from '../engine/plan';
 import type { ObservedData } from '../data/observed';
 import type { FitResult } from '../fit/problem';
 import type { LossCause, ProbeEstimate, SimulationResult, StudyLevel, StudyResult } from '../engine/result';
+import { scenariosJson, type ScenariosJson, type ScenariosResult } from './scenarios-result';
+import { sweepJson, type SweepJson, type SweepResult } from './sweep-result';
 
 /**
  * What a run leaves on a cell: one type for every runner (browser, command line, tests). Charts
@@ -24,6 +26,8 @@ export type CellOutput =
   | { kind: 'study'; plan: SimulationPlan; result: StudyResult; finishedAt: Date; seconds: number }
   | { kind: 'data'; observed: ObservedData; finishedAt: Date }
   | { kind: 'fit'; result: FitResult; finishedAt: Date; seconds: number }
+  | { kind: 'sweep'; result: SweepResult; finishedAt: Date; seconds: number }
+  | { kind: 'scenarios'; result: ScenariosResult; finishedAt: Date; seconds: number }
   | { kind: 'error'; message: string; finishedAt: Date };
 
 export const QUANTILE_KEYS = ['5', '25', '50', '75', '95'] as const;
@@ -164,7 +168,8 @@ export interface FitJson {
   advice: string[];
 }
 
-export type CellOutputJson = SimulationJson | ProbeJson | StudyJson | DataJson | FitJson | FailedCellJson;
+export type CellOutputJson =
+  SimulationJson | ProbeJson | StudyJson | DataJson | FitJson | SweepJson | ScenariosJson | FailedCellJson;
 
 /** What the command-line runner prints for a sheet. */
 export interface SheetRunJson {
@@ -344,6 +349,10 @@ export function cellOutputJson(id: string, cellKind: string, output: CellOutput)
       return dataJson(id, output.observed);
     case 'fit':
       return fitJson(id, output.result);
+    case 'sweep':
+      return sweepJson(id, output.result);
+    case 'scenarios':
+      return scenariosJson(id, output.result);
     case 'error':
       return { id, kind: cellKind, error: output.message };
   }

@@ -1,19 +1,33 @@
 import type { SheetDocument } from '../sheet/document';
 import { kindOf } from '../cells/registry';
 import type { CellOutput } from './outputs';
-import { toCsv, withUnit } from './csv';
+import { recordsCsv, toCsv, withUnit } from './csv';
 import type { FitResult } from '../fit/problem';
+import { scenariosTable } from './scenarios-result';
+import { sweepTable } from './sweep-result';
 
 /**
  * A sheet's results as CSV files: per simulation its saved statistics (wide: one row per saved
  * time) and its sample paths (long: one row per path and time); all probes in one file, all
- * step-size studies in one file, all fits in one file (one row per estimated parameter). Columns
- * carry units in brackets. Cells without a current output are left out.
+ * step-size studies in one file, all fits in one file (one row per estimated parameter); per
+ * sweep and per scenarios cell its table. Columns carry units in brackets. Cells without a
+ * current output are left out.
  */
 
+/** A file of results; its text is built the first time `csv` is read. */
 export interface ResultFile {
-  fileName: string;
-  csv: string;
+  readonly fileName: string;
+  readonly csv: string;
+}
+
+function lazyFile(fileName: string, build: () => string): ResultFile {
+  let text: string | undefined;
+  return {
+    fileName,
+    get csv() {
+      return (text ??= build());
+    },
+  };
 }
 
 type Outputs = (cellId: string) => CellOutput | undefined;
@@ -26,23 +40,11 @@ function stateUnits(doc: SheetDocument, modelId: string): Map<string, string> {
 const squared = (unit: string) => (unit ? `(${unit})²` : '');
 
 /**
- * The names of the files `resultFiles` would write, without building them (a sheet page lists
- * them in a menu and builds one only when it is asked for).
+ * The names of the files `resultFiles` would write, without building their text (a sheet page
+ * lists them in a menu and builds one only when it is asked for).
  */
 export function resultFileNames(doc: SheetDocument, outputs: Outputs): string[] {
-  const names: string[] = [];
-  let probes = false;
-  let studies = false;
-  for (const cell of doc.cells) {
-    const output = outputs(cell.id);
-    if (cell.kind === 'simulation' && output?.kind === 'simulation')
-      names.push(`${cell.id}-statistics.csv`, `${cell.id}-sample-paths.csv`);
-    probes ||= cell.kind === 'probe' && output?.kind === 'probe';
-    studies ||= cell.kind === 'study' && output?.kind === 'study';
-  }
-  if (probes) names.push('probes.csv');
-  if (studies) names.push('studies.csv');
-  return names;
+  return resultFiles(doc, outputs).map((file) => file.fileName);
 }
 
 export function resultFiles(doc: SheetDocument, outputs: Outputs): ResultFile[] {
@@ -70,6 +72,10 @@ export function resultFiles(doc: SheetDocument, outputs: Outputs): ResultFile[] 
         (estimate.warnings ?? []).join(' '),
       ]);
     }
+    if (cell.kind === 'sweep' && output?.kind === 'sweep')
+      files.push(lazyFile(`sweep-${cell.id}.csv`, () => recordsCsv(sweepTable(output.result))));
+    if (cell.kind === 'scenarios' && output?.kind === 'scenarios')
+      files.push(lazyFile(`scenarios-${cell.id}.csv`, () => recordsCsv(scenariosTable(output.result))));
     if (cell.kind === 'study' && output?.kind === 'study') {
       const { result } = output;
       for (const level of result.levels)
@@ -173,6 +179,13 @@ function statisticsFile(
   output: Extract<CellOutput, { kind: 'simulation' }>,
   units: Map<string, string>,
 ): ResultFile {
+  return lazyFile(`${cellId}-statistics.csv`, () => statisticsCsv(output, units));
+}
+
+function statisticsCsv(
+  output: Extract<CellOutput, { kind: 'simulation' }>,
+  units: Map<string, string>,
+): string {
   const { result } = output;
   const header = ['t [time]'];
   for (const state of result.stateNames) {
@@ -199,7 +212,7 @@ function statisticsFile(
       );
     return row;
   });
-  return { fileName: `${cellId}-statistics.csv`, csv: toCsv(header, rows) };
+  return toCsv(header, rows);
 }
 
 function pathsFile(
@@ -207,6 +220,10 @@ function pathsFile(
   output: Extract<CellOutput, { kind: 'simulation' }>,
   units: Map<string, string>,
 ): ResultFile {
+  return lazyFile(`${cellId}-sample-paths.csv`, () => pathsCsv(output, units));
+}
+
+function pathsCsv(output: Extract<CellOutput, { kind: 'simulation' }>, units: Map<string, string>): string {
   const { result } = output;
   const rows: (number | string)[][] = [];
   result.stateNames.forEach((state, i) => {
@@ -215,10 +232,7 @@ function pathsFile(
       path.forEach((value, k) => rows.push([state, unit, p + 1, result.savedTimes[k]!, value]));
     });
   });
-  return {
-    fileName: `${cellId}-sample-paths.csv`,
-    csv: toCsv(['state', 'unit', 'path', 't [time]', 'value'], rows),
-  };
+  return toCsv(['state', 'unit', 'path', 't [time]', 'value'], rows);
 }
 
 function probeUnit(

@@ -8,7 +8,7 @@ import type { SheetDocument } from '../sheet/document';
 import { sheetFingerprints } from '../sheet/fingerprint';
 import { SheetIssuesError } from '../sheet/issues';
 import { issueInWords } from '../sheet/issue-words';
-import { buildSimulationPlan } from '../sheet/plan';
+import { buildSimulationPlan, varyingParameters } from '../sheet/plan';
 import { RunCancelledError } from './chunk-pool';
 import type { VersionMoments } from '../api/sheets';
 import { simulationRecord } from './compare';
@@ -97,6 +97,9 @@ export async function runSheet(doc: SheetDocument, options: RunSheetOptions): Pr
       }
       return plan;
     },
+    pointPlan: (simulationId, point) => buildSimulationPlan(doc, simulationId, point),
+    varyingParameters: (simulationId, points) => varyingParameters(doc, simulationId, points),
+    isCancelled: cancelled,
     currentOutput: (cellId) => outputs.get(cellId)?.output ?? keptCurrent(cellId)?.output,
     datasets: options.datasets,
     onProgress: (progress) => options.onProgress?.(step.cellId, progress),

@@ -8,12 +8,21 @@ import type { KeptOutput } from './run-sheet';
 import { FIT_METHODS, type FitResult } from '../fit/problem';
 import { MAX_QQ_POINTS } from '../fit/residual-check';
 import type { CellOutput } from './outputs';
+import {
+  restoredScenarios,
+  restoredSweep,
+  scenariosSummarySchema,
+  summariseScenarios,
+  summariseSweep,
+  sweepSummarySchema,
+} from './version-results-points';
 
 /**
  * The compact summary of a sheet's results saved with a version, so that an old version opens
  * with its numbers and charts ("as saved with version N") without running again: each
  * simulation's saved statistics on at most MAX_TIMES saved times, a few sample paths, its losses,
- * stability and digest; each probe's estimate; each study's orders; each fit's estimates. Tens of kilobytes (18 to 61
+ * stability and digest; each probe's estimate; each study's orders; each fit's estimates; each
+ * sweep's and scenarios cell's result (version-results-points.ts). Tens of kilobytes (18 to 61
  * KiB for the example sheets), not the per-path values: a chart that needs every path's values
  * (a histogram) asks for a run instead, and a restored output is never reused as the input of a
  * new run.
@@ -194,6 +203,8 @@ const cellSummarySchema = z.discriminatedUnion('kind', [
   probeSummarySchema,
   studySummarySchema,
   fitSummarySchema,
+  sweepSummarySchema,
+  scenariosSummarySchema,
 ]);
 
 export const versionResultsSchema = z
@@ -329,6 +340,9 @@ export function summariseResults(
         },
       };
     else if (output.kind === 'fit') results[cell.id] = summariseFit(output.result, output.seconds);
+    else if (output.kind === 'sweep') results[cell.id] = summariseSweep(output.result, output.seconds);
+    else if (output.kind === 'scenarios')
+      results[cell.id] = summariseScenarios(output.result, output.seconds, keptTimeIndices);
   }
   if (JSON.stringify(results).length > MAX_SUMMARY_CHARS)
     for (const summary of Object.values(results)) if (summary.kind === 'simulation') summary.samplePaths = [];
@@ -494,6 +508,20 @@ export function outputsFromResults(
       outputs.set(cell.id, {
         kind: 'fit',
         result: restoredFit(summary),
+        finishedAt: savedAt,
+        seconds: summary.seconds,
+      });
+    } else if (summary.kind === 'sweep') {
+      outputs.set(cell.id, {
+        kind: 'sweep',
+        result: restoredSweep(summary),
+        finishedAt: savedAt,
+        seconds: summary.seconds,
+      });
+    } else if (summary.kind === 'scenarios') {
+      outputs.set(cell.id, {
+        kind: 'scenarios',
+        result: restoredScenarios(summary),
         finishedAt: savedAt,
         seconds: summary.seconds,
       });

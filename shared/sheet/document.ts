@@ -40,6 +40,8 @@ export type ProbeCell = Extract<Cell, { kind: 'probe' }>;
 export type StudyCell = Extract<Cell, { kind: 'study' }>;
 export type DataCell = Extract<Cell, { kind: 'data' }>;
 export type FitCell = Extract<Cell, { kind: 'fit' }>;
+export type SweepCell = Extract<Cell, { kind: 'sweep' }>;
+export type ScenariosCell = Extract<Cell, { kind: 'scenarios' }>;
 
 export function emptySheetDocument(title: string): SheetDocument {
   return { schemaVersion: SHEET_SCHEMA_VERSION, title, cells: [] };

@@ -19,7 +19,11 @@ import { findModel, findSimulation, indexSheet, modelScopes } from './sheet-inde
  * probes reading this simulation need. Throws a SheetIssuesError listing the problems of the
  * cells involved (the simulation, its model, the params cells and its probes).
  */
-export function buildSimulationPlan(doc: SheetDocument, simulationCellId: string): SimulationPlan {
+export function buildSimulationPlan(
+  doc: SheetDocument,
+  simulationCellId: string,
+  point: PlanPoint = {},
+): SimulationPlan {
   const index = indexSheet(doc);
   const sim = findSimulation(index, simulationCellId);
   if (!sim) throw new Error(`there is no simulation cell '${simulationCellId}'`);
@@ -31,15 +35,15 @@ export function buildSimulationPlan(doc: SheetDocument, simulationCellId: string
   if (issues.length > 0) throw new SheetIssuesError(issues, `simulation '${sim.id}'`);
   if (!model) throw new Error(`simulation '${sim.id}' names no model cell`); // unreachable after checkSheet
 
-  const params = resolveCheckedParameters(index, sim.overrides, sim.id);
+  const params = resolveCheckedParameters(index, { ...sim.overrides, ...point.overrides }, sim.id);
   return {
-    model: buildModelSpec(model, params, modelScopes(index, model)),
+    model: buildModelSpec(model, params, modelScopes(index, model), point.inputNames ?? []),
     method: sim.method,
     t0: sim.t0,
     t1: sim.t1,
     steps: stepCount(sim),
-    paths: sim.paths,
-    seed: sim.seed,
+    paths: point.paths ?? sim.paths,
+    seed: point.seed ?? sim.seed,
     saveCount: sim.saveCount,
     samplePaths: sim.samplePaths,
     boundaries: model.states.map(
@@ -52,10 +56,23 @@ export function buildSimulationPlan(doc: SheetDocument, simulationCellId: string
   };
 }
 
+/**
+ * One point of a run of many (a sweep point, a scenario): parameter overrides on top of the
+ * simulation's own, and the parameters that vary between points, compiled as kernel inputs
+ * (ModelSpec.inputForm; none: the plain literal path). Paths and seed replace the simulation's.
+ */
+export interface PlanPoint {
+  overrides?: Readonly<Record<string, number>>;
+  inputNames?: readonly string[];
+  paths?: number;
+  seed?: number;
+}
+
 function buildModelSpec(
   model: ModelCell,
   params: Record<string, number>,
   scopes: ReturnType<typeof modelScopes>,
+  inputNames: readonly string[],
 ): ModelSpec {
   const parameterSources: Record<string, string> = {};
   for (const [name, value] of Object.entries(params)) {
@@ -76,6 +93,20 @@ function buildModelSpec(
     return checked.tree;
   };
 
+  const coefficients = (names: Readonly<Record<string, string>>) => ({
+    drift: model.states.map((s) => generateSource(compile(s.drift, scopes.coefficient), names)),
+    diffusion: model.states.map((s) =>
+      model.noises.map((n) => {
+        const text = Object.hasOwn(s.diffusion, n.name) ? s.diffusion[n.name] : undefined;
+        return text === undefined ? '0' : generateSource(compile(text, scopes.coefficient), names);
+      }),
+    ),
+  });
+  const plain = coefficients(coefficientNames);
+  const inputs = inputNames.filter((name) => Object.hasOwn(params, name));
+  const inputSources: Record<string, string> = {};
+  inputs.forEach((name, k) => (inputSources[name] = `pv${k}`));
+
   return {
     stateNames: model.states.map((s) => s.name),
     noiseNames: model.noises.map((n) => n.name),
@@ -83,13 +114,8 @@ function buildModelSpec(
     initial: model.states.map((s) => evaluate(compile(s.initial, scopes.initial), params)),
     params: { ...params },
     calculus: model.calculus,
-    drift: model.states.map((s) => generateSource(compile(s.drift, scopes.coefficient), coefficientNames)),
-    diffusion: model.states.map((s) =>
-      model.noises.map((n) => {
-        const text = Object.hasOwn(s.diffusion, n.name) ? s.diffusion[n.name] : undefined;
-        return text === undefined ? '0' : generateSource(compile(text, scopes.coefficient), coefficientNames);
-      }),
-    ),
+    drift: plain.drift,
+    diffusion: plain.diffusion,
     correlation:
       model.correlation !== undefined && model.noises.length > 1 && !isIdentity(model.correlation)
         ? model.correlation.map((row) => [...row])
@@ -99,6 +125,9 @@ function buildModelSpec(
         ? null
         : generateSource(compile(s.exact, scopes.exact), exactNames),
     ),
+    ...(inputs.length === 0
+      ? {}
+      : { inputForm: { names: inputs, ...coefficients({ ...coefficientNames, ...inputSources }) } }),
   };
 }
 
@@ -121,4 +150,26 @@ function simulationRequests(doc: SheetDocument, sim: SimulationCell, model: Mode
   }
   times.delete(sim.t1);
   return { askingCellIds, times: [...times].sort((a, b) => a - b), watches: [...watches.values()] };
+}
+
+/**
+ * The parameters whose resolved values differ between the points of a run of many (each point's
+ * overrides on top of the simulation's own): the ones to compile as kernel inputs. A parameter
+ * defined from a swept one varies with it and is listed too.
+ */
+export function varyingParameters(
+  doc: SheetDocument,
+  simulationCellId: string,
+  points: readonly Readonly<Record<string, number>>[],
+): string[] {
+  const index = indexSheet(doc);
+  const sim = findSimulation(index, simulationCellId);
+  if (!sim) throw new Error(`there is no simulation cell '${simulationCellId}'`);
+  const resolved = points.map((overrides) =>
+    resolveCheckedParameters(index, { ...sim.overrides, ...overrides }, sim.id),
+  );
+  const first = resolved[0] ?? {};
+  return Object.keys(first).filter((name) =>
+    resolved.some((values) => !Object.is(values[name], first[name])),
+  );
 }

@@ -69,7 +69,36 @@ describe('accessibility of every page', () => {
         password: 'meander-e2e-password',
       });
       await page.waitForURL(/\/sheets/);
-      const doc = scaleSheetPaths(findExampleSheet('soil-moisture-anomaly')!.document, 0.1);
+      const soil = scaleSheetPaths(findExampleSheet('soil-moisture-anomaly')!.document, 0.1);
+      // The sweep and scenarios kinds too, small (their cards show tables and charts once run).
+      const doc = {
+        ...soil,
+        cells: [
+          ...soil.cells,
+          {
+            id: 'tau-sweep',
+            kind: 'sweep' as const,
+            probe: 'drought-odds',
+            axes: [{ parameter: 'tau', spacing: 'linear' as const, from: 12, to: 36, count: 3, values: [] }],
+            independent: false,
+            paths: 500,
+            target: { value: 0.1, refineRuns: 1 },
+          },
+          {
+            id: 'season-plans',
+            kind: 'scenarios' as const,
+            simulation: 'season-run',
+            probes: ['drought-odds'],
+            scenarios: [
+              { name: 'usual', overrides: {} },
+              { name: 'noisier', overrides: { s: 12 } },
+            ],
+            baseline: 'usual',
+            independent: false,
+            paths: 500,
+          },
+        ],
+      };
       const response = await page.request.post(appUrl('/api/sheets'), {
         headers: { Origin: new URL(appUrl()).origin },
         data: { title: doc.title, document: doc },
@@ -103,7 +132,17 @@ describe('accessibility of every page', () => {
         .locator('xpath=ancestor::article[1]')
         .screenshot({ path: '/tmp/meander-e2e-chart-toolbar.png' });
 
-      for (const kind of ['note', 'parameters', 'model', 'simulation', 'chart', 'probe', 'step-size study'])
+      for (const kind of [
+        'note',
+        'parameters',
+        'model',
+        'simulation',
+        'chart',
+        'probe',
+        'step-size study',
+        'scenarios',
+        'sweep',
+      ])
         await page
           .getByRole('button', { name: `Edit ${kind} cell`, exact: true })
           .first()

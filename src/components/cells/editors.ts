@@ -17,6 +17,8 @@ const loaders: Record<CellKind, () => Promise<Component>> = {
   study: () => import('./StudyCell.vue'),
   data: () => import('./DataCell.vue'),
   fit: () => import('./FitCell.vue'),
+  scenarios: () => import('./ScenariosCell.vue'),
+  sweep: () => import('./SweepCell.vue'),
 };
 
 /**
@@ -33,6 +35,8 @@ const readingLoaders: Record<CellKind, () => Promise<Component>> = {
   study: () => import('./StudyReading.vue'),
   data: () => import('./DataReading.vue'),
   fit: () => import('./FitReading.vue'),
+  scenarios: () => import('./ScenariosReading.vue'),
+  sweep: () => import('./SweepReading.vue'),
 };
 
 export type CellEditorMap = Partial<Record<CellKind, Component>>;

@@ -3,6 +3,8 @@ import { estimateWork } from '@shared/engine/work';
 import { issueInWords } from '@shared/sheet/issue-words';
 import { stepCount } from '@shared/sheet/step-count';
 import { kindOf } from '@shared/cells/registry';
+import { manyPointWork } from '@shared/cells/many-points';
+import { planRunSteps } from '@shared/run/steps';
 import type { SheetDocumentState } from './document';
 import type { SheetRunsState } from './runs';
 import { simulationsToCompute } from './step-check';
@@ -53,6 +55,27 @@ export function useRunGuard(state: SheetDocumentState, runs: SheetRunsState) {
           message: work.message,
         });
       }
+    }
+    // Sweeps and scenarios run their simulation once per point.
+    for (const step of planRunSteps(doc, targetId, state.dependencies.value)) {
+      const cell = doc.cells.find((c) => c.id === step.cellId);
+      if ((cell?.kind !== 'sweep' && cell?.kind !== 'scenarios') || (runs.isCurrent(cell.id) && !step.force))
+        continue;
+      const total = manyPointWork(doc, cell);
+      if (!total) continue;
+      const model = doc.cells.find((c) => c.id === total.simulation.model);
+      const stateNames = model?.kind === 'model' ? model.states.map((s) => s.name) : [];
+      const work = estimateWork({
+        paths: total.paths,
+        steps: stepCount(total.simulation),
+        model: { stateNames },
+      });
+      if (work.beyondMinutes && work.message)
+        estimates.push({
+          cellId: cell.id,
+          title: `${kindOf(cell).label} '${kindOf(cell).title(cell)}'`,
+          message: `every point together: ${work.message}`,
+        });
     }
     return estimates;
   }

@@ -107,7 +107,16 @@ describe('adding cells from the "Add cell" menu', () => {
     const disabled = [...document.querySelectorAll<HTMLButtonElement>('[role="menuitem"]')]
       .filter((b) => b.disabled)
       .map((b) => b.textContent?.trim());
-    expect(disabled).toEqual(['Simulation', 'Chart', 'Probe', 'Step-size study', 'Data', 'Fit']);
+    expect(disabled).toEqual([
+      'Simulation',
+      'Chart',
+      'Probe',
+      'Step-size study',
+      'Data',
+      'Fit',
+      'Scenarios',
+      'Sweep',
+    ]);
   });
 
   it('inserts at the place of the "Add cell" button that was used', async () => {

@@ -108,6 +108,8 @@ function stubViews(role: 'editor' | 'reading'): CellEditorMap {
     study: stub('study'),
     data: stub('data'),
     fit: stub('fit'),
+    scenarios: stub('scenarios'),
+    sweep: stub('sweep'),
   };
 }
 

@@ -159,6 +159,30 @@ describe('a run far beyond minutes asks first', () => {
     expect(pool.simulate).toHaveBeenCalledTimes(1);
   });
 
+  it('counts every point of a sweep: a simulation of minutes swept over 200 values asks first', async () => {
+    serve(
+      sheetWith((cells) => {
+        const simulation = cells[3] as SimulationCell;
+        simulation.paths = 100_000;
+        simulation.steps = 10_000;
+        cells.push({
+          id: 'sweep-growth',
+          kind: 'sweep',
+          probe: 'probe-bloom',
+          axes: [{ parameter: 'growth', spacing: 'linear', from: 0.1, to: 1, count: 200, values: [] }],
+          independent: false,
+        });
+      }),
+    );
+    ({ wrapper } = await mountSheet());
+    await click(buttonNamed('Run sweep cell'));
+    expect(pool.simulate).not.toHaveBeenCalled();
+    expect(document.body.textContent).toMatch(
+      /Sweep '.*': every point together: this run is 2\.00e\+11 path-steps/,
+    );
+    await click(buttonNamed('Do not run'));
+  });
+
   it('does not run when the person declines', async () => {
     serve(
       sheetWith((cells) => {

@@ -6,10 +6,13 @@ import { checkSheet, emptySheetDocument, type SheetDocument } from '@shared/shee
 import { cannotAddReason, defaultCell, insertCell } from '@shared/sheet/cell-ops';
 import { sheetCellDependencies } from '@shared/sheet/dependencies';
 
-/** A sheet to which every kind can be added: a model, a simulation and a data cell of it, made by their own defaults. */
+/**
+ * A sheet to which every kind can be added: a model, a simulation of it, a probe of that (a sweep
+ * reads a probe) and a data cell (a fit reads one), made by their own defaults.
+ */
 function sheetWithModelAndSimulation(): SheetDocument {
   let doc = emptySheetDocument('Every kind');
-  for (const kind of ['params', 'model', 'simulation', 'data'] as const) {
+  for (const kind of ['params', 'model', 'simulation', 'probe', 'data'] as const) {
     doc = insertCell(doc, doc.cells.length, defaultCell(kind, doc, doc.cells.length));
   }
   return doc;

@@ -18,6 +18,9 @@ describe('Wilson interval (Wilson 1927, JASA 22)', () => {
     expect(lo).toBe(0);
     // Upper end at p̂ = 0: z²/n / (1 + z²/n) = 3.8415/53.8415 = 0.07135 (same formula).
     expect(hi).toBeCloseTo(0.07135, 4);
+    // Exactly 0 and 1 at the ends, not a rounding residue (centre − half-width is 4e-19 at 0 of 800).
+    expect(wilsonInterval(0, 800)[0]).toBe(0);
+    expect(wilsonInterval(800, 800)[1]).toBe(1);
   });
 });
 

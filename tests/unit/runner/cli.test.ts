@@ -105,7 +105,11 @@ const probeOutput = z
   })
   .strict();
 const failedOutput = z
-  .object({ id: z.string(), kind: z.enum(['simulation', 'probe', 'study']), error: z.string() })
+  .object({
+    id: z.string(),
+    kind: z.enum(['simulation', 'probe', 'study', 'sweep', 'scenarios']),
+    error: z.string(),
+  })
   .strict();
 const studyLevel = z
   .object({
@@ -132,11 +136,44 @@ const studyOutput = z
     note: z.string().optional(),
   })
   .strict();
+const tableRow = z.record(z.string(), z.union([z.number(), z.string(), z.null()]));
+const sweepOutput = z
+  .object({
+    id: z.string(),
+    kind: z.literal('sweep'),
+    probe: z.string(),
+    parameters: z.array(z.string()).min(1).max(2),
+    commonRandomNumbers: z.boolean(),
+    pathsPerPoint: z.number().int().min(1),
+    table: z.array(tableRow).min(1),
+    target: z
+      .object({
+        value: z.number(),
+        bracketed: z.boolean(),
+        root: nullableNumber,
+        interval: z.tuple([z.number(), z.number()]).nullable(),
+        message: z.string(),
+      })
+      .strict()
+      .nullable(),
+  })
+  .strict();
+const scenariosOutput = z
+  .object({
+    id: z.string(),
+    kind: z.literal('scenarios'),
+    baseline: z.string(),
+    commonRandomNumbers: z.boolean(),
+    table: z.array(tableRow),
+  })
+  .strict();
 const runOutput = z
   .object({
     title: z.string(),
     engineVersion: z.number().int().min(1),
-    cells: z.array(z.union([simulationOutput, probeOutput, studyOutput, failedOutput])),
+    cells: z.array(
+      z.union([simulationOutput, probeOutput, studyOutput, sweepOutput, scenariosOutput, failedOutput]),
+    ),
   })
   .strict();
 
@@ -168,7 +205,12 @@ describe('sheet run (command line)', () => {
       expect(output.title).toBe(example.document.title);
       // One output per numerical cell, in document order.
       const numerical = example.document.cells.filter(
-        (c) => c.kind === 'simulation' || c.kind === 'probe' || c.kind === 'study',
+        (c) =>
+          c.kind === 'simulation' ||
+          c.kind === 'probe' ||
+          c.kind === 'study' ||
+          c.kind === 'sweep' ||
+          c.kind === 'scenarios',
       );
       expect(output.cells.map((c) => [c.id, c.kind])).toEqual(numerical.map((c) => [c.id, c.kind]));
       for (const cell of output.cells) {
