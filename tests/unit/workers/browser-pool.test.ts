@@ -4,6 +4,7 @@ import { SimulationPool } from '@/workers/pool';
 import { simulate } from '@shared/engine/simulate';
 import { runStudy } from '@shared/engine/study';
 import { RunCancelledError, type RunProgress } from '@shared/run/chunk-pool';
+import { splitPaths } from '@shared/run/chunks';
 import { buildSimulationPlan, sheetDocumentSchema } from '@shared/sheet/index';
 import { ShimWorker } from './web-worker-shim';
 import { fitModel } from '@shared/fit/fit-model';
@@ -64,7 +65,13 @@ describe('SimulationPool (browser pool over comlink)', () => {
       ShimWorker.prototype.postMessage = post;
     }
     expect(calls.filter((name) => name === 'simulateChunk')).toEqual([]);
-    expect(calls.filter((name) => name === 'simulateClaimed')).toHaveLength(2);
+    // At most one message per worker (two), although the run has more chunks than that. A busy
+    // machine may let the first worker claim every chunk before the second is asked, so one
+    // message is also right.
+    expect(splitPaths(20_000, plan.steps).length).toBeGreaterThan(2);
+    const claimed = calls.filter((name) => name === 'simulateClaimed').length;
+    expect(claimed).toBeGreaterThanOrEqual(1);
+    expect(claimed).toBeLessThanOrEqual(2);
   });
 
   it('without shared memory, cancels by replacing the busy workers', async () => {
