@@ -31,6 +31,8 @@ describe('cross-origin isolation', () => {
         name: 'Ona Reyes',
         password: 'meander-e2e-password',
       });
+      // Let the sheet list finish loading, so that leaving it aborts no request of its own.
+      await page.waitForLoadState('networkidle');
       const created = await page.request.post(appUrl('/api/sheets'), {
         headers: { Origin: new URL(appUrl()).origin },
         data: {

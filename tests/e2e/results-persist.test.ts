@@ -140,9 +140,10 @@ describe('results survive a reload and stay with the version they were saved wit
       // The newest version has no saved results and its inputs changed: nothing to show yet.
       await page.goto(appUrl(`/sheets/${sheetId}`));
       await page.getByLabel('Version 3').waitFor();
-      expect(await page.locator('article[data-cell-id="simulation-lake"]').textContent()).toContain(
-        'not run yet',
-      );
+      const card = page.locator('article[data-cell-id="simulation-lake"]');
+      // The card's reading comes after the header; wait for it rather than read too early.
+      await card.getByText('not run yet').first().waitFor({ timeout: 20_000 });
+      expect(await card.textContent()).toContain('not run yet');
     });
   });
 });
