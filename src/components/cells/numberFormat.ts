@@ -31,8 +31,10 @@ export function formatEstimate(
     return {
       estimate: formatSignificant(estimate, 6),
       standardError: Number.isFinite(standardError) ? formatSignificant(standardError, 2) : '—',
-      low: formatSignificant(ci[0], 6),
-      high: formatSignificant(ci[1], 6),
+      // With no spread among the paths (all 0 or all 1, say) the interval is the score
+      // interval's; three digits are all it can claim.
+      low: formatSignificant(ci[0], 3),
+      high: formatSignificant(ci[1], 3),
     };
   }
   const errorExponent = Math.floor(Math.log10(standardError));

@@ -19,6 +19,16 @@ describe('number formatting', () => {
     });
   });
 
+  it('gives an interval three digits when the paths show no spread', () => {
+    // A probability seen on no path: the estimate is exactly 0, the interval is not.
+    expect(formatEstimate(0, 0, [0, 0.00477888])).toEqual({
+      estimate: '0',
+      standardError: '0',
+      low: '0',
+      high: '0.00478',
+    });
+  });
+
   it('writes negative numbers with a minus sign and never "−0"', () => {
     expect(formatEstimate(-0.00001, 0.01, [-0.02, 0.02]).estimate).toBe('0.000');
     expect(formatSignificant(-2.5)).toBe('−2.5');
