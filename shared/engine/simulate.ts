@@ -3,6 +3,9 @@ import type { ChunkResult, SimulationHooks, SimulationResult } from './result';
 import { planLayout, type PlanLayout } from './layout';
 import { compileKernel, KERNEL_TABLE, normalSlowPath, streamSeed, type KernelContext } from './kernel';
 import { mergeChunks } from './merge';
+import { kernelChoice, unknownPlanFields, wasmSimdAvailable } from './wasm/kernel-choice';
+import { compileWasmKernel, simulateChunkWasm } from './wasm/simulate-wasm';
+import { Unsupported } from './wasm/source-tree';
 
 /** Aim for batches of about this much wall time between hook checks (cancel lands within 200 ms). */
 const BATCH_TARGET_MS = 15;
@@ -53,7 +56,25 @@ export function allocateChunk(
     absorptionTime: new Float64Array(d * pathCount),
     blowupTime: new Float64Array(pathCount),
     lossCause: new Uint8Array(pathCount),
+    kernel: 'js',
   };
+}
+
+/**
+ * Why this plan cannot run on the wasm kernel here, or null when it can (kernel-choice.ts).
+ * Anything the wasm kernel does not support runs on the JavaScript kernel instead.
+ */
+export function wasmFallbackReason(plan: SimulationPlan, layout: PlanLayout): string | null {
+  if (!wasmSimdAvailable()) return 'this browser has no WebAssembly SIMD';
+  const fields = unknownPlanFields(plan);
+  if (fields.length > 0) return `the wasm kernel does not know ${fields.join(', ')}`;
+  try {
+    compileWasmKernel(plan, layout);
+    return null;
+  } catch (error) {
+    if (error instanceof Unsupported) return `the wasm kernel does not support this model: ${error.message}`;
+    throw error;
+  }
 }
 
 /**
@@ -73,8 +94,17 @@ export function simulateChunk(
   if (!Number.isInteger(pathCount) || pathCount < 0)
     throw new RangeError(`pathCount must be a non-negative integer, got ${pathCount}`);
   const layout = planLayout(plan);
-  const kernel = compileKernel(plan, layout);
   const chunk = allocateChunk(plan, layout, firstPath, pathCount);
+  if (kernelChoice() !== 'js') {
+    const reason = wasmFallbackReason(plan, layout);
+    if (reason === null) {
+      simulateChunkWasm(plan, layout, chunk, hooks);
+      chunk.kernel = 'wasm';
+      return chunk;
+    }
+    chunk.kernelNote = `ran on the JavaScript kernel: ${reason}`;
+  }
+  const kernel = compileKernel(plan, layout);
   const probeStepsSorted = new Int32Array(layout.probeOrder.length);
   layout.probeOrder.forEach((j, q) => (probeStepsSorted[q] = j < 0 ? -1 : layout.probeSteps[j]!));
   const ctx: KernelContext = {

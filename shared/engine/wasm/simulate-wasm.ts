@@ -1,0 +1,183 @@
+import type { SimulationPlan } from '../plan';
+import type { PlanLayout } from '../layout';
+import type { ChunkResult, SimulationHooks } from '../result';
+import { streamSeed } from '../random/stream-seed';
+import { ZIGGURAT_FAST_TABLE, ZIGGURAT_TABLES } from '../random/ziggurat';
+import { PORTABLE_MATH } from '../../expr/portable-math';
+import { buildWasmKernel, type WasmKernelModule } from './kernel-module';
+import {
+  MASK_OFFSET,
+  FN_OFFSET,
+  HEADER_FIELDS,
+  HEADER_OFFSET,
+  memoryLayout,
+  POOL_OFFSET,
+  TABLE_OFFSET,
+} from './memory-layout';
+
+/**
+ * Runs a chunk on the wasm kernel (kernel-module.ts): writes the tables, step lists and per-path
+ * seeds into a fresh memory, calls `run` on batches of groups (hooks between batches, as
+ * simulateChunk does), then copies the outputs into the chunk's own arrays.
+ */
+
+interface Compiled {
+  module: WebAssembly.Module;
+  callOuts: WasmKernelModule['callOuts'];
+  constants: number[];
+}
+
+const cache = new Map<string, Compiled>();
+const CACHE_SIZE = 8;
+
+/** The bytes as a string key (modules are a few kilobytes). */
+function keyOf(bytes: Uint8Array): string {
+  let key = '';
+  for (let i = 0; i < bytes.length; i += 4096)
+    key += String.fromCharCode(...bytes.subarray(i, Math.min(bytes.length, i + 4096)));
+  return key;
+}
+
+/**
+ * Builds and compiles the wasm kernel of a plan (cached by its bytes). Synchronous
+ * `new WebAssembly.Module` is allowed in workers and Node, the only places the engine runs.
+ */
+export function compileWasmKernel(plan: SimulationPlan, layout: PlanLayout): Compiled {
+  const built = buildWasmKernel(plan, layout);
+  const key = keyOf(built.bytes);
+  const hit = cache.get(key);
+  if (hit !== undefined) {
+    cache.delete(key);
+    cache.set(key, hit);
+    return hit;
+  }
+  const compiled = {
+    module: new WebAssembly.Module(built.bytes),
+    callOuts: built.callOuts,
+    constants: built.constants,
+  };
+  cache.set(key, compiled);
+  if (cache.size > CACHE_SIZE) cache.delete(cache.keys().next().value!);
+  return compiled;
+}
+
+const BATCH_TARGET_MS = 15;
+const FIRST_BATCH_PATH_STEPS = 100_000;
+
+function now(): number {
+  return typeof performance !== 'undefined' ? performance.now() : Date.now();
+}
+
+export function simulateChunkWasm(
+  plan: SimulationPlan,
+  layout: PlanLayout,
+  chunk: ChunkResult,
+  hooks?: SimulationHooks,
+): void {
+  const compiled = compileWasmKernel(plan, layout);
+  const d = layout.stateCount;
+  const pathCount = chunk.pathCount;
+  const groups = Math.ceil(pathCount / 4);
+  const padded = groups * 4;
+  const probeCount = layout.probeSteps.length;
+  const mem = memoryLayout({
+    paddedPaths: padded,
+    stateCount: d,
+    saveCount: plan.saveCount,
+    probeCount,
+    watchCount: plan.watches.length,
+  });
+  const memory = new WebAssembly.Memory({ initial: Math.max(1, Math.ceil(mem.bytes / 65536)) });
+  const buffer = memory.buffer;
+  // The fast table as pairs (wn[i], kn²[i]), one 16-byte load per lane.
+  const table = new Float64Array(buffer, TABLE_OFFSET, 256);
+  for (let i = 0; i < 128; i++) {
+    table[2 * i] = ZIGGURAT_FAST_TABLE[i]!;
+    table[2 * i + 1] = ZIGGURAT_FAST_TABLE[128 + i]!;
+  }
+  new Float64Array(buffer, FN_OFFSET, 128).set(ZIGGURAT_TABLES.fn);
+  const pool = new Float64Array(buffer, POOL_OFFSET, 2 * compiled.constants.length);
+  compiled.constants.forEach((value, i) => pool.fill(value, 2 * i, 2 * i + 2));
+  // The ziggurat's layer mask 127 in every i32 lane, after the alive mask.
+  new Int32Array(buffer, MASK_OFFSET, 4).fill(127);
+  const header = new Int32Array(buffer, HEADER_OFFSET, HEADER_FIELDS.length);
+  HEADER_FIELDS.forEach((field, w) => (header[w] = mem.offsets[field]));
+  new Int32Array(buffer, mem.offsets.saveSteps, plan.saveCount + 1).set(layout.saveSteps);
+  const probeSteps = new Int32Array(buffer, mem.offsets.probeSteps, probeCount + 1);
+  layout.probeOrder.forEach((j, q) => (probeSteps[q] = j < 0 ? -1 : layout.probeSteps[j]!));
+  new Int32Array(buffer, mem.offsets.probeOrder, probeCount + 1).set(layout.probeOrder);
+  // Seeds transposed per group: word w of lane l at group·16 + w·4 + l (one i32x4 per word).
+  const seeds = new Uint32Array(buffer, mem.offsets.seeds, 4 * padded);
+  const one = new Uint32Array(4);
+  for (let p = 0; p < padded; p++) {
+    streamSeed(plan.seed, chunk.firstPath + p, one, 0);
+    const group = p >> 2;
+    const lane = p & 3;
+    for (let w = 0; w < 4; w++) seeds[group * 16 + w * 4 + lane] = one[w]!;
+  }
+
+  const lib: Record<string, (...args: number[]) => number> = {};
+  for (const { fn, arity } of compiled.callOuts) {
+    lib[`${fn}/${arity}`] = PORTABLE_MATH[fn as keyof typeof PORTABLE_MATH] as (...args: number[]) => number;
+  }
+  const stop = hooks?.shouldStop;
+  const instance = new WebAssembly.Instance(compiled.module, {
+    env: { memory },
+    engine: {
+      shouldStop: () => (stop !== undefined && stop() === true ? 1 : 0),
+    },
+    lib,
+  });
+  const run = instance.exports.run as (g0: number, g1: number) => number;
+
+  const checksHooks = hooks?.shouldStop !== undefined || hooks?.onProgress !== undefined;
+  let batch = checksHooks ? Math.max(1, Math.floor(FIRST_BATCH_PATH_STEPS / plan.steps / 4)) : groups;
+  let done = 0;
+  while (done < groups) {
+    if (hooks?.shouldStop?.() === true) {
+      chunk.cancelled = true;
+      break;
+    }
+    const target = Math.min(groups, done + batch);
+    const started = now();
+    const reached = run(done, target);
+    const elapsed = now() - started;
+    const from = done;
+    done = reached;
+    chunk.pathsDone = Math.min(pathCount, done * 4);
+    if (reached < target) {
+      chunk.cancelled = true;
+      break;
+    }
+    hooks?.onProgress?.(chunk.pathsDone);
+    if (checksHooks) {
+      const perGroup = Math.max(elapsed, 0.01) / (target - from);
+      batch = Math.max(1, Math.min(batch * 4, Math.floor(BATCH_TARGET_MS / perGroup)));
+    }
+  }
+  copyOut(buffer, mem.offsets, padded, chunk);
+}
+
+function copyOut(
+  buffer: ArrayBuffer,
+  offsets: ReturnType<typeof memoryLayout>['offsets'],
+  padded: number,
+  chunk: ChunkResult,
+): void {
+  const n = chunk.pathCount;
+  const rows = (target: Float64Array, offset: number): void => {
+    const count = target.length / Math.max(n, 1);
+    const source = new Float64Array(buffer, offset, count * padded);
+    for (let row = 0; row < count; row++)
+      target.set(source.subarray(row * padded, row * padded + n), row * n);
+  };
+  if (n === 0) return;
+  rows(chunk.saved, offsets.saved);
+  rows(chunk.probeValues, offsets.probeValues);
+  rows(chunk.runningMax, offsets.runningMax);
+  rows(chunk.runningMin, offsets.runningMin);
+  rows(chunk.firstPassage, offsets.firstPassage);
+  rows(chunk.absorptionTime, offsets.absorptionTime);
+  rows(chunk.blowupTime, offsets.lossTime);
+  chunk.lossCause.set(new Uint8Array(buffer, offsets.lossCause, n));
+}
