@@ -345,6 +345,13 @@ export class FunctionBody {
     this.code.byte(OP.br).u32(this.depth(label));
     return this;
   }
+  /** `br_table`: to labels[i] for i on the stack, else to `otherwise`. */
+  brTable(labels: string[], otherwise: string): this {
+    this.code.byte(0x0e).u32(labels.length);
+    for (const label of labels) this.code.u32(this.depth(label));
+    this.code.u32(this.depth(otherwise));
+    return this;
+  }
   brIf(label: string): this {
     this.code.byte(OP.brIf).u32(this.depth(label));
     return this;

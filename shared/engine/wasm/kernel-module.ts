@@ -364,22 +364,17 @@ export function buildWasmKernel(plan: SimulationPlan, layout: PlanLayout): WasmK
   };
   /** Lanes whose fast test failed (bits of `slow`) finish their draw in wasm, one by one. */
   const coldDraw = (j: number): void => {
-    ['x0', 'x1', 'x2', 'x3', 'r'].forEach((x, w) =>
-      f
-        .i32(0)
-        .get(x)
-        .v128Store(COLD_OFFSET + 16 * w),
-    );
-    f.i32(0)
-      .get(`z${j}#0`)
-      .v128Store(COLD_OFFSET + 80);
-    f.i32(0)
-      .get(`z${j}#1`)
-      .v128Store(COLD_OFFSET + 96);
     f.loop('lanes', () => {
       // The lowest failing lane; clear its bit.
       f.get('slow').op(OP.i32Ctz).set('a');
       f.get('slow').get('slow').i32(1).op(OP.i32Sub).op(OP.i32And).set('slow');
+      // Out of the lane through memory (a narrow load of a wide store forwards well).
+      ['x0', 'x1', 'x2', 'x3', 'r'].forEach((x, w) =>
+        f
+          .i32(0)
+          .get(x)
+          .v128Store(COLD_OFFSET + 16 * w),
+      );
       f.get('a').i32(4).op(OP.i32Mul).set('j');
       f.get('j')
         .load(OP.i32Load, 2, COLD_OFFSET + 64)
@@ -390,29 +385,37 @@ export function buildWasmKernel(plan: SimulationPlan, layout: PlanLayout): WasmK
           .load(OP.i32Load, 2, COLD_OFFSET + 16 * w)
           .set(`zg${w}`);
       emitSlowNormal(f);
-      for (let w = 0; w < 4; w++)
-        f.get('j')
-          .get(`zg${w}`)
-          .store(OP.i32Store, 2, COLD_OFFSET + 16 * w);
-      f.get('a')
-        .i32(8)
-        .op(OP.i32Mul)
-        .get('zout')
-        .store(OP.f64Store, 3, COLD_OFFSET + 80);
+      // Back into the lane with constant lane indices (br_table): a wide reload of narrow stores
+      // would stall store forwarding.
+      const insert = (lane: number): void => {
+        for (let w = 0; w < 4; w++)
+          f.get(`x${w}`).get(`zg${w}`).lane(SIMD.i32x4ReplaceLane, lane).set(`x${w}`);
+        const z = `z${j}#${lane >> 1}`;
+        f.get(z)
+          .get('zout')
+          .lane(SIMD.f64x2ReplaceLane, lane & 1)
+          .set(z);
+      };
+      f.block('inserted', () => {
+        f.block('lane3', () => {
+          f.block('lane2', () => {
+            f.block('lane1', () => {
+              f.block('lane0', () => {
+                f.get('a').brTable(['lane0', 'lane1', 'lane2', 'lane3'], 'lane3');
+              });
+              insert(0);
+              f.br('inserted');
+            });
+            insert(1);
+            f.br('inserted');
+          });
+          insert(2);
+          f.br('inserted');
+        });
+        insert(3);
+      });
       f.get('slow').brIf('lanes');
     });
-    ['x0', 'x1', 'x2', 'x3'].forEach((x, w) =>
-      f
-        .i32(0)
-        .v128Load(COLD_OFFSET + 16 * w)
-        .set(x),
-    );
-    f.i32(0)
-      .v128Load(COLD_OFFSET + 80)
-      .set(`z${j}#0`);
-    f.i32(0)
-      .v128Load(COLD_OFFSET + 96)
-      .set(`z${j}#1`);
   };
 
   // --- the step after its draws (codegen.ts stepTail) ---
@@ -485,44 +488,54 @@ export function buildWasmKernel(plan: SimulationPlan, layout: PlanLayout): WasmK
       f.store(OP.f64Store, 3);
     }
   };
+  /** Records the lanes in blown#… as lost at this step. */
+  const lost = (allLost: () => void): void => {
+    endTime();
+    for (let lane = 0; lane < 4; lane++) {
+      f.get(`blown#${lane >> 1}`)
+        .lane(SIMD.i64x2ExtractLane, lane & 1)
+        .op(OP.i32WrapI64);
+      f.if(() => recordLoss(lane));
+    }
+    for (const half of HALVES) {
+      f.i32(0);
+      alive(half);
+      f.get(`blown#${half}`)
+        .simd(SIMD.v128AndNot)
+        .v128Store(ALIVE_OFFSET + 16 * half);
+      // A lost lane goes on with a finite state, masked out, so it does not keep the cold path busy.
+      for (let i = 0; i < d; i++) {
+        f.get(`mn${i}#${half}`).get(`s${i}#${half}`).get(`blown#${half}`).simd(SIMD.v128Bitselect);
+        f.set(`s${i}#${half}`);
+      }
+    }
+    alive(0);
+    alive(1);
+    f.simd(SIMD.v128Or).simd(SIMD.v128AnyTrue).op(OP.i32Eqz);
+    f.if(allLost);
+  };
   const lossChecks = (allLost: () => void): void => {
-    // blown = alive & !(every state within the bound), per half.
+    // out = some state not within the bound (not a number, infinite: s − s is not 0), per half;
+    // blown = alive & out, looked at only when some lane is out.
     for (const half of HALVES) {
       range(d).forEach((i, at) => {
-        f.get(`s${i}#${half}`).simd(SIMD.f64x2Abs);
-        if (bound === null) f.f64x2(Infinity).simd(SIMD.f64x2Lt);
-        else f.f64x2(bound).simd(SIMD.f64x2Le);
-        if (at > 0) f.simd(SIMD.v128And);
+        if (bound === null) {
+          f.get(`s${i}#${half}`).get(`s${i}#${half}`).simd(SIMD.f64x2Sub).f64x2(0).simd(SIMD.f64x2Ne);
+        } else {
+          f.get(`s${i}#${half}`).simd(SIMD.f64x2Abs).f64x2(bound).simd(SIMD.f64x2Le).simd(SIMD.v128Not);
+        }
+        if (at > 0) f.simd(SIMD.v128Or);
       });
-      f.set('blownAny');
-      alive(half);
-      f.get('blownAny').simd(SIMD.v128AndNot).set(`blown#${half}`);
+      f.set(`blown#${half}`);
     }
     f.get('blown#0').get('blown#1').simd(SIMD.v128Or).simd(SIMD.v128AnyTrue);
     f.if(() => {
-      endTime();
-      for (let lane = 0; lane < 4; lane++) {
-        f.get(`blown#${lane >> 1}`)
-          .lane(SIMD.i64x2ExtractLane, lane & 1)
-          .op(OP.i32WrapI64);
-        f.if(() => recordLoss(lane));
-      }
       for (const half of HALVES) {
-        f.i32(0);
         alive(half);
-        f.get(`blown#${half}`)
-          .simd(SIMD.v128AndNot)
-          .v128Store(ALIVE_OFFSET + 16 * half);
-        // A lost lane goes on with a finite state, masked out, so it does not keep the cold path busy.
-        for (let i = 0; i < d; i++) {
-          f.get(`mn${i}#${half}`).get(`s${i}#${half}`).get(`blown#${half}`).simd(SIMD.v128Bitselect);
-          f.set(`s${i}#${half}`);
-        }
+        f.get(`blown#${half}`).simd(SIMD.v128And).set(`blown#${half}`);
       }
-      alive(0);
-      alive(1);
-      f.simd(SIMD.v128Or).simd(SIMD.v128AnyTrue).op(OP.i32Eqz);
-      f.if(allLost);
+      f.get('blown#0').get('blown#1').simd(SIMD.v128Or).simd(SIMD.v128AnyTrue);
+      f.if(() => lost(allLost));
     });
     if (extremes)
       for (const half of HALVES) {
