@@ -102,7 +102,7 @@ export function simulateChunk(
       chunk.kernel = 'wasm';
       return chunk;
     }
-    chunk.kernelNote = `ran on the JavaScript kernel: ${reason}`;
+    chunk.kernelNote = reason;
   }
   const kernel = compileKernel(plan, layout);
   const probeStepsSorted = new Int32Array(layout.probeOrder.length);
