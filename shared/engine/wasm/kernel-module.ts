@@ -49,6 +49,10 @@ export interface WasmKernelModule {
 }
 
 const LONG_PATH_STEPS = 1 << 17;
+/** What the hot function returns. */
+const HOT_PATH_DONE = 0;
+const HOT_ALL_LOST = 1;
+const HOT_STOP_CHECK = 2;
 const STOP_CHECK_MASK = (1 << 16) - 1;
 const HALVES = [0, 1] as const;
 
@@ -119,7 +123,7 @@ export function buildWasmKernel(plan: SimulationPlan, layout: PlanLayout): WasmK
     callOuts.push({ fn, arity: Number(arity) });
   }
   const runIndex = mod.declareFunction([I32, I32], [I32], 'run');
-  const hotIndex = mod.declareFunction([I32, I32, I32], [I32]);
+  const hotIndex = mod.declareFunction([], [I32]);
 
   const runBody = new FunctionBody(
     [
@@ -128,14 +132,7 @@ export function buildWasmKernel(plan: SimulationPlan, layout: PlanLayout): WasmK
     ],
     [I32],
   );
-  const hotBody = new FunctionBody(
-    [
-      ['n', I32],
-      ['end', I32],
-      ['p', I32],
-    ],
-    [I32],
-  );
+  const hotBody = new FunctionBody([], [I32]);
   // The helpers below write into `f`, the function being emitted (run, then the hot loop).
   let f = runBody;
   const constants: number[] = [];
@@ -505,7 +502,8 @@ export function buildWasmKernel(plan: SimulationPlan, layout: PlanLayout): WasmK
         .v128Store(ALIVE_OFFSET + 16 * half);
       // A lost lane goes on with a finite state, masked out, so it does not keep the cold path busy.
       for (let i = 0; i < d; i++) {
-        f.get(`mn${i}#${half}`).get(`s${i}#${half}`).get(`blown#${half}`).simd(SIMD.v128Bitselect);
+        constant(plan.model.initial[i]!);
+        f.get(`s${i}#${half}`).get(`blown#${half}`).simd(SIMD.v128Bitselect);
         f.set(`s${i}#${half}`);
       }
     }
@@ -592,11 +590,13 @@ export function buildWasmKernel(plan: SimulationPlan, layout: PlanLayout): WasmK
     'x1',
     'x2',
     'x3',
-    'r',
     ...[
-      ...range(d).flatMap((i) => [`s${i}`, ...(extremes ? [`mx${i}`, `mn${i}`] : []), `ab${i}`, `abT${i}`]),
+      ...range(d).flatMap((i) => [
+        `s${i}`,
+        ...(extremes ? [`mx${i}`, `mn${i}`] : []),
+        ...(absorbing[i] ? [`ab${i}`, `abT${i}`] : []),
+      ]),
       ...range(W).flatMap((w) => [`hw${w}`, `fp${w}`]),
-      ...range(m).map((j) => `z${j}`),
     ].flatMap((name) => HALVES.map((half) => `${name}#${half}`)),
   ];
   if (persisted.length > STATE_VECTORS)
@@ -630,20 +630,78 @@ export function buildWasmKernel(plan: SimulationPlan, layout: PlanLayout): WasmK
   const emitHot = (): void => {
     loadHeader();
     loadState();
-    const leave = (code: number): void => {
-      storeState();
-      f.i32(0).get('n').store(OP.i32Store, 2, STEP_OFFSET);
-      f.i32(code).op(OP.return);
-    };
-    f.loop('steps', () => {
-      f.get('n').get('end').op(OP.i32GtS);
-      f.if(() => leave(-1));
-      timeUpdate();
-      for (let j = 0; j < m; j++) draw(j);
-      stepTail(() => leave(-2));
-      f.get('n').i32(1).op(OP.i32Add).set('n').br('steps');
+    for (const [name, at] of [
+      ['n', 0],
+      ['k', 4],
+      ['q', 8],
+      ['p', 12],
+    ] as const)
+      f.i32(0)
+        .load(OP.i32Load, 2, STEP_OFFSET + at)
+        .set(name);
+    f.block('exit', () => {
+      f.loop('segment', () => {
+        loadStep('saveSteps', 'k');
+        f.set('nextSave');
+        loadStep('probeSteps', 'q');
+        f.set('nextProbe');
+        f.i32(plan.steps).set('end');
+        for (const next of ['nextSave', 'nextProbe']) {
+          f.get(next).i32(0).op(OP.i32GeS).get(next).get('end').op(OP.i32LtS).op(OP.i32And);
+          f.if(() => f.get(next).set('end'));
+        }
+        if (longPaths) {
+          f.get('n').i32(STOP_CHECK_MASK).op(OP.i32Add).i32(~STOP_CHECK_MASK).op(OP.i32And).set('a');
+          f.get('end').get('a').op(OP.i32GtS);
+          f.if(() => f.get('a').set('end'));
+        }
+        f.block('segmentEnd', () => {
+          f.loop('steps', () => {
+            f.get('n').get('end').op(OP.i32GtS).brIf('segmentEnd');
+            timeUpdate();
+            for (let j = 0; j < m; j++) draw(j);
+            stepTail(() => f.i32(HOT_ALL_LOST).set('slow').br('exit'));
+            f.get('n').i32(1).op(OP.i32Add).set('n').br('steps');
+          });
+        });
+        f.get('end').get('nextSave').op(OP.i32Eq);
+        f.if(() => {
+          f.loop('saves', () => {
+            storeStates('saved', 'k', false);
+            f.get('k').i32(1).op(OP.i32Add).set('k');
+            loadStep('saveSteps', 'k');
+            f.get('end').op(OP.i32Eq).brIf('saves');
+          });
+        });
+        f.get('end').get('nextProbe').op(OP.i32Eq);
+        f.if(() => {
+          f.loop('probes', () => {
+            probeRow();
+            storeStates('probeValues', 'j', false);
+            f.get('q').i32(1).op(OP.i32Add).set('q');
+            loadStep('probeSteps', 'q');
+            f.get('end').op(OP.i32Eq).brIf('probes');
+          });
+        });
+        f.i32(HOT_PATH_DONE).set('slow');
+        f.get('end').i32(plan.steps).op(OP.i32Eq).brIf('exit');
+        if (longPaths) {
+          f.i32(HOT_STOP_CHECK).set('slow');
+          f.get('end').i32(STOP_CHECK_MASK).op(OP.i32And).op(OP.i32Eqz).brIf('exit');
+        }
+        f.br('segment');
+      });
     });
-    f.i32(-1);
+    storeState();
+    for (const [name, at] of [
+      ['n', 0],
+      ['k', 4],
+      ['q', 8],
+    ] as const)
+      f.i32(0)
+        .get(name)
+        .store(OP.i32Store, 2, STEP_OFFSET + at);
+    f.get('slow');
   };
   f = hotBody;
   lanes = new LaneEmitter(f, laneFunctions);
@@ -719,64 +777,33 @@ export function buildWasmKernel(plan: SimulationPlan, layout: PlanLayout): WasmK
           storeStates('probeValues', 'j', false);
         },
       );
-      f.i32(1).set('n');
+      f.i32(0).i32(1).store(OP.i32Store, 2, STEP_OFFSET);
+      f.i32(0)
+        .get('k')
+        .store(OP.i32Store, 2, STEP_OFFSET + 4);
+      f.i32(0)
+        .get('q')
+        .store(OP.i32Store, 2, STEP_OFFSET + 8);
+      f.i32(0)
+        .get('p')
+        .store(OP.i32Store, 2, STEP_OFFSET + 12);
+      storeState();
       f.block('path', () => {
-        f.loop('segment', () => {
-          loadStep('saveSteps', 'k');
-          f.set('nextSave');
-          loadStep('probeSteps', 'q');
-          f.set('nextProbe');
-          f.i32(plan.steps).set('end');
-          for (const next of ['nextSave', 'nextProbe']) {
-            f.get(next).i32(0).op(OP.i32GeS).get(next).get('end').op(OP.i32LtS).op(OP.i32And);
-            f.if(() => f.get(next).set('end'));
-          }
-          if (longPaths) {
-            f.get('n').i32(STOP_CHECK_MASK).op(OP.i32Add).i32(~STOP_CHECK_MASK).op(OP.i32And).set('a');
-            f.get('end').get('a').op(OP.i32GtS);
-            f.if(() => f.get('a').set('end'));
-          }
-          f.block('segmentEnd', () => {
-            f.loop('steps', () => {
-              storeState();
-              f.get('n').get('end').get('p').call(hotIndex).set('slow');
-              f.i32(0).load(OP.i32Load, 2, STEP_OFFSET).set('n');
-              loadState();
-              f.get('slow').i32(-1).op(OP.i32Eq).brIf('segmentEnd');
-              f.get('slow').i32(-2).op(OP.i32Eq).brIf('path');
-              f.br('steps');
-            });
-          });
-          f.get('end').get('nextSave').op(OP.i32Eq);
-          f.if(() => {
-            f.loop('saves', () => {
-              storeStates('saved', 'k', false);
-              f.get('k').i32(1).op(OP.i32Add).set('k');
-              loadStep('saveSteps', 'k');
-              f.get('end').op(OP.i32Eq).brIf('saves');
-            });
-          });
-          f.get('end').get('nextProbe').op(OP.i32Eq);
-          f.if(() => {
-            f.loop('probes', () => {
-              probeRow();
-              storeStates('probeValues', 'j', false);
-              f.get('q').i32(1).op(OP.i32Add).set('q');
-              loadStep('probeSteps', 'q');
-              f.get('end').op(OP.i32Eq).brIf('probes');
-            });
-          });
-          f.get('end').i32(plan.steps).op(OP.i32Eq).brIf('path');
-          if (longPaths) {
-            f.get('end').i32(STOP_CHECK_MASK).op(OP.i32And).op(OP.i32Eqz);
-            f.if(() => {
-              f.call(IMPORT_SHOULD_STOP);
-              f.if(() => f.get('g').op(OP.return));
-            });
-          }
-          f.br('segment');
+        f.loop('calls', () => {
+          f.call(hotIndex).set('slow');
+          f.get('slow').i32(HOT_STOP_CHECK).op(OP.i32Ne).brIf('path');
+          f.call(IMPORT_SHOULD_STOP);
+          f.if(() => f.get('g').op(OP.return));
+          f.br('calls');
         });
       });
+      loadState();
+      f.i32(0)
+        .load(OP.i32Load, 2, STEP_OFFSET + 4)
+        .set('k');
+      f.i32(0)
+        .load(OP.i32Load, 2, STEP_OFFSET + 8)
+        .set('q');
       // Saves and probe times after every lane was lost hold NaN (codegen.ts).
       const fill = (field: HeaderField, index: string, body: () => void): void => {
         f.block('f', () => {
