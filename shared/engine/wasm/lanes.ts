@@ -35,7 +35,7 @@ const INLINE = new Set([
   'round',
 ]);
 
-/** Helpers whose JavaScript function may be called lane by lane (fixed arity 1 or 2). */
+/** Helpers whose JavaScript function may be called lane by lane (one import per arity used). */
 export const CALLED_OUT = new Set([
   'exp',
   'log',
@@ -74,8 +74,6 @@ export class LaneEmitter {
       case 'call':
         if (!INLINE.has(node.fn) && !CALLED_OUT.has(node.fn))
           throw new Unsupported(`the function ${node.fn} is not in the wasm kernel`);
-        if (node.fn === 'hypot' && node.args.length > 2)
-          throw new Unsupported('hypot of more than two arguments is not in the wasm kernel');
         node.args.forEach(LaneEmitter.check);
         return;
       case 'negate':

@@ -27,7 +27,7 @@ interface Compiled {
   constants: number[];
 }
 
-const cache = new Map<string, Compiled>();
+const cache = new Map<string, WebAssembly.Module>();
 const CACHE_SIZE = 8;
 
 /** The bytes as a string key (modules are a few kilobytes). */
@@ -44,21 +44,18 @@ function keyOf(bytes: Uint8Array): string {
  */
 export function compileWasmKernel(plan: SimulationPlan, layout: PlanLayout): Compiled {
   const built = buildWasmKernel(plan, layout);
+  // The constants live in memory, not in the bytes: plans that differ only in their numbers (a
+  // sweep over a parameter) share one compiled module, each with its own constant pool.
   const key = keyOf(built.bytes);
-  const hit = cache.get(key);
-  if (hit !== undefined) {
+  let module = cache.get(key);
+  if (module !== undefined) {
     cache.delete(key);
-    cache.set(key, hit);
-    return hit;
+  } else {
+    module = new WebAssembly.Module(built.bytes);
   }
-  const compiled = {
-    module: new WebAssembly.Module(built.bytes),
-    callOuts: built.callOuts,
-    constants: built.constants,
-  };
-  cache.set(key, compiled);
+  cache.set(key, module);
   if (cache.size > CACHE_SIZE) cache.delete(cache.keys().next().value!);
-  return compiled;
+  return { module, callOuts: built.callOuts, constants: built.constants };
 }
 
 const BATCH_TARGET_MS = 15;

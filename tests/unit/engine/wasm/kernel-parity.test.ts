@@ -171,6 +171,21 @@ describe('the wasm kernel gives the JavaScript kernel’s bits', () => {
     expect(chunk.runningMax.every(Number.isNaN)).toBe(true);
   });
 
+  it('for plans that differ only in their numbers (one compiled module, each its own constants)', () => {
+    for (const theta of [0.5, 2.5, 0.5]) {
+      expectSameOnBothKernels(
+        makePlan({
+          drift: [`${theta} * (1 - s0)`],
+          diffusion: [[`${theta / 4}`]],
+          initial: [0],
+          t1: 1,
+          steps: 50,
+          paths: 9,
+        }),
+      );
+    }
+  });
+
   it('falls back to the JavaScript kernel, and says so, for a plan field it does not know', () => {
     const plan = {
       ...makePlan({ drift: ['-s0'], diffusion: [['1']], initial: [0], t1: 1, steps: 10, paths: 5 }),
