@@ -37,7 +37,7 @@ const { expression } = fc.letrec<{ expression: string }>((tie) => {
       { weight: 5, arbitrary: leaf },
       { weight: 3, arbitrary: binary },
       { weight: 3, arbitrary: call },
-      { weight: 1, arbitrary: fc.tuple(fc.constantFrom('-', '!'), sub).map(([op, a]) => `${op}(${a})`) },
+      { weight: 1, arbitrary: fc.tuple(fc.constantFrom('-', '!'), sub).map(([op, a]) => `(${op}(${a}))`) },
       { weight: 1, arbitrary: fc.tuple(sub, sub, sub).map(([a, b, c]) => `(${a} ? ${b} : ${c})`) },
     ),
   };
