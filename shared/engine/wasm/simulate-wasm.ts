@@ -5,6 +5,7 @@ import { streamSeed } from '../random/stream-seed';
 import { ZIGGURAT_FAST_TABLE, ZIGGURAT_TABLES } from '../random/ziggurat';
 import { PORTABLE_MATH } from '../../expr/portable-math';
 import { buildWasmKernel, type WasmKernelModule } from './kernel-module';
+import { Unsupported } from './source-tree';
 import {
   MASK_OFFSET,
   FN_OFFSET,
@@ -27,8 +28,16 @@ interface Compiled {
   constants: number[];
 }
 
-const cache = new Map<string, WebAssembly.Module>();
+const modules = new Map<string, WebAssembly.Module>();
+const built = new Map<string, Compiled | Unsupported>();
 const CACHE_SIZE = 8;
+
+/** Small caches, most recent last. */
+function remember<T>(cache: Map<string, T>, key: string, value: T): void {
+  cache.delete(key);
+  cache.set(key, value);
+  if (cache.size > CACHE_SIZE) cache.delete(cache.keys().next().value!);
+}
 
 /** The bytes as a string key (modules are a few kilobytes). */
 function keyOf(bytes: Uint8Array): string {
@@ -43,19 +52,28 @@ function keyOf(bytes: Uint8Array): string {
  * `new WebAssembly.Module` is allowed in workers and Node, the only places the engine runs.
  */
 export function compileWasmKernel(plan: SimulationPlan, layout: PlanLayout): Compiled {
-  const built = buildWasmKernel(plan, layout);
+  // A run is many chunks of one plan (each posted to a worker as a copy): build once per plan.
+  const planKey = JSON.stringify({ ...plan, paths: 0, seed: 0, samplePaths: 0 });
+  const known = built.get(planKey);
+  if (known !== undefined) {
+    if (known instanceof Unsupported) throw known;
+    return known;
+  }
+  let kernel: WasmKernelModule;
+  try {
+    kernel = buildWasmKernel(plan, layout);
+  } catch (error) {
+    if (error instanceof Unsupported) remember(built, planKey, error);
+    throw error;
+  }
   // The constants live in memory, not in the bytes: plans that differ only in their numbers (a
   // sweep over a parameter) share one compiled module, each with its own constant pool.
-  const key = keyOf(built.bytes);
-  let module = cache.get(key);
-  if (module !== undefined) {
-    cache.delete(key);
-  } else {
-    module = new WebAssembly.Module(built.bytes);
-  }
-  cache.set(key, module);
-  if (cache.size > CACHE_SIZE) cache.delete(cache.keys().next().value!);
-  return { module, callOuts: built.callOuts, constants: built.constants };
+  const key = keyOf(kernel.bytes);
+  const module = modules.get(key) ?? new WebAssembly.Module(kernel.bytes);
+  remember(modules, key, module);
+  const compiled = { module, callOuts: kernel.callOuts, constants: kernel.constants };
+  remember(built, planKey, compiled);
+  return compiled;
 }
 
 const BATCH_TARGET_MS = 15;
