@@ -382,35 +382,21 @@ export function buildWasmKernel(plan: SimulationPlan, layout: PlanLayout): WasmK
           .load(OP.i32Load, 2, COLD_OFFSET + 16 * w)
           .set(`zg${w}`);
       emitSlowNormal(f);
-      // Back into the lane with constant lane indices (br_table): a wide reload of narrow stores
-      // would stall store forwarding.
-      const insert = (lane: number): void => {
-        for (let w = 0; w < 4; w++)
-          f.get(`x${w}`).get(`zg${w}`).lane(SIMD.i32x4ReplaceLane, lane).set(`x${w}`);
-        const z = `z${j}#${lane >> 1}`;
-        f.get(z)
-          .get('zout')
-          .lane(SIMD.f64x2ReplaceLane, lane & 1)
-          .set(z);
-      };
-      f.block('inserted', () => {
-        f.block('lane3', () => {
-          f.block('lane2', () => {
-            f.block('lane1', () => {
-              f.block('lane0', () => {
-                f.get('a').brTable(['lane0', 'lane1', 'lane2', 'lane3'], 'lane3');
-              });
-              insert(0);
-              f.br('inserted');
-            });
-            insert(1);
-            f.br('inserted');
-          });
-          insert(2);
-          f.br('inserted');
-        });
-        insert(3);
-      });
+      // Back into lane `a` without a branch: a mask of that lane (lane index = a, per lane), then
+      // bitselect; a wide reload of narrow stores would stall store forwarding instead.
+      f.get('a').simd(SIMD.i32x4Splat).v128([0, 0, 0, 0, 1, 0, 0, 0, 2, 0, 0, 0, 3, 0, 0, 0]);
+      f.simd(SIMD.i32x4Eq).set('xt');
+      for (let w = 0; w < 4; w++) {
+        f.get(`zg${w}`).simd(SIMD.i32x4Splat).get(`x${w}`).get('xt').simd(SIMD.v128Bitselect).set(`x${w}`);
+      }
+      for (const half of HALVES) {
+        const z = `z${j}#${half}`;
+        f.get('a').op(OP.i64ExtendI32U).simd(SIMD.i64x2Splat);
+        f.v128([2 * half, 0, 0, 0, 0, 0, 0, 0, 2 * half + 1, 0, 0, 0, 0, 0, 0, 0])
+          .simd(SIMD.i64x2Eq)
+          .set('rfs2');
+        f.get('zout').simd(SIMD.f64x2Splat).get(z).get('rfs2').simd(SIMD.v128Bitselect).set(z);
+      }
       f.get('slow').brIf('lanes');
     });
   };
