@@ -135,6 +135,13 @@ export const SIMD = {
   f64x2Pmin: 0xf6,
   f64x2Pmax: 0xf7,
   f64x2ConvertLowI32x4S: 0xfe,
+  f64x2ConvertLowI32x4U: 0xff,
+  i32x4TruncSatF64x2SZero: 0xfc,
+  i64x2ExtendLowI32x4S: 0xc7,
+  i64x2Add: 0xce,
+  i64x2Shl: 0xcb,
+  i64x2Ne: 0xd7,
+  f64x2Trunc: 0x7a,
 } as const;
 
 class Bytes {

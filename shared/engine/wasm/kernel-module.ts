@@ -10,6 +10,7 @@ import { CALLED_OUT, LaneEmitter, type LaneFunctions } from './lanes';
 import {
   ALIVE_OFFSET,
   COLD_OFFSET,
+  FN_PAIRS_OFFSET,
   MASK_OFFSET,
   STATE_OFFSET,
   STATE_VECTORS,
@@ -23,7 +24,7 @@ import {
 } from './memory-layout';
 import { parseAssignments, namesRead, Unsupported, type Assignment } from './source-tree';
 import { PORTED_FUNCTIONS } from './fdlibm';
-import { declareSlowNormalLocals, emitSlowNormal } from './ziggurat-wasm';
+import { declareSlowNormalLocals, emitSlowNormal, next } from './ziggurat-wasm';
 
 /**
  * The wasm kernel of a plan: `run(g0, g1)` simulates path groups g0 … g1 − 1 (four paths per
@@ -360,44 +361,191 @@ export function buildWasmKernel(plan: SimulationPlan, layout: PlanLayout): WasmK
     f.if(() => coldDraw(j));
   };
   /** Lanes whose fast test failed (bits of `slow`) finish their draw in wasm, one by one. */
-  const coldDraw = (j: number): void => {
-    f.loop('lanes', () => {
-      // The lowest failing lane; clear its bit.
-      f.get('slow').op(OP.i32Ctz).set('a');
-      f.get('slow').get('slow').i32(1).op(OP.i32Sub).op(OP.i32And).set('slow');
-      // Out of the lane through memory (a narrow load of a wide store forwards well).
-      ['x0', 'x1', 'x2', 'x3', 'r'].forEach((x, w) =>
-        f
-          .i32(0)
-          .get(x)
-          .v128Store(COLD_OFFSET + 16 * w),
-      );
-      f.get('a').i32(4).op(OP.i32Mul).set('j');
-      f.get('j')
-        .load(OP.i32Load, 2, COLD_OFFSET + 64)
-        .set('zhz');
-      f.get('zhz').i32(127).op(OP.i32And).set('ziz');
+  /**
+   * exp(y) on two lanes for y in (−6.2, 0] (the ziggurat's wedge test, −x²/2 with |x| ≤ r): the
+   * branches of fdlibm.ts that this range can take, as selects; ldexp is exact here (a normal
+   * result), so it is a multiplication by 2^k.
+   */
+  const wedgeExp = (y: string): void => {
+    const v = (name: string): string => f.local(`we_${name}`, V128);
+    f.f64x2(1.442695040888963387).get(y).simd(SIMD.f64x2Mul).f64x2(0.5).simd(SIMD.f64x2Sub);
+    f.simd(SIMD.f64x2Trunc).set(v('k'));
+    f.get(y).get(v('k')).f64x2(6.9314718036912381649e-1).simd(SIMD.f64x2Mul).simd(SIMD.f64x2Sub).set(v('hi'));
+    f.get(v('k')).f64x2(1.90821492927058770002e-10).simd(SIMD.f64x2Mul).set(v('lo'));
+    f.get(v('hi')).get(v('lo')).simd(SIMD.f64x2Sub).set(v('r'));
+    f.get(v('r')).get(v('r')).simd(SIMD.f64x2Mul).set(v('t'));
+    const p = [
+      0.16666666666666602, -0.0027777777777015593, 0.00006613756321437934, -0.0000016533902205465252,
+      4.1381367970572385e-8,
+    ];
+    f.f64x2(p[4]!);
+    for (let i = 3; i >= 0; i--) {
+      f.set(v('p')).f64x2(p[i]!).get(v('t')).get(v('p')).simd(SIMD.f64x2Mul).simd(SIMD.f64x2Add);
+    }
+    f.set(v('p'));
+    f.get(v('r')).get(v('t')).get(v('p')).simd(SIMD.f64x2Mul).simd(SIMD.f64x2Sub).set(v('c'));
+    f.f64x2(1).get(v('lo')).get(v('r')).get(v('c')).simd(SIMD.f64x2Mul);
+    f.f64x2(2).get(v('c')).simd(SIMD.f64x2Sub).simd(SIMD.f64x2Div).simd(SIMD.f64x2Sub);
+    f.get(v('hi')).simd(SIMD.f64x2Sub).simd(SIMD.f64x2Sub);
+    // · 2^k, built from k's bits
+    f.get(v('k')).simd(SIMD.i32x4TruncSatF64x2SZero).simd(SIMD.i64x2ExtendLowI32x4S);
+    f.i64(1023n).simd(SIMD.i64x2Splat).simd(SIMD.i64x2Add).i32(52).simd(SIMD.i64x2Shl);
+    f.simd(SIMD.f64x2Mul).set(v('res'));
+    // |y| < 2^-28: 1 + y
+    f.f64x2(1).get(y).simd(SIMD.f64x2Add).get(v('res'));
+    f.get(y)
+      .f64x2(-(2 ** -28))
+      .simd(SIMD.f64x2Gt)
+      .get(y)
+      .f64x2(2 ** -28)
+      .simd(SIMD.f64x2Lt)
+      .simd(SIMD.v128And);
+    f.simd(SIMD.v128Bitselect);
+  };
+  /**
+   * The wedge test of Marsaglia & Tsang on every lane that failed the fast test outside the base
+   * layer, as normalSlowPath's first round does it: one uniform from that lane's generator (the
+   * others keep theirs), fn[iz] + u·(fn[iz − 1] − fn[iz]) < exp(−x²/2). Accepted lanes keep
+   * z = x; the others are finished lane by lane.
+   */
+  const vectorWedge = (j: number): void => {
+    f.local('tail', I32);
+    f.local('wedge', I32);
+    for (const name of ['ox0', 'ox1', 'ox2', 'ox3', 'rOrig', 'wy', 'wfnI', 'wfnM', 'wu']) f.local(name, V128);
+    f.i32(0);
+    for (let lane = 0; lane < 4; lane++)
+      f.get(`iz${lane}`).op(OP.i32Eqz).i32(lane).op(OP.i32Shl).op(OP.i32Or);
+    f.get('slow').op(OP.i32And).set('tail');
+    f.get('slow').get('tail').op(OP.i32Xor).tee('wedge');
+    f.if(() => {
+      f.get('r').set('rOrig');
+      for (let w = 0; w < 4; w++) f.get(`x${w}`).set(`ox${w}`);
+      xoshiro();
+      f.get('wedge').simd(SIMD.i32x4Splat).v128([1, 0, 0, 0, 2, 0, 0, 0, 4, 0, 0, 0, 8, 0, 0, 0]);
+      f.simd(SIMD.v128And).v128([0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0]).simd(SIMD.i32x4Eq);
+      f.set('xt');
+      // Lanes outside the wedge keep their generator (xt is their mask).
       for (let w = 0; w < 4; w++)
-        f.get('j')
-          .load(OP.i32Load, 2, COLD_OFFSET + 16 * w)
-          .set(`zg${w}`);
-      emitSlowNormal(f);
-      // Back into lane `a` without a branch: a mask of that lane (lane index = a, per lane), then
-      // bitselect; a wide reload of narrow stores would stall store forwarding instead.
-      f.get('a').simd(SIMD.i32x4Splat).v128([0, 0, 0, 0, 1, 0, 0, 0, 2, 0, 0, 0, 3, 0, 0, 0]);
-      f.simd(SIMD.i32x4Eq).set('xt');
-      for (let w = 0; w < 4; w++) {
-        f.get(`zg${w}`).simd(SIMD.i32x4Splat).get(`x${w}`).get('xt').simd(SIMD.v128Bitselect).set(`x${w}`);
-      }
+        f.get(`ox${w}`).get(`x${w}`).get('xt').simd(SIMD.v128Bitselect).set(`x${w}`);
+      f.i32(0).set('slow');
       for (const half of HALVES) {
-        const z = `z${j}#${half}`;
-        f.get('a').op(OP.i64ExtendI32U).simd(SIMD.i64x2Splat);
-        f.v128([2 * half, 0, 0, 0, 0, 0, 0, 0, 2 * half + 1, 0, 0, 0, 0, 0, 0, 0])
-          .simd(SIMD.i64x2Eq)
+        // u = ((r >>> 0) + 0.5)·2^-32
+        f.get('r');
+        if (half) f.get('r').shuffle([8, 9, 10, 11, 12, 13, 14, 15, 8, 9, 10, 11, 12, 13, 14, 15]);
+        f.simd(SIMD.f64x2ConvertLowI32x4U).f64x2(0.5).simd(SIMD.f64x2Add);
+        f.f64x2(2.3283064365386963e-10).simd(SIMD.f64x2Mul).set('wu');
+        f.get(`iz${2 * half}`)
+          .v128Load(FN_PAIRS_OFFSET)
           .set('rfs2');
-        f.get('zout').simd(SIMD.f64x2Splat).get(z).get('rfs2').simd(SIMD.v128Bitselect).set(z);
+        f.get(`iz${2 * half + 1}`)
+          .v128Load(FN_PAIRS_OFFSET)
+          .set('rfs3');
+        f.get('rfs2')
+          .get('rfs3')
+          .shuffle([0, 1, 2, 3, 4, 5, 6, 7, 16, 17, 18, 19, 20, 21, 22, 23])
+          .set('wfnI');
+        f.get('rfs2')
+          .get('rfs3')
+          .shuffle([8, 9, 10, 11, 12, 13, 14, 15, 24, 25, 26, 27, 28, 29, 30, 31])
+          .set('wfnM');
+        // fn[iz] + u·(fn[iz − 1] − fn[iz])
+        f.get('wfnI').get('wu').get('wfnM').get('wfnI').simd(SIMD.f64x2Sub).simd(SIMD.f64x2Mul);
+        f.simd(SIMD.f64x2Add).set('wfnI');
+        f.f64x2(-0.5)
+          .get(`z${j}#${half}`)
+          .simd(SIMD.f64x2Mul)
+          .get(`z${j}#${half}`)
+          .simd(SIMD.f64x2Mul)
+          .set('wy');
+        f.get('wfnI');
+        wedgeExp('wy');
+        f.simd(SIMD.f64x2Lt).simd(SIMD.i64x2Bitmask);
+        if (half) f.i32(2).op(OP.i32Shl);
+        f.get('slow').op(OP.i32Or).set('slow');
       }
-      f.get('slow').brIf('lanes');
+      // Remaining: wedge lanes not accepted, and the base-layer lanes.
+      f.get('wedge')
+        .get('slow')
+        .op(OP.i32And)
+        .get('wedge')
+        .op(OP.i32Xor)
+        .get('tail')
+        .op(OP.i32Or)
+        .set('slow');
+      f.get('rOrig').set('r');
+    });
+    f.get('slow').op(OP.i32Eqz);
+    f.if(() => f.br('drawn'));
+  };
+  const coldDraw = (j: number): void => {
+    f.block('drawn', () => {
+      vectorWedge(j);
+      f.loop('lanes', () => {
+        // The lowest lane still to finish; clear its bit.
+        f.get('slow').op(OP.i32Ctz).set('a');
+        f.get('slow').get('slow').i32(1).op(OP.i32Sub).op(OP.i32And).set('slow');
+        // Out of the lane through memory (a narrow load of a wide store forwards well).
+        ['x0', 'x1', 'x2', 'x3', 'r'].forEach((x, w) =>
+          f
+            .i32(0)
+            .get(x)
+            .v128Store(COLD_OFFSET + 16 * w),
+        );
+        f.get('a').i32(4).op(OP.i32Mul).set('j');
+        for (let w = 0; w < 4; w++)
+          f.get('j')
+            .load(OP.i32Load, 2, COLD_OFFSET + 16 * w)
+            .set(`zg${w}`);
+        f.block('laneDone', () => {
+          f.get('tail').get('a').op(OP.i32ShrU).i32(1).op(OP.i32And);
+          f.if(
+            // A base-layer lane: the rare branch from its first draw.
+            () =>
+              f
+                .get('j')
+                .load(OP.i32Load, 2, COLD_OFFSET + 64)
+                .set('zhz'),
+            // A lane whose wedge test failed: the next draw, fast test first (normalSlowPath's loop).
+            () => {
+              next(f);
+              f.get('zr').set('zhz');
+            },
+          );
+          f.get('zhz').i32(127).op(OP.i32And).set('ziz');
+          f.get('tail').get('a').op(OP.i32ShrU).i32(1).op(OP.i32And).op(OP.i32Eqz);
+          f.if(() => {
+            f.get('zhz').op(OP.f64ConvertI32S).set('rfs');
+            f.get('rfs').get('rfs').op(OP.f64Mul);
+            f.get('ziz')
+              .i32(16)
+              .op(OP.i32Mul)
+              .load(OP.f64Load, 3, TABLE_OFFSET + 8);
+            f.op(OP.f64Lt);
+            f.if(() => {
+              f.get('rfs');
+              f.get('ziz').i32(16).op(OP.i32Mul).load(OP.f64Load, 3, TABLE_OFFSET);
+              f.op(OP.f64Mul).set('zout').br('laneDone');
+            });
+          });
+          emitSlowNormal(f);
+        });
+        // Back into lane `a` without a branch: a mask of that lane, then bitselect (a wide reload
+        // of narrow stores would stall store forwarding instead).
+        f.get('a').simd(SIMD.i32x4Splat).v128([0, 0, 0, 0, 1, 0, 0, 0, 2, 0, 0, 0, 3, 0, 0, 0]);
+        f.simd(SIMD.i32x4Eq).set('xt');
+        for (let w = 0; w < 4; w++) {
+          f.get(`zg${w}`).simd(SIMD.i32x4Splat).get(`x${w}`).get('xt').simd(SIMD.v128Bitselect).set(`x${w}`);
+        }
+        for (const half of HALVES) {
+          const z = `z${j}#${half}`;
+          f.get('a').op(OP.i64ExtendI32U).simd(SIMD.i64x2Splat);
+          f.v128([2 * half, 0, 0, 0, 0, 0, 0, 0, 2 * half + 1, 0, 0, 0, 0, 0, 0, 0])
+            .simd(SIMD.i64x2Eq)
+            .set('rfs2');
+          f.get('zout').simd(SIMD.f64x2Splat).get(z).get('rfs2').simd(SIMD.v128Bitselect).set(z);
+        }
+        f.get('slow').brIf('lanes');
+      });
     });
   };
 

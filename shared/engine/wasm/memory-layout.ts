@@ -40,7 +40,9 @@ export const FN_OFFSET = COLD_OFFSET + 112;
 export const STATE_OFFSET = FN_OFFSET + 1024;
 export const STATE_VECTORS = Math.floor((POOL_OFFSET - STATE_OFFSET) / 16);
 export const POOL_SIZE = 256;
-const DATA_OFFSET = POOL_OFFSET + 16 * POOL_SIZE;
+/** The ziggurat's (fn[i], fn[i − 1]) pairs for the wedge test on four lanes (i ≥ 1). */
+export const FN_PAIRS_OFFSET = POOL_OFFSET + 16 * POOL_SIZE;
+const DATA_OFFSET = FN_PAIRS_OFFSET + 16 * 128;
 
 export interface MemoryLayout {
   bytes: number;

@@ -9,6 +9,7 @@ import { Unsupported } from './source-tree';
 import {
   MASK_OFFSET,
   FN_OFFSET,
+  FN_PAIRS_OFFSET,
   HEADER_FIELDS,
   HEADER_OFFSET,
   memoryLayout,
@@ -111,6 +112,11 @@ export function simulateChunkWasm(
     table[2 * i + 1] = ZIGGURAT_FAST_TABLE[128 + i]!;
   }
   new Float64Array(buffer, FN_OFFSET, 128).set(ZIGGURAT_TABLES.fn);
+  const fnPairs = new Float64Array(buffer, FN_PAIRS_OFFSET, 256);
+  for (let i = 1; i < 128; i++) {
+    fnPairs[2 * i] = ZIGGURAT_TABLES.fn[i]!;
+    fnPairs[2 * i + 1] = ZIGGURAT_TABLES.fn[i - 1]!;
+  }
   const pool = new Float64Array(buffer, POOL_OFFSET, 2 * compiled.constants.length);
   compiled.constants.forEach((value, i) => pool.fill(value, 2 * i, 2 * i + 2));
   // The ziggurat's layer mask 127 in every i32 lane, after the alive mask.

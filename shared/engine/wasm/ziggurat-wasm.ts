@@ -8,11 +8,11 @@ import { FN_OFFSET, TABLE_OFFSET } from './memory-layout';
  * tables (wn and kn² in the pair table, fn at FN_OFFSET) and the fdlibm ports of exp and log, so
  * it gives the same bits and leaves the generator where the JavaScript kernel leaves it.
  */
-const ZIGGURAT_R = 3.442619855899;
-const OPEN_UNIT_SCALE = 2.3283064365386963e-10;
+export const ZIGGURAT_R = 3.442619855899;
+export const OPEN_UNIT_SCALE = 2.3283064365386963e-10;
 
 /** One xoshiro128** step on zg0…zg3, the output in zr. */
-function next(f: FunctionBody): void {
+export function next(f: FunctionBody): void {
   f.get('zg1').i32(5).op(OP.i32Mul).i32(7).op(OP.i32Rotl).i32(9).op(OP.i32Mul).set('zr');
   f.get('zg1').i32(9).op(OP.i32Shl).set('zt');
   f.get('zg2').get('zg0').op(OP.i32Xor).set('zg2');
