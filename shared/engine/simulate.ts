@@ -97,12 +97,17 @@ export function simulateChunk(
   const chunk = allocateChunk(plan, layout, firstPath, pathCount);
   if (kernelChoice() !== 'js') {
     const reason = wasmFallbackReason(plan, layout);
-    if (reason === null) {
-      simulateChunkWasm(plan, layout, chunk, hooks);
-      chunk.kernel = 'wasm';
-      return chunk;
+    try {
+      if (reason === null) {
+        simulateChunkWasm(plan, layout, chunk, hooks);
+        chunk.kernel = 'wasm';
+        return chunk;
+      }
+      chunk.kernelNote = reason;
+    } catch (error) {
+      if (!(error instanceof Unsupported)) throw error;
+      chunk.kernelNote = error.message;
     }
-    chunk.kernelNote = reason;
   }
   const kernel = compileKernel(plan, layout);
   const probeStepsSorted = new Int32Array(layout.probeOrder.length);

@@ -78,12 +78,29 @@ export function compileWasmKernel(plan: SimulationPlan, layout: PlanLayout): Com
 }
 
 const BATCH_TARGET_MS = 15;
+/** The wasm kernel's memory for one chunk at most (the worker pool's chunks need a few MiB). */
+export const MAX_MEMORY_BYTES = 2 ** 30;
+
+/** Bytes of wasm memory a chunk of `pathCount` paths of the plan needs. */
+export function wasmChunkBytes(plan: SimulationPlan, layout: PlanLayout, pathCount: number): number {
+  return memoryLayout({
+    paddedPaths: Math.ceil(pathCount / 4) * 4,
+    stateCount: layout.stateCount,
+    saveCount: plan.saveCount,
+    probeCount: layout.probeSteps.length,
+    watchCount: plan.watches.length,
+  }).bytes;
+}
 const FIRST_BATCH_PATH_STEPS = 100_000;
 
 function now(): number {
   return typeof performance !== 'undefined' ? performance.now() : Date.now();
 }
 
+/**
+ * Runs the chunk on the wasm kernel; throws Unsupported, before touching the chunk, when its
+ * memory cannot be had (the caller then runs the JavaScript kernel).
+ */
 export function simulateChunkWasm(
   plan: SimulationPlan,
   layout: PlanLayout,
@@ -103,7 +120,16 @@ export function simulateChunkWasm(
     probeCount,
     watchCount: plan.watches.length,
   });
-  const memory = new WebAssembly.Memory({ initial: Math.max(1, Math.ceil(mem.bytes / 65536)) });
+  if (mem.bytes > MAX_MEMORY_BYTES)
+    throw new Unsupported(
+      `the chunk needs ${Math.ceil(mem.bytes / 2 ** 20)} MiB, more than the wasm kernel takes`,
+    );
+  let memory: WebAssembly.Memory;
+  try {
+    memory = new WebAssembly.Memory({ initial: Math.max(1, Math.ceil(mem.bytes / 65536)) });
+  } catch (error) {
+    throw new Unsupported(`no memory for the wasm kernel (${String(error)})`);
+  }
   const buffer = memory.buffer;
   // The fast table as pairs (wn[i], kn²[i]), one 16-byte load per lane.
   const table = new Float64Array(buffer, TABLE_OFFSET, 256);

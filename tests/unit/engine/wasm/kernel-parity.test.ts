@@ -5,6 +5,8 @@ import type { SimulationPlan } from '@shared/engine/plan';
 import { stepSourceFor } from '@shared/engine/methods';
 import { simulate, simulateChunk } from '@shared/engine/simulate';
 import { makePlan } from '../plans';
+import { planLayout } from '@shared/engine/layout';
+import { MAX_MEMORY_BYTES, wasmChunkBytes } from '@shared/engine/wasm/simulate-wasm';
 import { expectSameOnBothKernels, withKernel } from './parity';
 
 /**
@@ -195,6 +197,28 @@ describe('the wasm kernel gives the JavaScript kernel’s bits', () => {
     expect(chunk.kernel).toBe('js');
     expect(chunk.kernelNote).toMatch(/inputForm/);
     expect(withKernel('auto', () => simulate(plan)).kernel).toBe('js');
+  });
+
+  it('sizes its memory per chunk and has a limit above what the worker pool asks for', () => {
+    // The pool's chunks hold at most 2,000 paths (shared/run/chunks.ts); a sheet's default keeps
+    // 101 saved times. A chunk beyond MAX_MEMORY_BYTES runs on JavaScript (simulate-wasm.ts).
+    const plan = makePlan({
+      drift: ['-s0', '-s1'],
+      diffusion: [
+        ['1', '0'],
+        ['0', '1'],
+      ],
+      initial: [0, 0],
+      t1: 1,
+      steps: 100,
+      paths: 2000,
+      saveCount: 101,
+    });
+    const layout = planLayout(plan);
+    const bytes = wasmChunkBytes(plan, layout, 2000);
+    expect(bytes).toBeGreaterThan(8 * 101 * 2 * 2000);
+    expect(bytes).toBeLessThan(MAX_MEMORY_BYTES / 100);
+    expect(wasmChunkBytes(plan, layout, 1_000_000)).toBeGreaterThan(MAX_MEMORY_BYTES);
   });
 
   it('falls back for a source it cannot read (a member call)', () => {
