@@ -64,7 +64,7 @@ export function allocateChunk(
  * Why this plan cannot run on the wasm kernel here, or null when it can (kernel-choice.ts).
  * Anything the wasm kernel does not support runs on the JavaScript kernel instead.
  */
-export function wasmFallbackReason(plan: SimulationPlan, layout: PlanLayout): string | null {
+function wasmFallbackReason(plan: SimulationPlan, layout: PlanLayout): string | null {
   if (!wasmSimdAvailable()) return 'this browser has no WebAssembly SIMD';
   const fields = unknownPlanFields(plan);
   if (fields.length > 0) return `the wasm kernel does not know ${fields.join(', ')}`;

@@ -39,7 +39,7 @@ import { declareSlowNormalLocals, emitSlowNormal, next } from './ziggurat-wasm';
  */
 
 /** Imported functions, in import order. */
-export const IMPORT_SHOULD_STOP = 0;
+const IMPORT_SHOULD_STOP = 0;
 
 export interface WasmKernelModule {
   bytes: Uint8Array<ArrayBuffer>;

@@ -1,12 +1,12 @@
 /**
  * Where a wasm kernel instance keeps things in its memory. Fixed at the front: the ziggurat's
- * fast table (wn, then kn², see ZIGGURAT_FAST_TABLE), a 16-byte scratch generator state for the
- * rare branch, and a header of base offsets the kernel reads once per call. Then, sized by the
- * chunk: step lists, per-group seeds and the outputs, with the path count padded to a multiple
- * of four (one SIMD group) and each output laid out as in result.ts with that padded count.
+ * fast table as (wn, kn²) pairs, then a header of base offsets the kernel reads once per call,
+ * the alive mask, the rare branch's scratch, the fn tables, a group's state between calls and
+ * the constant pool. Then, sized by the chunk: step lists, per-group seeds and the outputs, with
+ * the path count padded to a multiple of four (one SIMD group) and each output laid out as in
+ * result.ts with that padded count.
  */
 export const TABLE_OFFSET = 0;
-export const GEN_OFFSET = 2048;
 export const HEADER_OFFSET = 2064;
 export const HEADER_FIELDS = [
   'paddedPaths',

@@ -8,8 +8,8 @@ import { FN_OFFSET, TABLE_OFFSET } from './memory-layout';
  * tables (wn and kn² in the pair table, fn at FN_OFFSET) and the fdlibm ports of exp and log, so
  * it gives the same bits and leaves the generator where the JavaScript kernel leaves it.
  */
-export const ZIGGURAT_R = 3.442619855899;
-export const OPEN_UNIT_SCALE = 2.3283064365386963e-10;
+const ZIGGURAT_R = 3.442619855899;
+const OPEN_UNIT_SCALE = 2.3283064365386963e-10;
 
 /** One xoshiro128** step on zg0…zg3, the output in zr. */
 export function next(f: FunctionBody): void {
