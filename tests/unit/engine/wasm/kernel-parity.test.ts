@@ -47,6 +47,25 @@ describe('the wasm kernel gives the JavaScript kernel’s bits', () => {
     expectSameOnBothKernels(plan);
   });
 
+  it('over 400,000 draws: the fast test, the wedge on four lanes, lane by lane, the tail', () => {
+    // 2.75 % of draws fail the fast test (about 11,000 here), about half of those pass the first
+    // wedge test, and about 1/128 of the failures come from the base layer (about 90 tail draws).
+    expectSameOnBothKernels(
+      makePlan({
+        drift: ['-s0', '0'],
+        diffusion: [
+          ['1', '0'],
+          ['0', '1'],
+        ],
+        initial: [0, 0],
+        t1: 1,
+        steps: 50,
+        paths: 4001,
+        saveCount: 2,
+      }),
+    );
+  });
+
   it('for a chunk that starts at a later path (streams by path index)', () => {
     const plan = exampleCases[0]!.plan;
     expectSameOnBothKernels({ ...plan, paths: 13 }, 1001);
