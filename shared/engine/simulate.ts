@@ -5,7 +5,7 @@ import { compileKernel, KERNEL_TABLE, normalSlowPath, streamSeed, type KernelCon
 import { mergeChunks } from './merge';
 import { kernelChoice, unknownPlanFields, wasmSimdAvailable } from './wasm/kernel-choice';
 import { compileWasmKernel, simulateChunkWasm } from './wasm/simulate-wasm';
-import { Unsupported } from './wasm/source-tree';
+import { Refused, Unsupported } from './wasm/source-tree';
 
 /** Aim for batches of about this much wall time between hook checks (cancel lands within 200 ms). */
 const BATCH_TARGET_MS = 15;
@@ -72,6 +72,7 @@ function wasmFallbackReason(plan: SimulationPlan, layout: PlanLayout): string | 
     compileWasmKernel(plan, layout);
     return null;
   } catch (error) {
+    if (error instanceof Refused) return error.message;
     if (error instanceof Unsupported) return `the wasm kernel does not support this model: ${error.message}`;
     throw error;
   }

@@ -5,7 +5,7 @@ import { streamSeed } from '../random/stream-seed';
 import { ZIGGURAT_FAST_TABLE, ZIGGURAT_TABLES } from '../random/ziggurat';
 import { PORTABLE_MATH } from '../../expr/portable-math';
 import { buildWasmKernel, type WasmKernelModule } from './kernel-module';
-import { Unsupported } from './source-tree';
+import { Refused, Unsupported } from './source-tree';
 import {
   MASK_OFFSET,
   FN_OFFSET,
@@ -70,7 +70,19 @@ export function compileWasmKernel(plan: SimulationPlan, layout: PlanLayout): Com
   // The constants live in memory, not in the bytes: plans that differ only in their numbers (a
   // sweep over a parameter) share one compiled module, each with its own constant pool.
   const key = keyOf(kernel.bytes);
-  const module = modules.get(key) ?? new WebAssembly.Module(kernel.bytes);
+  let module = modules.get(key);
+  if (module === undefined) {
+    try {
+      module = new WebAssembly.Module(kernel.bytes);
+    } catch (error) {
+      // A browser whose policy or engine refuses the module: run on JavaScript, and say why.
+      const refused = new Refused(
+        `this JavaScript engine did not compile the wasm kernel (${String(error)})`,
+      );
+      remember(built, planKey, refused);
+      throw refused;
+    }
+  }
   remember(modules, key, module);
   const compiled = { module, callOuts: kernel.callOuts, constants: kernel.constants };
   remember(built, planKey, compiled);
@@ -98,7 +110,7 @@ function now(): number {
 }
 
 /**
- * Runs the chunk on the wasm kernel; throws Unsupported, before touching the chunk, when its
+ * Runs the chunk on the wasm kernel; throws Refused, before touching the chunk, when its
  * memory cannot be had (the caller then runs the JavaScript kernel).
  */
 export function simulateChunkWasm(
@@ -121,14 +133,14 @@ export function simulateChunkWasm(
     watchCount: plan.watches.length,
   });
   if (mem.bytes > MAX_MEMORY_BYTES)
-    throw new Unsupported(
+    throw new Refused(
       `the chunk needs ${Math.ceil(mem.bytes / 2 ** 20)} MiB, more than the wasm kernel takes`,
     );
   let memory: WebAssembly.Memory;
   try {
     memory = new WebAssembly.Memory({ initial: Math.max(1, Math.ceil(mem.bytes / 65536)) });
   } catch (error) {
-    throw new Unsupported(`no memory for the wasm kernel (${String(error)})`);
+    throw new Refused(`no memory for the wasm kernel (${String(error)})`);
   }
   const buffer = memory.buffer;
   // The fast table as pairs (wn[i], kn²[i]), one 16-byte load per lane.
@@ -168,7 +180,7 @@ export function simulateChunkWasm(
     lib[`${fn}/${arity}`] = PORTABLE_MATH[fn as keyof typeof PORTABLE_MATH] as (...args: number[]) => number;
   }
   const stop = hooks?.shouldStop;
-  const instance = new WebAssembly.Instance(compiled.module, {
+  const instance = instantiate(compiled.module, {
     env: { memory },
     engine: {
       shouldStop: () => (stop !== undefined && stop() === true ? 1 : 0),
@@ -203,6 +215,14 @@ export function simulateChunkWasm(
     }
   }
   copyOut(buffer, mem.offsets, padded, chunk);
+}
+
+function instantiate(module: WebAssembly.Module, imports: WebAssembly.Imports): WebAssembly.Instance {
+  try {
+    return new WebAssembly.Instance(module, imports);
+  } catch (error) {
+    throw new Refused(`this JavaScript engine did not instantiate the wasm kernel (${String(error)})`);
+  }
 }
 
 function copyOut(

@@ -12,6 +12,9 @@ import { HELPER_PREFIX } from '../../expr/prelude';
  */
 export class Unsupported extends Error {}
 
+/** The JavaScript engine would not compile or run the kernel (a strict policy, no memory). */
+export class Refused extends Unsupported {}
+
 export type ValueNode =
   | { kind: 'number'; value: number }
   | { kind: 'name'; name: string }

@@ -1,4 +1,4 @@
-import { describe, expect, it } from 'vitest';
+import { describe, expect, it, vi } from 'vitest';
 import { exampleSheets } from '@shared/examples/index';
 import { buildSimulationPlan } from '@shared/sheet/index';
 import type { SimulationPlan } from '@shared/engine/plan';
@@ -238,6 +238,30 @@ describe('the wasm kernel gives the JavaScript kernel’s bits', () => {
     expect(bytes).toBeGreaterThan(8 * 101 * 2 * 2000);
     expect(bytes).toBeLessThan(MAX_MEMORY_BYTES / 100);
     expect(wasmChunkBytes(plan, layout, 1_000_000)).toBeGreaterThan(MAX_MEMORY_BYTES);
+  });
+
+  it('falls back, and says so, when the engine refuses to compile the module (a strict policy)', () => {
+    const refuse = vi.spyOn(WebAssembly, 'Module').mockImplementation(function refused() {
+      throw new WebAssembly.CompileError('refused by the content security policy');
+    });
+    try {
+      // A shape no other test builds, so the module is not in the cache.
+      const plan = makePlan({
+        drift: ['-s0 * s0 * s0 * s0 * s0 * 0.001'],
+        diffusion: [['0.5']],
+        initial: [0],
+        t1: 1,
+        steps: 10,
+        paths: 5,
+      });
+      const result = withKernel('auto', () => simulate(plan));
+      expect(result.kernel).toBe('js');
+      expect(result.kernelNote).toMatch(
+        /did not compile the wasm kernel.*refused by the content security policy/,
+      );
+    } finally {
+      refuse.mockRestore();
+    }
   });
 
   it('falls back for a source it cannot read (a member call)', () => {
