@@ -257,7 +257,7 @@ describe('the wasm kernel gives the JavaScript kernel’s bits', () => {
       const result = withKernel('auto', () => simulate(plan));
       expect(result.kernel).toBe('js');
       expect(result.kernelNote).toMatch(
-        /did not compile the wasm kernel.*refused by the content security policy/,
+        /^this JavaScript engine did not compile the wasm kernel.*refused by the content security policy/,
       );
     } finally {
       refuse.mockRestore();
