@@ -3,6 +3,7 @@ import { buildSimulationPlan } from '../shared/sheet/index';
 import { mergeChunks, simulate } from '../shared/engine/index';
 import type { SimulationPlan } from '../shared/engine/plan';
 import { createThreadPool, type ThreadPool } from '../server/cli/thread-pool';
+import { setKernelChoice, type KernelName } from '../shared/engine/wasm/kernel-choice';
 import { benchSheets, type BenchSheet } from './cases';
 import { median } from './median';
 import { prepareReferences, type Reference } from './references';
@@ -13,7 +14,16 @@ import { measureSweepCase } from './sweep-case';
  * reference (medians over rounds), then a ratio line. Engine cases and the reference programs
  * run alternately in every round, so a machine that slows down mid-run slows both.
  */
-const CASE_NAMES = ['ou-scalar', 'ou-scalar-pool', 'grazing-2d', 'gbm-milstein', 'sweep-20'] as const;
+const CASE_NAMES = [
+  'ou-scalar',
+  'ou-scalar-wasm',
+  'ou-scalar-pool',
+  'grazing-2d',
+  'grazing-2d-wasm',
+  'gbm-milstein',
+  'gbm-milstein-wasm',
+  'sweep-20',
+] as const;
 type CaseName = (typeof CASE_NAMES)[number];
 
 interface Options {
@@ -69,8 +79,20 @@ async function timed(plan: SimulationPlan, work: () => Promise<unknown> | unknow
   return { seconds, stepsPerSec: (plan.paths * plan.steps) / seconds };
 }
 
-function inProcessCase(name: string, plan: SimulationPlan): CaseRunner {
-  return { name, paths: plan.paths, steps: plan.steps, measure: () => timed(plan, () => simulate(plan)) };
+/** One thread, on the kernel named (the JavaScript one, or wasm: a fallback would be an error here). */
+function inProcessCase(name: string, plan: SimulationPlan, kernel: KernelName): CaseRunner {
+  const run = () => {
+    setKernelChoice(kernel);
+    try {
+      const result = simulate(plan);
+      if (result.kernel !== kernel)
+        throw new Error(`${name} ran on the ${result.kernel} kernel: ${result.kernelNote}`);
+      return result;
+    } finally {
+      setKernelChoice('auto');
+    }
+  };
+  return { name, paths: plan.paths, steps: plan.steps, measure: () => timed(plan, run) };
 }
 
 async function poolCase(name: string, plan: SimulationPlan, threads: ThreadPool): Promise<CaseRunner> {
@@ -94,18 +116,24 @@ function ratio(a: number | undefined, b: number | undefined): number | null {
 
 async function main(): Promise<void> {
   const options = parseOptions(process.argv.slice(2));
-  const wantsOu = options.cases.includes('ou-scalar');
-  const threadPool = options.cases.includes('ou-scalar-pool') ? createThreadPool(options.threads) : null;
+  const wantsOu = options.cases.includes('ou-scalar') || options.cases.includes('ou-scalar-wasm');
+  const threadPool = options.cases.includes('ou-scalar-pool')
+    ? createThreadPool(options.threads, { kernel: 'wasm' })
+    : null;
   const setup = wantsOu ? await prepareReferences() : null;
   for (const skip of setup?.skipped ?? []) console.error(`skipping reference ${skip.name}: ${skip.reason}`);
   try {
     const runners: CaseRunner[] = [];
     for (const name of options.cases) {
-      if (name === 'ou-scalar') runners.push(inProcessCase(name, planOf(benchSheets.ou())));
+      const kernel: KernelName = name.endsWith('-wasm') ? 'wasm' : 'js';
+      if (name.startsWith('ou-scalar') && name !== 'ou-scalar-pool')
+        runners.push(inProcessCase(name, planOf(benchSheets.ou()), kernel));
       if (name === 'ou-scalar-pool')
         runners.push(await poolCase(name, planOf(benchSheets.ou()), threadPool!));
-      if (name === 'grazing-2d') runners.push(inProcessCase(name, planOf(benchSheets.grazing())));
-      if (name === 'gbm-milstein') runners.push(inProcessCase(name, planOf(benchSheets.gbm())));
+      if (name.startsWith('grazing-2d'))
+        runners.push(inProcessCase(name, planOf(benchSheets.grazing()), kernel));
+      if (name.startsWith('gbm-milstein'))
+        runners.push(inProcessCase(name, planOf(benchSheets.gbm()), kernel));
     }
     const references: Reference[] = setup?.references ?? [];
     const samples = new Map<string, Measurement[]>();
@@ -144,16 +172,22 @@ async function main(): Promise<void> {
         runner.name === 'ou-scalar-pool' ? { threads: options.threads } : {},
       );
     for (const reference of references) line(reference.name, benchOuSize().paths, benchOuSize().steps);
-    if (wantsOu) {
-      const engine = medians.get('ou-scalar')?.stepsPerSec;
-      print({
-        case: 'ratio',
-        ouScalarVsC: ratio(engine, medians.get('ref-c')?.stepsPerSec),
-        ouScalarVsNumpy: ratio(engine, medians.get('ref-numpy')?.stepsPerSec),
-        ouScalarVsZiggurat: ratio(engine, medians.get('ref-c-ziggurat')?.stepsPerSec),
-        poolScaling: ratio(medians.get('ou-scalar-pool')?.stepsPerSec, engine),
-      });
-    }
+    const speed = (name: string) => medians.get(name)?.stepsPerSec;
+    const engine = speed('ou-scalar');
+    const wasm = speed('ou-scalar-wasm');
+    print({
+      case: 'ratio',
+      ouScalarVsC: ratio(engine, speed('ref-c')),
+      ouScalarVsNumpy: ratio(engine, speed('ref-numpy')),
+      ouScalarVsZiggurat: ratio(engine, speed('ref-c-ziggurat')),
+      ouScalarWasmVsC: ratio(wasm, speed('ref-c')),
+      ouScalarWasmVsZiggurat: ratio(wasm, speed('ref-c-ziggurat')),
+      ouScalarWasmVsJs: ratio(wasm, engine),
+      grazingWasmVsJs: ratio(speed('grazing-2d-wasm'), speed('grazing-2d')),
+      gbmWasmVsJs: ratio(speed('gbm-milstein-wasm'), speed('gbm-milstein')),
+      // The pool runs the wasm kernel: its throughput over one thread of the same kernel.
+      poolScaling: ratio(speed('ou-scalar-pool'), wasm),
+    });
     // Its own line: a sweep against separate runs of the same simulation (bench/sweep-case.ts).
     if (options.cases.includes('sweep-20')) print(await measureSweepCase(options.rounds));
   } finally {

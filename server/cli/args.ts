@@ -1,3 +1,5 @@
+import { KERNEL_CHOICES, type KernelChoice } from '../../shared/engine/wasm/kernel-choice';
+
 /**
  * Command-line arguments of the headless runner:
  *   sheet run <file.json> [--workers N] [--paths-scale F]
@@ -10,6 +12,8 @@ export interface RunArguments {
   workers: number | null;
   /** Multiplies every simulation's and study's path count (quick looks and tests). */
   pathsScale: number | null;
+  /** Which simulation kernel: js, wasm (falls back when it cannot run) or auto (default). */
+  kernel: KernelChoice;
 }
 
 /** `verify <file.json> --digests <digests.json>`: rerun the sheet and compare with saved digests. */
@@ -18,6 +22,7 @@ export interface VerifyArguments {
   file: string;
   digests: string;
   workers: number | null;
+  kernel: KernelChoice;
 }
 
 export interface HelpArguments {
@@ -33,14 +38,17 @@ export class UsageError extends Error {
   }
 }
 
-export const USAGE = `Usage: npm run --silent sheet -- run <file.json> [--workers N] [--paths-scale F]
-       npm run --silent sheet -- verify <file.json> --digests <digests.json> [--workers N]
+export const USAGE = `Usage: npm run --silent sheet -- run <file.json> [--workers N] [--paths-scale F] [--kernel K]
+       npm run --silent sheet -- verify <file.json> --digests <digests.json> [--workers N] [--kernel K]
 
 Validates the sheet, runs every simulation, probe and study cell, and prints one JSON
 object { "title", "cells": [...] } on stdout.
 
   --workers N       worker threads to simulate on (default: one per core)
   --paths-scale F   multiply every path count by F (e.g. 0.1 for a quick look)
+  --kernel K        the simulation kernel: auto (default: WebAssembly SIMD where it can run,
+                    else JavaScript), wasm (the same, and each simulation says when it fell
+                    back) or js. Both give the same numbers bit for bit.
 
 Warnings (estimates conditional on surviving paths, an unstable step) go to stderr and into
 the JSON of the cells concerned.
@@ -73,6 +81,7 @@ export function parseArguments(argv: readonly string[]): CliArguments {
   let digests: string | undefined;
   let workers: number | null = null;
   let pathsScale: number | null = null;
+  let kernel: KernelChoice = 'auto';
   for (let i = 0; i < rest.length; i++) {
     const arg = rest[i]!;
     const [flag, inline] =
@@ -88,6 +97,11 @@ export function parseArguments(argv: readonly string[]): CliArguments {
       digests = value;
     } else if (flag === '--paths-scale' && command === 'run') {
       pathsScale = positiveNumber('--paths-scale', inline ?? rest[++i], false);
+    } else if (flag === '--kernel') {
+      const value = inline ?? rest[++i];
+      if (!KERNEL_CHOICES.includes(value as KernelChoice))
+        throw new UsageError(`--kernel must be js, wasm or auto, got "${value ?? ''}"`);
+      kernel = value as KernelChoice;
     } else if (flag.startsWith('-')) {
       throw new UsageError(`unknown option "${flag}"`);
     } else if (file === undefined) {
@@ -100,7 +114,7 @@ export function parseArguments(argv: readonly string[]): CliArguments {
   if (command === 'verify') {
     if (digests === undefined)
       throw new UsageError('verify needs the saved digests: --digests <digests.json>');
-    return { command: 'verify', file, digests, workers };
+    return { command: 'verify', file, digests, workers, kernel };
   }
-  return { command: 'run', file, workers, pathsScale };
+  return { command: 'run', file, workers, pathsScale, kernel };
 }

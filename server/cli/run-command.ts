@@ -62,7 +62,7 @@ export async function runCommand(
   }
   const doc = args.pathsScale === null ? validation.doc : scaleSheetPaths(validation.doc, args.pathsScale);
   for (const notice of workNotices(doc)) notify(notice);
-  const threads = createThreadPool(args.workers ?? defaultThreadCount());
+  const threads = createThreadPool(args.workers ?? defaultThreadCount(), { kernel: args.kernel });
   let output: SheetRunJson;
   try {
     output = await runSheetToJson(doc, threads.executor, { datasets: validation.datasets });

@@ -9,6 +9,7 @@ import { poolExecutor } from '../../shared/run/environments';
 import type { ClaimedChunks, ClaimTask } from '../../shared/run/chunk-task';
 import type { FromWorker, ToWorker, WorkerRequest } from './messages';
 import { startTypeScriptWorker } from './ts-worker';
+import type { KernelChoice } from '../../shared/engine/wasm/kernel-choice';
 
 /**
  * worker_threads for the headless runner and the benchmark, behind the same ChunkPool as the
@@ -26,14 +27,25 @@ interface Pending {
   onProgress?: (pathsDone: number) => void;
 }
 
+/** What every thread of a pool is started with. */
+export interface ThreadOptions {
+  /** The simulation kernel (kernel-choice.ts); default auto. */
+  kernel?: KernelChoice;
+}
+
+/** What a thread receives as its workerData (worker.ts reads it). */
+export interface ThreadData {
+  kernel: KernelChoice;
+}
+
 /** One thread with a tiny request/answer protocol on top of postMessage. */
 export class SimulationThread {
   private readonly worker: Worker;
   private readonly pending = new Map<number, Pending>();
   private nextId = 1;
 
-  constructor() {
-    this.worker = startTypeScriptWorker(workerUrl);
+  constructor(options: ThreadOptions = {}) {
+    this.worker = startTypeScriptWorker(workerUrl, { workerData: { kernel: options.kernel ?? 'auto' } });
     this.worker.unref();
     this.worker.on('message', (message: FromWorker) => {
       const entry = this.pending.get(message.id);
@@ -105,8 +117,11 @@ export class SimulationThread {
   }
 }
 
-function threadChunkWorker(cancelFlag: Int32Array | null): ChunkWorker<SimulationPlan, ChunkResult> {
-  const thread = new SimulationThread();
+function threadChunkWorker(
+  cancelFlag: Int32Array | null,
+  options: ThreadOptions,
+): ChunkWorker<SimulationPlan, ChunkResult> {
+  const thread = new SimulationThread(options);
   return {
     simulate: (job) =>
       thread.simulateChunk(
@@ -137,15 +152,15 @@ export interface ThreadPool {
 }
 
 /** A pool of `size` threads; studies run one at a time on an extra thread of their own. */
-export function createThreadPool(size = defaultThreadCount()): ThreadPool {
+export function createThreadPool(size = defaultThreadCount(), threadOptions: ThreadOptions = {}): ThreadPool {
   const pool = new ChunkPool<SimulationPlan, ChunkResult>({
     size,
-    createWorker: threadChunkWorker,
+    createWorker: (cancelFlag) => threadChunkWorker(cancelFlag, threadOptions),
     sharedMemory: true,
   });
   let studyThread: SimulationThread | null = null;
   const study = (plan: SimulationPlan, options: StudyOptions) => {
-    studyThread ??= new SimulationThread();
+    studyThread ??= new SimulationThread(threadOptions);
     return studyThread.runStudy(plan, options);
   };
   return {

@@ -99,7 +99,9 @@ export async function verifyCommand(args: VerifyArguments, executor?: RunExecuto
   if (typeof saved === 'string') {
     return { exitCode: EXIT_USAGE, stdout: '', stderr: [`${args.digests} is ${saved}`] };
   }
-  const threads = executor ? null : createThreadPool(args.workers ?? defaultThreadCount());
+  const threads = executor
+    ? null
+    : createThreadPool(args.workers ?? defaultThreadCount(), { kernel: args.kernel });
   let rerun: Record<string, SimulationRecord>;
   try {
     const output = await runSheetToJson(validation.doc, executor ?? threads!.executor, {

@@ -1,4 +1,7 @@
-import { parentPort } from 'node:worker_threads';
+import { parentPort, workerData } from 'node:worker_threads';
+import { setKernelChoice } from '../../shared/engine/wasm/kernel-choice';
+import type { TypeScriptWorkerData } from './ts-worker';
+import type { ThreadData } from './thread-pool';
 import { runStudy } from '../../shared/engine/study';
 import { fitModel } from '../../shared/fit/fit-model';
 import { chunkTransferables, runChunkTask, runClaimedChunks } from '../../shared/run/chunk-task';
@@ -8,6 +11,7 @@ import type { FromWorker, ToWorker } from './messages';
 /** A worker thread of the headless runner: the same chunk task as the browser's worker. */
 if (!parentPort) throw new Error('server/cli/worker.ts runs only as a worker thread');
 const port = parentPort;
+setKernelChoice((workerData as TypeScriptWorkerData<ThreadData | undefined>).data?.kernel ?? 'auto');
 
 function send(message: FromWorker, transfer: ArrayBuffer[] = []): void {
   port.postMessage(message, transfer);

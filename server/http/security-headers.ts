@@ -18,13 +18,14 @@ export const PAGE_CSP = [
 ].join('; ');
 
 /**
- * The worker may run the engine's generated code, and may open no connection at all: even code
- * that escaped the expression whitelist could not call the API or send anything away.
+ * The worker may run the engine's generated code (JavaScript, and the wasm kernel it compiles:
+ * 'wasm-unsafe-eval'), and may open no connection at all: even code that escaped the expression
+ * whitelist could not call the API or send anything away.
  */
-export const WORKER_CSP = PAGE_CSP.replace("script-src 'self'", "script-src 'self' 'unsafe-eval'").replace(
-  "connect-src 'self'",
-  "connect-src 'none'",
-);
+export const WORKER_CSP = PAGE_CSP.replace(
+  "script-src 'self'",
+  "script-src 'self' 'unsafe-eval' 'wasm-unsafe-eval'",
+).replace("connect-src 'self'", "connect-src 'none'");
 
 /** Worker bundles as Vite names them (`assets/simulation.worker-abc123.js`). */
 export const WORKER_SCRIPT_PATTERN = /^\/assets\/[^/]*worker[^/]*\.js$/;

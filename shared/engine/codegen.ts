@@ -162,7 +162,7 @@ const STOP_CHECK_MASK = (1 << 16) - 1;
  * The state every path starts from, after the boundary rules at t0 (the same arithmetic as the
  * generated code), and whether all of it lies within the blow-up bound.
  */
-function startsWithinBound(plan: SimulationPlan): boolean {
+export function startsWithinBound(plan: SimulationPlan): boolean {
   return plan.model.initial.every((value, i) => {
     let s = value;
     const rule = plan.boundaries[i];
@@ -223,14 +223,18 @@ export function buildKernelSource(plan: SimulationPlan, layout: PlanLayout): str
   const absorbing = plan.boundaries.map((rule, i) => (rule.rule === 'absorb' ? i : -1)).filter((i) => i >= 0);
   const longPaths = plan.steps >= LONG_PATH_STEPS;
 
-  const blowupAndRunning = `if (${p.blowupTest}) { blown = true; break seg; }\n${running}`;
+  const extremes = plan.recordExtremes !== false;
+  const blowupAndRunning = `if (${p.blowupTest}) { blown = true; break seg; }\n${extremes ? running : ''}`;
   const outsideSeen = states.map((i) => `s${i} <= mx${i} && s${i} >= mn${i}`).join(' && ');
-  // With inputs, whether paths start within the bound is read per run (the `within` input).
-  const checks = inputs
-    ? `if (!within || !(${outsideSeen})) {\n${blowupAndRunning}\n}`
-    : startsWithinBound(plan)
-      ? `if (!(${outsideSeen})) {\n${blowupAndRunning}\n}`
-      : blowupAndRunning;
+  // The skip below leans on the running extremes: without them, every step is tested. With
+  // inputs, whether paths start within the bound is read per run (the `within` input).
+  const checks = !extremes
+    ? blowupAndRunning
+    : inputs
+      ? `if (!within || !(${outsideSeen})) {\n${blowupAndRunning}\n}`
+      : startsWithinBound(plan)
+        ? `if (!(${outsideSeen})) {\n${blowupAndRunning}\n}`
+        : blowupAndRunning;
   /** The step after its draws: increments, scheme, boundaries, checks, watches. */
   const stepTail = `${p.increments}\n${p.stepAndBoundaries}\n${checks}\n${watchUpdates(plan, layout, END_OF_STEP, inputs)}`;
   const fastDraws = range(m)
@@ -302,7 +306,7 @@ function runPath(p) {
     K.blowupTime[p] = NaN;
     K.lossCause[p] = ${LOSS_CAUSE_CODES.none};
   }
-  ${states.map((i) => `K.runningMax[${i} * pathCount + p] = mx${i}; K.runningMin[${i} * pathCount + p] = mn${i};`).join('\n  ')}
+  ${states.map((i) => (extremes ? `K.runningMax[${i} * pathCount + p] = mx${i}; K.runningMin[${i} * pathCount + p] = mn${i};` : `K.runningMax[${i} * pathCount + p] = NaN; K.runningMin[${i} * pathCount + p] = NaN;`)).join('\n  ')}
   ${plan.watches.map((_, w) => `K.firstPassage[${w} * pathCount + p] = fp${w};`).join(' ')}
   ${states.map((i) => `K.absorptionTime[${i} * pathCount + p] = ${absorbing.includes(i) ? `abT${i}` : 'NaN'};`).join(' ')}
   return true;

@@ -227,5 +227,9 @@ export function mergeChunks(plan: SimulationPlan, chunks: ChunkResult[]): Simula
       meanStates: stats.map((s) => s.mean),
     }),
     digest,
+    kernel: chunks.some((chunk) => chunk.kernel === 'wasm') ? 'wasm' : 'js',
+    ...(chunks.find((chunk) => chunk.kernelNote !== undefined)?.kernelNote === undefined
+      ? {}
+      : { kernelNote: chunks.find((chunk) => chunk.kernelNote !== undefined)!.kernelNote }),
   };
 }

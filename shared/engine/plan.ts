@@ -78,6 +78,12 @@ export interface SimulationPlan {
   /** One rule per state variable, in `stateNames` order. */
   boundaries: BoundaryRule[];
   blowupBound: number | null;
+  /**
+   * Whether the kernel keeps every path's running maximum and minimum (a probe of hitting a level
+   * with no watch reads them). Absent means true, as before the field existed; when false they are
+   * NaN and the kernel skips that work.
+   */
+  recordExtremes?: boolean;
   /** Extra times at which all path values are kept (from probes), besides the saved grid. */
   probeTimes: number[];
   watches: WatchSpec[];

@@ -276,6 +276,11 @@ export function hits(
       `P(hit ${level} before t = ${time}) needs the level to be watched during the run; only t1 = ${result.t1} can be read from the running extremes`,
     );
   }
+  if (watch < 0 && !extremesRecorded(result, probe.state)) {
+    throw new RangeError(
+      `P(hit ${level}) needs the level to be watched during the run; this run did not keep running extremes`,
+    );
+  }
   for (let p = 0; p < result.paths; p++) {
     if (lost(result, p)) continue;
     live[p] = 1;
@@ -289,6 +294,14 @@ export function hits(
     }
   }
   return { hit, live, watch };
+}
+
+/** Whether the run kept running extremes (a plan with recordExtremes: false leaves them NaN). */
+function extremesRecorded(result: SimulationResult, state: number): boolean {
+  for (let p = 0; p < result.paths; p++) {
+    if (!lost(result, p)) return !Number.isNaN(result.runningMax[state]![p]!);
+  }
+  return true;
 }
 
 function firstPassage(result: SimulationResult, probe: ProbeRequest): ProbeEstimate {

@@ -1,5 +1,6 @@
 import type { Method } from '../sheet/document';
 import type { WatchSpec } from './plan';
+import type { KernelName } from './wasm/kernel-choice';
 
 /**
  * Output types of the engine. A `ChunkResult` is what one worker returns for a contiguous range
@@ -45,6 +46,10 @@ export interface ChunkResult {
   absorptionTime: Float64Array;
   blowupTime: Float64Array;
   lossCause: Uint8Array;
+  /** The kernel that simulated the chunk (both give the same bits; see shared/engine/wasm). */
+  kernel: KernelName;
+  /** Why the wasm kernel was not used, when it was asked for or chosen automatically. */
+  kernelNote?: string;
 }
 
 export interface SimulationHooks {
@@ -202,6 +207,10 @@ export interface SimulationResult {
   stability: StabilityReport | null;
   /** FNV-1a 64 over every number the run reports (hex, 16 digits; see run-digest.ts for the order). */
   digest: string;
+  /** The kernel that ran (the wasm one where any chunk ran on it); the numbers are the same. */
+  kernel: KernelName;
+  /** Why the wasm kernel was not used, when it was not. */
+  kernelNote?: string;
 }
 
 export interface ProbeRequest {

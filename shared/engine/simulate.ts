@@ -10,6 +10,9 @@ import {
   type KernelContext,
 } from './kernel';
 import { mergeChunks } from './merge';
+import { kernelChoice, unknownPlanFields, wasmSimdAvailable } from './wasm/kernel-choice';
+import { compileWasmKernel, simulateChunkWasm } from './wasm/simulate-wasm';
+import { Refused, Unsupported } from './wasm/source-tree';
 
 /** Aim for batches of about this much wall time between hook checks (cancel lands within 200 ms). */
 const BATCH_TARGET_MS = 15;
@@ -60,7 +63,38 @@ export function allocateChunk(
     absorptionTime: new Float64Array(d * pathCount),
     blowupTime: new Float64Array(pathCount),
     lossCause: new Uint8Array(pathCount),
+    kernel: 'js',
   };
+}
+
+/**
+ * The plan without its input form (ModelSpec.inputForm, a sweep's or scenario's parameters as
+ * kernel inputs): its drift and diffusion already hold this point's values as literals, which
+ * give the same bits (tests/unit/sweep/kernel-inputs.test.ts), and the wasm kernel reuses one
+ * compiled module for plans that differ only in numbers, so it needs no input form of its own.
+ */
+function literalForm(plan: SimulationPlan): SimulationPlan {
+  if (plan.model.inputForm === undefined) return plan;
+  const { inputForm: _inputs, ...model } = plan.model;
+  return { ...plan, model };
+}
+
+/**
+ * Why this plan cannot run on the wasm kernel here, or null when it can (kernel-choice.ts).
+ * Anything the wasm kernel does not support runs on the JavaScript kernel instead.
+ */
+function wasmFallbackReason(plan: SimulationPlan, layout: PlanLayout): string | null {
+  if (!wasmSimdAvailable()) return 'this browser has no WebAssembly SIMD';
+  const fields = unknownPlanFields(plan);
+  if (fields.length > 0) return `the wasm kernel does not know ${fields.join(', ')}`;
+  try {
+    compileWasmKernel(plan, layout);
+    return null;
+  } catch (error) {
+    if (error instanceof Refused) return error.message;
+    if (error instanceof Unsupported) return `the wasm kernel does not support this model: ${error.message}`;
+    throw error;
+  }
 }
 
 /**
@@ -80,8 +114,23 @@ export function simulateChunk(
   if (!Number.isInteger(pathCount) || pathCount < 0)
     throw new RangeError(`pathCount must be a non-negative integer, got ${pathCount}`);
   const layout = planLayout(plan);
-  const kernel = compileKernel(plan, layout);
   const chunk = allocateChunk(plan, layout, firstPath, pathCount);
+  if (kernelChoice() !== 'js') {
+    const wasmPlan = literalForm(plan);
+    const reason = wasmFallbackReason(wasmPlan, layout);
+    try {
+      if (reason === null) {
+        simulateChunkWasm(wasmPlan, layout, chunk, hooks);
+        chunk.kernel = 'wasm';
+        return chunk;
+      }
+      chunk.kernelNote = reason;
+    } catch (error) {
+      if (!(error instanceof Unsupported)) throw error;
+      chunk.kernelNote = error.message;
+    }
+  }
+  const kernel = compileKernel(plan, layout);
   const probeStepsSorted = new Int32Array(layout.probeOrder.length);
   layout.probeOrder.forEach((j, q) => (probeStepsSorted[q] = j < 0 ? -1 : layout.probeSteps[j]!));
   const ctx: KernelContext = {

@@ -85,6 +85,9 @@ export interface SimulationJson {
   stability: StabilityOutput | null;
   digest: string;
   engineVersion: number;
+  /** The kernel that ran (the same numbers either way), and why not wasm when it was not. */
+  kernel: 'js' | 'wasm';
+  kernelNote?: string;
 }
 
 export interface ProbeJson {
@@ -242,6 +245,8 @@ function simulationJson(id: string, result: SimulationResult, engineVersion: num
           },
     digest: result.digest,
     engineVersion,
+    kernel: result.kernel,
+    ...(result.kernelNote === undefined ? {} : { kernelNote: result.kernelNote }),
   };
 }
 

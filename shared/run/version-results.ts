@@ -114,6 +114,8 @@ const simulationSummarySchema = z.object({
   extinctions: z.array(extinctionSchema).max(16),
   stability: stabilitySchema.nullable(),
   digest: z.string().min(1).max(200),
+  /** The kernel that ran (absent in summaries saved before the wasm kernel: JavaScript). */
+  kernel: z.enum(['js', 'wasm']).optional(),
 });
 
 const probeSummarySchema = z.object({
@@ -287,6 +289,7 @@ function summariseSimulation(
         }
       : null,
     digest: result.digest,
+    kernel: result.kernel,
   };
 }
 
@@ -463,6 +466,7 @@ function restoredSimulation(summary: SimulationSummary): SimulationResult {
         }
       : null,
     digest: summary.digest,
+    kernel: summary.kernel ?? 'js',
   };
 }
 

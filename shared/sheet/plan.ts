@@ -51,6 +51,8 @@ export function buildSimulationPlan(
         (Object.hasOwn(sim.boundaries, s.name) ? sim.boundaries[s.name] : undefined) ?? { rule: 'none' },
     ),
     blowupBound: sim.blowupBound ?? null,
+    // No cell reads running extremes: a probe of hitting a level asks for a watch of it.
+    recordExtremes: false,
     probeTimes: asks.times,
     watches: asks.watches,
   };

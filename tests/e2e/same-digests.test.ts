@@ -19,7 +19,7 @@ describe('the page in Chromium and the command-line runner', () => {
     await browser?.close();
   });
 
-  it('give the same digest for each simulation of an example sheet', async () => {
+  it('give the same digest for each simulation of an example sheet, on the wasm kernel', async () => {
     const doc = scaleSheetPaths(findExampleSheet('grazing-two-species')!.document, 0.1);
     const threads = createThreadPool(2);
     const runner = await runSheetToJson(doc, threads.executor).finally(() => threads.close());
@@ -48,6 +48,9 @@ describe('the page in Chromium and the command-line runner', () => {
       const digests = page.locator('.summary-line code.digest');
       await expect.poll(() => digests.count(), { timeout: 60_000 }).toBe(expected.length);
       expect(await digests.allInnerTexts()).toEqual(expected);
+      // The worker compiled and ran the wasm kernel under its CSP (no fallback to JavaScript).
+      const kernels = await page.locator('.summary-line .kernel').allInnerTexts();
+      expect(kernels).toEqual(expected.map(() => 'WebAssembly SIMD kernel'));
     });
     expect(errors).toEqual([]);
     await context.close();

@@ -71,6 +71,7 @@ describe('serving the built client', () => {
     const csp = response.headers['content-security-policy'];
     expect(csp).toContain("script-src 'self'");
     expect(csp).not.toContain('unsafe-eval');
+    expect(csp).not.toContain('wasm-unsafe-eval');
     expect(csp).toContain("frame-ancestors 'none'");
     expect(csp).toContain("object-src 'none'");
     expect(response.headers['x-content-type-options']).toBe('nosniff');
@@ -80,7 +81,9 @@ describe('serving the built client', () => {
   it("gives worker scripts a policy that allows the engine's generated code", async () => {
     const worker = await context.anonymous().get('/assets/simulation.worker-def456.js');
     expect(worker.status).toBe(200);
-    expect(worker.headers['content-security-policy']).toMatch(/script-src 'self' 'unsafe-eval'/);
+    expect(worker.headers['content-security-policy']).toMatch(
+      /script-src 'self' 'unsafe-eval' 'wasm-unsafe-eval'/,
+    );
     const page = await context.anonymous().get('/assets/index-abc123.js');
     expect(page.headers['content-security-policy']).not.toContain('unsafe-eval');
   });

@@ -193,6 +193,7 @@ export function fakeRun(options: { paths?: number; samplePaths?: number; saveCou
     extinctions: [],
     stability: null,
     digest: '0123456789abcdef',
+    kernel: 'js',
   };
   return { plan, result };
 }

@@ -177,6 +177,29 @@ describe('SimulationCell output', () => {
     expect(summary.text()).toContain('0123456789abcdef');
     // Final mean of the fixture: 2.5 + 10 · 0.01.
     expect(summary.text()).toContain('2.6');
+    expect(summary.text()).toContain('KernelJavaScript');
+  });
+
+  it('says which kernel ran, and why not the WebAssembly one when it fell back', () => {
+    const sheet = reservoirSheet();
+    const wasm = simulationOutput();
+    if (wasm.kind !== 'simulation') throw new Error('fixture');
+    wasm.result.kernel = 'wasm';
+    const fast = mount(SimulationCell, {
+      props: editorProps(sheet, cellOf(sheet, 'level-run', 'simulation'), { 'level-run': wasm }),
+    });
+    mounted.push(fast);
+    expect(fast.find('[aria-label="Simulation summary"]').text()).toContain('KernelWebAssembly SIMD');
+    const fallback = simulationOutput();
+    if (fallback.kind !== 'simulation') throw new Error('fixture');
+    fallback.result.kernelNote = 'this browser has no WebAssembly SIMD';
+    const slow = mount(SimulationCell, {
+      props: editorProps(sheet, cellOf(sheet, 'level-run', 'simulation'), { 'level-run': fallback }),
+    });
+    mounted.push(slow);
+    expect(slow.find('[aria-label="Simulation summary"]').text()).toContain(
+      'This run used the JavaScript kernel (same numbers, slower): this browser has no WebAssembly SIMD.',
+    );
   });
 });
 

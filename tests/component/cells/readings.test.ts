@@ -97,7 +97,7 @@ describe('ParamsReading', () => {
 });
 
 describe('SimulationReading', () => {
-  it('sums a simulation up in one line: model, method, step, span, paths, seed and digest', () => {
+  it('sums a simulation up in one line: model, method, step, span, paths, seed, digest and kernel', () => {
     const sheet = reservoirSheet();
     const { plan, result } = fakeRun();
     const wrapper = mount(SimulationReading, {
@@ -108,7 +108,7 @@ describe('SimulationReading', () => {
     mounted.push(wrapper);
     const line = wrapper.get('.summary-line').text().replace(/\s+/g, ' ');
     expect(line).toBe(
-      `Reservoir level · Euler–Maruyama · h = 0.01 (3,000 steps) · t from 0 to 30 · 20,000 paths · seed 8812 · digest ${result.digest}`,
+      `Reservoir level · Euler–Maruyama · h = 0.01 (3,000 steps) · t from 0 to 30 · 20,000 paths · seed 8812 · digest ${result.digest} · JavaScript kernel`,
     );
   });
 

@@ -8,11 +8,20 @@ describe('runner arguments', () => {
       file: 'sheet.json',
       workers: 3,
       pathsScale: 0.25,
+      kernel: 'auto',
     });
     expect(parseArguments(['run', '--workers=1', 'a.json'])).toMatchObject({
       file: 'a.json',
       workers: 1,
       pathsScale: null,
+    });
+  });
+
+  it('reads the kernel choice for run and verify', () => {
+    expect(parseArguments(['run', 'a.json', '--kernel', 'wasm'])).toMatchObject({ kernel: 'wasm' });
+    expect(parseArguments(['run', 'a.json', '--kernel=js'])).toMatchObject({ kernel: 'js' });
+    expect(parseArguments(['verify', 'a.json', '--digests', 'd.json', '--kernel', 'auto'])).toMatchObject({
+      kernel: 'auto',
     });
   });
 
@@ -30,6 +39,8 @@ describe('runner arguments', () => {
     [['run', 'a.json', '--workers', '2.5'], /positive whole number/],
     [['run', 'a.json', '--paths-scale', '-1'], /--paths-scale must be a positive number/],
     [['run', 'a.json', '--fast'], /unknown option "--fast"/],
+    [['run', 'a.json', '--kernel', 'gpu'], /--kernel must be js, wasm or auto, got "gpu"/],
+    [['run', 'a.json', '--kernel'], /--kernel must be js, wasm or auto/],
   ])('rejects %j with a usage error', (argv, message) => {
     expect(() => parseArguments(argv)).toThrow(UsageError);
     expect(() => parseArguments(argv)).toThrow(message);

@@ -89,6 +89,8 @@ const simulationOutput = z
       .nullable(),
     digest: z.string().regex(/^[0-9a-f]{16}$/),
     engineVersion: z.number().int().min(1),
+    kernel: z.enum(['js', 'wasm']),
+    kernelNote: z.string().optional(),
   })
   .strict();
 const probeOutput = z
@@ -239,6 +241,24 @@ describe('sheet run (command line)', () => {
     expect(sim(one.stdout)).toBeDefined();
     expect(sim(one.stdout)).toEqual(sim(two.stdout));
     expect(JSON.parse(one.stdout)).toEqual(JSON.parse(two.stdout));
+  });
+
+  it('gives the same digest on the wasm kernel and the JavaScript kernel, and says which ran', async () => {
+    const wasm = await runCli([
+      'run',
+      fixture('small-relaxation.json'),
+      '--workers',
+      '1',
+      '--kernel',
+      'wasm',
+    ]);
+    const js = await runCli(['run', fixture('small-relaxation.json'), '--workers', '1', '--kernel', 'js']);
+    const sim = (stdout: string) =>
+      runOutput.parse(JSON.parse(stdout)).cells.find((c) => c.kind === 'simulation') as
+        { kernel: string; digest: string } | undefined;
+    expect(sim(wasm.stdout)?.kernel).toBe('wasm');
+    expect(sim(js.stdout)?.kernel).toBe('js');
+    expect(sim(wasm.stdout)?.digest).toBe(sim(js.stdout)?.digest);
   });
 
   it('exits 1 on an invalid sheet, naming the cell and the field on stderr, with nothing on stdout', async () => {

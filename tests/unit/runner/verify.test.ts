@@ -31,7 +31,7 @@ async function verify(digests: unknown) {
   const file = path.join(dir, `digests-${Math.random().toString(36).slice(2)}.json`);
   await writeFile(file, JSON.stringify(digests));
   return verifyCommand(
-    { command: 'verify', file: sheetFile, digests: file, workers: 1 },
+    { command: 'verify', file: sheetFile, digests: file, workers: 1, kernel: 'auto' },
     inProcessExecutor(),
   );
 }
@@ -43,6 +43,7 @@ describe('sheet verify', () => {
       file: 'a.json',
       digests: 'd.json',
       workers: null,
+      kernel: 'auto',
     });
     expect(() => parseArguments(['verify', 'a.json'])).toThrow(UsageError);
   });

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { simulate } from '@shared/engine/simulate';
+import { setKernelChoice, wasmSimdAvailable } from '@shared/engine/wasm/kernel-choice';
 import { buildSimulationPlan, varyingParameters } from '@shared/sheet/plan';
 import { inProcessExecutor } from '@shared/run/environments';
 import { runSheet } from '@shared/run/run-sheet';
@@ -46,6 +47,24 @@ describe('kernel inputs (ModelSpec.inputForm)', () => {
     }
     // Both points share one input-form source, so one compiled kernel serves both.
     expect(sources.size).toBe(1);
+  });
+
+  it("runs a point with kernel inputs on the wasm kernel, with the JavaScript kernel's bits", () => {
+    // Node 20 has WebAssembly SIMD; without it this test would have nothing to compare.
+    expect(wasmSimdAvailable()).toBe(true);
+    const overrides = { h: 0.2, N0: 50 };
+    const plan = buildSimulationPlan(doc, 'sim', { overrides, inputNames: ['h', 'N0'] });
+    try {
+      setKernelChoice('js');
+      const js = simulate(plan);
+      setKernelChoice('wasm');
+      const wasm = simulate(plan);
+      expect(js.kernel).toBe('js');
+      expect(wasm.kernel).toBe('wasm');
+      expect(wasm.digest).toBe(js.digest);
+    } finally {
+      setKernelChoice('auto');
+    }
   });
 
   it('runs a sweep point as the same run as a simulation with that override', async () => {

@@ -1,0 +1,456 @@
+/**
+ * A small WebAssembly binary emitter for the subset the simulation kernel needs: one memory
+ * (imported), imported functions, internal functions with i32/f64/v128 locals, structured
+ * control flow with named labels, and the SIMD instructions listed in `SIMD`. No text format and
+ * no assembler: the kernel builder calls these methods directly (Core Specification 2.0, §5).
+ */
+
+export const I32 = 0x7f;
+export const F64 = 0x7c;
+export const V128 = 0x7b;
+export type ValueType = typeof I32 | typeof F64 | typeof V128;
+
+/** Core opcodes used by the kernel (one byte each). */
+export const OP = {
+  block: 0x02,
+  loop: 0x03,
+  if: 0x04,
+  else: 0x05,
+  end: 0x0b,
+  br: 0x0c,
+  brIf: 0x0d,
+  return: 0x0f,
+  call: 0x10,
+  drop: 0x1a,
+  select: 0x1b,
+  localGet: 0x20,
+  localSet: 0x21,
+  localTee: 0x22,
+  i32Load: 0x28,
+  f64Load: 0x2b,
+  i32Store: 0x36,
+  f64Store: 0x39,
+  i32Store8: 0x3a,
+  i32Const: 0x41,
+  f64Const: 0x44,
+  i32Eqz: 0x45,
+  i32Eq: 0x46,
+  i32Ne: 0x47,
+  i32LtS: 0x48,
+  i32GtS: 0x4a,
+  i32LeS: 0x4c,
+  i32GeS: 0x4e,
+  f64Eq: 0x61,
+  f64Ne: 0x62,
+  f64Lt: 0x63,
+  f64Gt: 0x64,
+  f64Le: 0x65,
+  f64Ge: 0x66,
+  i32Add: 0x6a,
+  i32Sub: 0x6b,
+  i32Mul: 0x6c,
+  i32And: 0x71,
+  i32Or: 0x72,
+  i32Xor: 0x73,
+  i32Shl: 0x74,
+  i32ShrS: 0x75,
+  i32ShrU: 0x76,
+  i32Rotl: 0x77,
+  i32Ctz: 0x68,
+  i64Or: 0x84,
+  i64Shl: 0x86,
+  i64ShrU: 0x88,
+  i64And: 0x83,
+  i64Sub: 0x7d,
+  i64Add: 0x7c,
+  i64Eq: 0x51,
+  i64Const: 0x42,
+  f64Abs: 0x99,
+  f64Neg: 0x9a,
+  f64Floor: 0x9c,
+  f64Trunc: 0x9d,
+  f64Sqrt: 0x9f,
+  f64Add: 0xa0,
+  f64Sub: 0xa1,
+  f64Mul: 0xa2,
+  f64Div: 0xa3,
+  i32WrapI64: 0xa7,
+  f64ConvertI32S: 0xb7,
+  f64ConvertI32U: 0xb8,
+  f64ConvertI64S: 0xb9,
+  i64ExtendI32S: 0xac,
+  i64ExtendI32U: 0xad,
+  i32TruncF64S: 0xaa,
+  i64ReinterpretF64: 0xbd,
+  f64ReinterpretI64: 0xbf,
+} as const;
+
+/** SIMD opcodes (after the 0xfd prefix). */
+export const SIMD = {
+  v128Load: 0x00,
+  v128Store: 0x0b,
+  v128Const: 0x0c,
+  i8x16Shuffle: 0x0d,
+  i32x4Splat: 0x11,
+  i64x2Splat: 0x12,
+  f64x2Splat: 0x14,
+  i32x4ExtractLane: 0x1b,
+  i32x4ReplaceLane: 0x1c,
+  i64x2ExtractLane: 0x1d,
+  f64x2ExtractLane: 0x21,
+  f64x2ReplaceLane: 0x22,
+  i32x4Eq: 0x37,
+  f64x2Eq: 0x47,
+  f64x2Ne: 0x48,
+  f64x2Lt: 0x49,
+  f64x2Gt: 0x4a,
+  f64x2Le: 0x4b,
+  f64x2Ge: 0x4c,
+  v128Not: 0x4d,
+  v128And: 0x4e,
+  v128AndNot: 0x4f,
+  v128Or: 0x50,
+  v128Xor: 0x51,
+  v128Bitselect: 0x52,
+  v128AnyTrue: 0x53,
+  f64x2Ceil: 0x74,
+  f64x2Floor: 0x75,
+  i32x4AllTrue: 0xa3,
+  i32x4Shl: 0xab,
+  i32x4ShrU: 0xad,
+  i32x4Add: 0xae,
+  i32x4Mul: 0xb5,
+  i64x2AllTrue: 0xc3,
+  i64x2Bitmask: 0xc4,
+  i64x2Eq: 0xd6,
+  f64x2Abs: 0xec,
+  f64x2Neg: 0xed,
+  f64x2Sqrt: 0xef,
+  f64x2Add: 0xf0,
+  f64x2Sub: 0xf1,
+  f64x2Mul: 0xf2,
+  f64x2Div: 0xf3,
+  f64x2Min: 0xf4,
+  f64x2Max: 0xf5,
+  f64x2Pmin: 0xf6,
+  f64x2Pmax: 0xf7,
+  f64x2ConvertLowI32x4S: 0xfe,
+  f64x2ConvertLowI32x4U: 0xff,
+  i32x4TruncSatF64x2SZero: 0xfc,
+  i64x2ExtendLowI32x4S: 0xc7,
+  i64x2Add: 0xce,
+  i64x2Shl: 0xcb,
+  i64x2Ne: 0xd7,
+  f64x2Trunc: 0x7a,
+} as const;
+
+class Bytes {
+  readonly out: number[] = [];
+  byte(b: number): this {
+    this.out.push(b & 0xff);
+    return this;
+  }
+  u32(value: number): this {
+    let v = value >>> 0;
+    do {
+      let b = v & 0x7f;
+      v >>>= 7;
+      if (v !== 0) b |= 0x80;
+      this.out.push(b);
+    } while (v !== 0);
+    return this;
+  }
+  s32(value: number): this {
+    let v = value | 0;
+    for (;;) {
+      const b = v & 0x7f;
+      v >>= 7;
+      const done = (v === 0 && (b & 0x40) === 0) || (v === -1 && (b & 0x40) !== 0);
+      this.out.push(done ? b : b | 0x80);
+      if (done) return this;
+    }
+  }
+  /** Signed LEB128 of a 64-bit value given as a bigint. */
+  s64(value: bigint): this {
+    let v = BigInt.asIntN(64, value);
+    for (;;) {
+      const b = Number(v & 0x7fn);
+      v >>= 7n;
+      const done = (v === 0n && (b & 0x40) === 0) || (v === -1n && (b & 0x40) !== 0);
+      this.out.push(done ? b : b | 0x80);
+      if (done) return this;
+    }
+  }
+  f64(value: number): this {
+    const view = new DataView(new ArrayBuffer(8));
+    view.setFloat64(0, value, true);
+    for (let i = 0; i < 8; i++) this.out.push(view.getUint8(i));
+    return this;
+  }
+  bytes(list: ArrayLike<number>): this {
+    for (let i = 0; i < list.length; i++) this.out.push(list[i]! & 0xff);
+    return this;
+  }
+  vec(items: number[][]): this {
+    this.u32(items.length);
+    for (const item of items) this.bytes(item);
+    return this;
+  }
+  name(text: string): this {
+    const encoded = new TextEncoder().encode(text);
+    return this.u32(encoded.length).bytes(encoded);
+  }
+}
+
+/** Memory argument: natural alignment (log2 bytes) and a constant offset. */
+function memarg(b: Bytes, align: number, offset: number): void {
+  b.u32(align).u32(offset);
+}
+
+/**
+ * The body of one function: locals by name, instructions, and control labels resolved by name
+ * (so `br('segment')` needs no hand-counted depth).
+ */
+export class FunctionBody {
+  private readonly code = new Bytes();
+  private readonly labels: string[] = [];
+  private readonly localTypes: ValueType[] = [];
+  private readonly localIndex = new Map<string, number>();
+
+  constructor(
+    readonly params: readonly [string, ValueType][],
+    readonly results: readonly ValueType[],
+  ) {
+    params.forEach(([name], i) => this.localIndex.set(name, i));
+  }
+
+  local(name: string, type: ValueType): string {
+    if (!this.localIndex.has(name)) {
+      this.localIndex.set(name, this.params.length + this.localTypes.length);
+      this.localTypes.push(type);
+    }
+    return name;
+  }
+
+  private indexOf(name: string): number {
+    const index = this.localIndex.get(name);
+    if (index === undefined) throw new Error(`no local named ${name}`);
+    return index;
+  }
+
+  get(name: string): this {
+    this.code.byte(OP.localGet).u32(this.indexOf(name));
+    return this;
+  }
+  set(name: string): this {
+    this.code.byte(OP.localSet).u32(this.indexOf(name));
+    return this;
+  }
+  tee(name: string): this {
+    this.code.byte(OP.localTee).u32(this.indexOf(name));
+    return this;
+  }
+  op(...codes: number[]): this {
+    for (const c of codes) this.code.byte(c);
+    return this;
+  }
+  simd(code: number): this {
+    this.code.byte(0xfd).u32(code);
+    return this;
+  }
+  lane(code: number, laneIndex: number): this {
+    this.simd(code);
+    this.code.byte(laneIndex);
+    return this;
+  }
+  shuffle(lanes: number[]): this {
+    this.simd(SIMD.i8x16Shuffle);
+    this.code.bytes(lanes);
+    return this;
+  }
+  i32(value: number): this {
+    this.code.byte(OP.i32Const).s32(value);
+    return this;
+  }
+  i64(value: bigint): this {
+    this.code.byte(OP.i64Const).s64(value);
+    return this;
+  }
+  f64(value: number): this {
+    this.code.byte(OP.f64Const).f64(value);
+    return this;
+  }
+  /** A v128 constant with both f64 lanes equal to `value`. */
+  f64x2(value: number): this {
+    this.simd(SIMD.v128Const);
+    this.code.f64(value).f64(value);
+    return this;
+  }
+  /** A v128 constant from 16 bytes. */
+  v128(bytes: number[]): this {
+    this.simd(SIMD.v128Const);
+    this.code.bytes(bytes);
+    return this;
+  }
+  load(opcode: number, align: number, offset = 0): this {
+    this.code.byte(opcode);
+    memarg(this.code, align, offset);
+    return this;
+  }
+  store(opcode: number, align: number, offset = 0): this {
+    return this.load(opcode, align, offset);
+  }
+  v128Load(offset = 0): this {
+    this.simd(SIMD.v128Load);
+    memarg(this.code, 3, offset);
+    return this;
+  }
+  v128Store(offset = 0): this {
+    this.simd(SIMD.v128Store);
+    memarg(this.code, 3, offset);
+    return this;
+  }
+  call(functionIndex: number): this {
+    this.code.byte(OP.call).u32(functionIndex);
+    return this;
+  }
+
+  /** `block label … end`; `result` is a block type (0x40 for none). */
+  block(label: string, body: () => void, result = 0x40): this {
+    this.code.byte(OP.block).byte(result);
+    this.labels.push(label);
+    body();
+    this.labels.pop();
+    this.code.byte(OP.end);
+    return this;
+  }
+  loop(label: string, body: () => void): this {
+    this.code.byte(OP.loop).byte(0x40);
+    this.labels.push(label);
+    body();
+    this.labels.pop();
+    this.code.byte(OP.end);
+    return this;
+  }
+  /** `if … [else …] end` on the i32 on the stack. */
+  if(then: () => void, otherwise?: () => void, result = 0x40): this {
+    this.code.byte(OP.if).byte(result);
+    this.labels.push('');
+    then();
+    if (otherwise) {
+      this.code.byte(OP.else);
+      otherwise();
+    }
+    this.labels.pop();
+    this.code.byte(OP.end);
+    return this;
+  }
+  private depth(label: string): number {
+    const at = this.labels.lastIndexOf(label);
+    if (at < 0) throw new Error(`no enclosing label ${label}`);
+    return this.labels.length - 1 - at;
+  }
+  br(label: string): this {
+    this.code.byte(OP.br).u32(this.depth(label));
+    return this;
+  }
+  /** `br_table`: to labels[i] for i on the stack, else to `otherwise`. */
+  brTable(labels: string[], otherwise: string): this {
+    this.code.byte(0x0e).u32(labels.length);
+    for (const label of labels) this.code.u32(this.depth(label));
+    this.code.u32(this.depth(otherwise));
+    return this;
+  }
+  brIf(label: string): this {
+    this.code.byte(OP.brIf).u32(this.depth(label));
+    return this;
+  }
+
+  encode(): number[] {
+    const b = new Bytes();
+    // Locals, run-length encoded by type.
+    const groups: [number, ValueType][] = [];
+    for (const type of this.localTypes) {
+      const last = groups[groups.length - 1];
+      if (last && last[1] === type) last[0]++;
+      else groups.push([1, type]);
+    }
+    b.u32(groups.length);
+    for (const [count, type] of groups) b.u32(count).byte(type);
+    b.bytes(this.code.out).byte(OP.end);
+    const body = new Bytes();
+    body.u32(b.out.length).bytes(b.out);
+    return body.out;
+  }
+}
+
+interface Signature {
+  params: ValueType[];
+  results: ValueType[];
+}
+
+/** A module: imported memory and functions first, then the internal functions, some exported. */
+export class ModuleBuilder {
+  private readonly types: Signature[] = [];
+  private readonly imports: { module: string; name: string; type: number }[] = [];
+  private readonly functions: { type: number; body: FunctionBody | null; exportName?: string }[] = [];
+  private sealedImports = false;
+
+  private typeIndex(sig: Signature): number {
+    const key = JSON.stringify(sig);
+    const found = this.types.findIndex((t) => JSON.stringify(t) === key);
+    if (found >= 0) return found;
+    this.types.push(sig);
+    return this.types.length - 1;
+  }
+
+  /** Imports a function (all imports come before any internal function); returns its index. */
+  importFunction(module: string, name: string, params: ValueType[], results: ValueType[]): number {
+    if (this.sealedImports) throw new Error('imports must come before internal functions');
+    this.imports.push({ module, name, type: this.typeIndex({ params, results }) });
+    return this.imports.length - 1;
+  }
+
+  /** Declares an internal function (its body may be filled in later); returns its index. */
+  declareFunction(params: ValueType[], results: ValueType[], exportName?: string): number {
+    this.sealedImports = true;
+    this.functions.push({ type: this.typeIndex({ params, results }), body: null, exportName });
+    return this.imports.length + this.functions.length - 1;
+  }
+
+  define(index: number, body: FunctionBody): void {
+    this.functions[index - this.imports.length]!.body = body;
+  }
+
+  encode(): Uint8Array<ArrayBuffer> {
+    const out = new Bytes().bytes([0x00, 0x61, 0x73, 0x6d, 0x01, 0x00, 0x00, 0x00]);
+    const section = (id: number, content: Bytes): void => {
+      out.byte(id).u32(content.out.length).bytes(content.out);
+    };
+    const types = new Bytes().u32(this.types.length);
+    for (const t of this.types) {
+      types.byte(0x60).u32(t.params.length).bytes(t.params).u32(t.results.length).bytes(t.results);
+    }
+    section(1, types);
+    const imports = new Bytes().u32(this.imports.length + 1);
+    imports.name('env').name('memory').byte(0x02).byte(0x00).u32(1);
+    for (const imp of this.imports) imports.name(imp.module).name(imp.name).byte(0x00).u32(imp.type);
+    section(2, imports);
+    const funcs = new Bytes().u32(this.functions.length);
+    for (const f of this.functions) funcs.u32(f.type);
+    section(3, funcs);
+    const exported = this.functions
+      .map((f, i) => ({ name: f.exportName, index: this.imports.length + i }))
+      .filter((e): e is { name: string; index: number } => e.name !== undefined);
+    const exports = new Bytes().u32(exported.length);
+    for (const e of exported) exports.name(e.name).byte(0x00).u32(e.index);
+    section(7, exports);
+    const code = new Bytes().u32(this.functions.length);
+    for (const f of this.functions) {
+      if (f.body === null) throw new Error('a declared function has no body');
+      code.bytes(f.body.encode());
+    }
+    section(10, code);
+    return new Uint8Array(out.out);
+  }
+}

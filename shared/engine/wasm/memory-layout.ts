@@ -1,0 +1,84 @@
+/**
+ * Where a wasm kernel instance keeps things in its memory. Fixed at the front: the ziggurat's
+ * fast table as (wn, kn²) pairs, then a header of base offsets the kernel reads once per call,
+ * the alive mask, the rare branch's scratch, the fn tables, a group's state between calls and
+ * the constant pool. Then, sized by the chunk: step lists, per-group seeds and the outputs, with
+ * the path count padded to a multiple of four (one SIMD group) and each output laid out as in
+ * result.ts with that padded count.
+ */
+export const TABLE_OFFSET = 0;
+export const HEADER_OFFSET = 2064;
+export const HEADER_FIELDS = [
+  'paddedPaths',
+  'saveSteps',
+  'probeSteps',
+  'probeOrder',
+  'seeds',
+  'saved',
+  'probeValues',
+  'runningMax',
+  'runningMin',
+  'firstPassage',
+  'absorptionTime',
+  'lossTime',
+  'lossCause',
+] as const;
+export type HeaderField = (typeof HEADER_FIELDS)[number];
+/** The mask of lanes still alive in the current group (two v128), kept in memory: it is read only off the hot loop. */
+export const ALIVE_OFFSET = HEADER_OFFSET + 4 * 16;
+/** Constants of the hot loop as f64x2 pairs, loaded from memory rather than rebuilt each step. */
+export const POOL_OFFSET = 8192;
+/** The ziggurat's layer mask (127 in every i32 lane). */
+export const MASK_OFFSET = ALIVE_OFFSET + 32;
+/** The step a call of the hot loop reached (one i32). */
+export const STEP_OFFSET = MASK_OFFSET + 16;
+/** Scratch of the rare branch: the generator vectors (64 bytes), r (16) and the draw (32). */
+export const COLD_OFFSET = STEP_OFFSET + 16;
+/** The ziggurat's fn table (128 f64). */
+export const FN_OFFSET = COLD_OFFSET + 112;
+/** A group's vectors between calls of the hot loop (generator state, states, records). */
+export const STATE_OFFSET = FN_OFFSET + 1024;
+export const STATE_VECTORS = Math.floor((POOL_OFFSET - STATE_OFFSET) / 16);
+export const POOL_SIZE = 256;
+/** The ziggurat's (fn[i], fn[i − 1]) pairs for the wedge test on four lanes (i ≥ 1). */
+export const FN_PAIRS_OFFSET = POOL_OFFSET + 16 * POOL_SIZE;
+const DATA_OFFSET = FN_PAIRS_OFFSET + 16 * 128;
+
+export interface MemoryLayout {
+  bytes: number;
+  offsets: Record<HeaderField, number>;
+}
+
+export interface LayoutCounts {
+  paddedPaths: number;
+  stateCount: number;
+  saveCount: number;
+  probeCount: number;
+  watchCount: number;
+}
+
+export function memoryLayout(counts: LayoutCounts): MemoryLayout {
+  const { paddedPaths: n, stateCount: d } = counts;
+  let at = DATA_OFFSET;
+  const take = (bytes: number): number => {
+    const start = at;
+    at = Math.ceil((at + bytes) / 16) * 16;
+    return start;
+  };
+  const offsets: Record<HeaderField, number> = {
+    paddedPaths: n,
+    saveSteps: take(4 * (counts.saveCount + 1)),
+    probeSteps: take(4 * (counts.probeCount + 1)),
+    probeOrder: take(4 * (counts.probeCount + 1)),
+    seeds: take(16 * n),
+    saved: take(8 * counts.saveCount * d * n),
+    probeValues: take(8 * counts.probeCount * d * n),
+    runningMax: take(8 * d * n),
+    runningMin: take(8 * d * n),
+    firstPassage: take(8 * counts.watchCount * n),
+    absorptionTime: take(8 * d * n),
+    lossTime: take(8 * n),
+    lossCause: take(n),
+  };
+  return { bytes: at, offsets };
+}

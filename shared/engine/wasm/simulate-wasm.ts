@@ -1,0 +1,250 @@
+import type { SimulationPlan } from '../plan';
+import type { PlanLayout } from '../layout';
+import type { ChunkResult, SimulationHooks } from '../result';
+import { streamSeed } from '../random/stream-seed';
+import { ZIGGURAT_FAST_TABLE, ZIGGURAT_TABLES } from '../random/ziggurat';
+import { PORTABLE_MATH } from '../../expr/portable-math';
+import { buildWasmKernel, type WasmKernelModule } from './kernel-module';
+import { Refused, Unsupported } from './source-tree';
+import {
+  MASK_OFFSET,
+  FN_OFFSET,
+  FN_PAIRS_OFFSET,
+  HEADER_FIELDS,
+  HEADER_OFFSET,
+  memoryLayout,
+  POOL_OFFSET,
+  TABLE_OFFSET,
+} from './memory-layout';
+
+/**
+ * Runs a chunk on the wasm kernel (kernel-module.ts): writes the tables, step lists and per-path
+ * seeds into a fresh memory, calls `run` on batches of groups (hooks between batches, as
+ * simulateChunk does), then copies the outputs into the chunk's own arrays.
+ */
+
+interface Compiled {
+  module: WebAssembly.Module;
+  callOuts: WasmKernelModule['callOuts'];
+  constants: number[];
+}
+
+const modules = new Map<string, WebAssembly.Module>();
+const built = new Map<string, Compiled | Unsupported>();
+const CACHE_SIZE = 8;
+
+/** Small caches, most recent last. */
+function remember<T>(cache: Map<string, T>, key: string, value: T): void {
+  cache.delete(key);
+  cache.set(key, value);
+  if (cache.size > CACHE_SIZE) cache.delete(cache.keys().next().value!);
+}
+
+/** The bytes as a string key (modules are a few kilobytes). */
+function keyOf(bytes: Uint8Array): string {
+  let key = '';
+  for (let i = 0; i < bytes.length; i += 4096)
+    key += String.fromCharCode(...bytes.subarray(i, Math.min(bytes.length, i + 4096)));
+  return key;
+}
+
+/**
+ * Builds and compiles the wasm kernel of a plan (cached by its bytes). Synchronous
+ * `new WebAssembly.Module` is allowed in workers and Node, the only places the engine runs.
+ */
+export function compileWasmKernel(plan: SimulationPlan, layout: PlanLayout): Compiled {
+  // A run is many chunks of one plan (each posted to a worker as a copy): build once per plan.
+  const planKey = JSON.stringify({ ...plan, paths: 0, seed: 0, samplePaths: 0 });
+  const known = built.get(planKey);
+  if (known !== undefined) {
+    if (known instanceof Unsupported) throw known;
+    return known;
+  }
+  let kernel: WasmKernelModule;
+  try {
+    kernel = buildWasmKernel(plan, layout);
+  } catch (error) {
+    if (error instanceof Unsupported) remember(built, planKey, error);
+    throw error;
+  }
+  // The constants live in memory, not in the bytes: plans that differ only in their numbers (a
+  // sweep over a parameter) share one compiled module, each with its own constant pool.
+  const key = keyOf(kernel.bytes);
+  let module = modules.get(key);
+  if (module === undefined) {
+    try {
+      module = new WebAssembly.Module(kernel.bytes);
+    } catch (error) {
+      // A browser whose policy or engine refuses the module: run on JavaScript, and say why.
+      const refused = new Refused(
+        `this JavaScript engine did not compile the wasm kernel (${String(error)})`,
+      );
+      remember(built, planKey, refused);
+      throw refused;
+    }
+  }
+  remember(modules, key, module);
+  const compiled = { module, callOuts: kernel.callOuts, constants: kernel.constants };
+  remember(built, planKey, compiled);
+  return compiled;
+}
+
+const BATCH_TARGET_MS = 15;
+/** The wasm kernel's memory for one chunk at most (the worker pool's chunks need a few MiB). */
+export const MAX_MEMORY_BYTES = 2 ** 30;
+
+/** Bytes of wasm memory a chunk of `pathCount` paths of the plan needs. */
+export function wasmChunkBytes(plan: SimulationPlan, layout: PlanLayout, pathCount: number): number {
+  return memoryLayout({
+    paddedPaths: Math.ceil(pathCount / 4) * 4,
+    stateCount: layout.stateCount,
+    saveCount: plan.saveCount,
+    probeCount: layout.probeSteps.length,
+    watchCount: plan.watches.length,
+  }).bytes;
+}
+const FIRST_BATCH_PATH_STEPS = 100_000;
+
+function now(): number {
+  return typeof performance !== 'undefined' ? performance.now() : Date.now();
+}
+
+/**
+ * Runs the chunk on the wasm kernel; throws Refused, before touching the chunk, when its
+ * memory cannot be had (the caller then runs the JavaScript kernel).
+ */
+export function simulateChunkWasm(
+  plan: SimulationPlan,
+  layout: PlanLayout,
+  chunk: ChunkResult,
+  hooks?: SimulationHooks,
+): void {
+  const compiled = compileWasmKernel(plan, layout);
+  const d = layout.stateCount;
+  const pathCount = chunk.pathCount;
+  const groups = Math.ceil(pathCount / 4);
+  const padded = groups * 4;
+  const probeCount = layout.probeSteps.length;
+  const mem = memoryLayout({
+    paddedPaths: padded,
+    stateCount: d,
+    saveCount: plan.saveCount,
+    probeCount,
+    watchCount: plan.watches.length,
+  });
+  if (mem.bytes > MAX_MEMORY_BYTES)
+    throw new Refused(
+      `the chunk needs ${Math.ceil(mem.bytes / 2 ** 20)} MiB, more than the wasm kernel takes`,
+    );
+  let memory: WebAssembly.Memory;
+  try {
+    memory = new WebAssembly.Memory({ initial: Math.max(1, Math.ceil(mem.bytes / 65536)) });
+  } catch (error) {
+    throw new Refused(`no memory for the wasm kernel (${String(error)})`);
+  }
+  const buffer = memory.buffer;
+  // The fast table as pairs (wn[i], kn²[i]), one 16-byte load per lane.
+  const table = new Float64Array(buffer, TABLE_OFFSET, 256);
+  for (let i = 0; i < 128; i++) {
+    table[2 * i] = ZIGGURAT_FAST_TABLE[i]!;
+    table[2 * i + 1] = ZIGGURAT_FAST_TABLE[128 + i]!;
+  }
+  new Float64Array(buffer, FN_OFFSET, 128).set(ZIGGURAT_TABLES.fn);
+  const fnPairs = new Float64Array(buffer, FN_PAIRS_OFFSET, 256);
+  for (let i = 1; i < 128; i++) {
+    fnPairs[2 * i] = ZIGGURAT_TABLES.fn[i]!;
+    fnPairs[2 * i + 1] = ZIGGURAT_TABLES.fn[i - 1]!;
+  }
+  const pool = new Float64Array(buffer, POOL_OFFSET, 2 * compiled.constants.length);
+  compiled.constants.forEach((value, i) => pool.fill(value, 2 * i, 2 * i + 2));
+  // The ziggurat's layer mask 127 in every i32 lane, after the alive mask.
+  new Int32Array(buffer, MASK_OFFSET, 4).fill(127);
+  const header = new Int32Array(buffer, HEADER_OFFSET, HEADER_FIELDS.length);
+  HEADER_FIELDS.forEach((field, w) => (header[w] = mem.offsets[field]));
+  new Int32Array(buffer, mem.offsets.saveSteps, plan.saveCount + 1).set(layout.saveSteps);
+  const probeSteps = new Int32Array(buffer, mem.offsets.probeSteps, probeCount + 1);
+  layout.probeOrder.forEach((j, q) => (probeSteps[q] = j < 0 ? -1 : layout.probeSteps[j]!));
+  new Int32Array(buffer, mem.offsets.probeOrder, probeCount + 1).set(layout.probeOrder);
+  // Seeds transposed per group: word w of lane l at group·16 + w·4 + l (one i32x4 per word).
+  const seeds = new Uint32Array(buffer, mem.offsets.seeds, 4 * padded);
+  const one = new Uint32Array(4);
+  for (let p = 0; p < padded; p++) {
+    streamSeed(plan.seed, chunk.firstPath + p, one, 0);
+    const group = p >> 2;
+    const lane = p & 3;
+    for (let w = 0; w < 4; w++) seeds[group * 16 + w * 4 + lane] = one[w]!;
+  }
+
+  const lib: Record<string, (...args: number[]) => number> = {};
+  for (const { fn, arity } of compiled.callOuts) {
+    lib[`${fn}/${arity}`] = PORTABLE_MATH[fn as keyof typeof PORTABLE_MATH] as (...args: number[]) => number;
+  }
+  const stop = hooks?.shouldStop;
+  const instance = instantiate(compiled.module, {
+    env: { memory },
+    engine: {
+      shouldStop: () => (stop !== undefined && stop() === true ? 1 : 0),
+    },
+    lib,
+  });
+  const run = instance.exports.run as (g0: number, g1: number) => number;
+
+  const checksHooks = hooks?.shouldStop !== undefined || hooks?.onProgress !== undefined;
+  let batch = checksHooks ? Math.max(1, Math.floor(FIRST_BATCH_PATH_STEPS / plan.steps / 4)) : groups;
+  let done = 0;
+  while (done < groups) {
+    if (hooks?.shouldStop?.() === true) {
+      chunk.cancelled = true;
+      break;
+    }
+    const target = Math.min(groups, done + batch);
+    const started = now();
+    const reached = run(done, target);
+    const elapsed = now() - started;
+    const from = done;
+    done = reached;
+    chunk.pathsDone = Math.min(pathCount, done * 4);
+    if (reached < target) {
+      chunk.cancelled = true;
+      break;
+    }
+    hooks?.onProgress?.(chunk.pathsDone);
+    if (checksHooks) {
+      const perGroup = Math.max(elapsed, 0.01) / (target - from);
+      batch = Math.max(1, Math.min(batch * 4, Math.floor(BATCH_TARGET_MS / perGroup)));
+    }
+  }
+  copyOut(buffer, mem.offsets, padded, chunk);
+}
+
+function instantiate(module: WebAssembly.Module, imports: WebAssembly.Imports): WebAssembly.Instance {
+  try {
+    return new WebAssembly.Instance(module, imports);
+  } catch (error) {
+    throw new Refused(`this JavaScript engine did not instantiate the wasm kernel (${String(error)})`);
+  }
+}
+
+function copyOut(
+  buffer: ArrayBuffer,
+  offsets: ReturnType<typeof memoryLayout>['offsets'],
+  padded: number,
+  chunk: ChunkResult,
+): void {
+  const n = chunk.pathCount;
+  const rows = (target: Float64Array, offset: number): void => {
+    const count = target.length / Math.max(n, 1);
+    const source = new Float64Array(buffer, offset, count * padded);
+    for (let row = 0; row < count; row++)
+      target.set(source.subarray(row * padded, row * padded + n), row * n);
+  };
+  if (n === 0) return;
+  rows(chunk.saved, offsets.saved);
+  rows(chunk.probeValues, offsets.probeValues);
+  rows(chunk.runningMax, offsets.runningMax);
+  rows(chunk.runningMin, offsets.runningMin);
+  rows(chunk.firstPassage, offsets.firstPassage);
+  rows(chunk.absorptionTime, offsets.absorptionTime);
+  rows(chunk.blowupTime, offsets.lossTime);
+  chunk.lossCause.set(new Uint8Array(buffer, offsets.lossCause, n));
+}
