@@ -189,7 +189,8 @@ async function main(): Promise<void> {
       poolScaling: ratio(speed('ou-scalar-pool'), wasm),
     });
     // Its own line: a sweep against separate runs of the same simulation (bench/sweep-case.ts).
-    if (options.cases.includes('sweep-20')) print(await measureSweepCase(options.rounds));
+    if (options.cases.includes('sweep-20'))
+      for (const kernel of ['js', 'wasm'] as const) print(await measureSweepCase(options.rounds, kernel));
   } finally {
     setup?.cleanup();
     await threadPool?.close();

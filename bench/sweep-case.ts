@@ -6,6 +6,7 @@ import { inProcessExecutor } from '../shared/run/environments';
 import { runSheet } from '../shared/run/run-sheet';
 import { buildSimulationPlan, sheetDocumentSchema, type SheetDocument } from '../shared/sheet/index';
 import { median } from './median';
+import { setKernelChoice, type KernelName } from '../shared/engine/wasm/kernel-choice';
 
 /**
  * `sweep-20`: a 20-point sweep of θ of an Ornstein–Uhlenbeck model (one kernel with θ as an
@@ -13,6 +14,11 @@ import { median } from './median';
  * overridden (a literal kernel each, compiled per run), both on the calling thread, each point
  * read by the same probe. Every round changes σ slightly, so that each round compiles afresh as a
  * new sheet would: the sweep once, the separate runs twenty times.
+ *
+ * Measured once per kernel. On the JavaScript kernel the ratio shows the compile the sweep saves.
+ * The wasm kernel reuses one compiled module for plans that differ only in numbers, so separate
+ * runs there compile once too; the ratio then shows what the sweep's own work costs (the base
+ * simulation and probe it reads, the per-path values for paired differences).
  */
 export const SWEEP_POINTS = 20;
 const PATHS = 2000;
@@ -79,7 +85,16 @@ function separateSeconds(doc: SheetDocument): number {
 }
 
 /** Median seconds of both over `rounds` (after one unrecorded round each), and their ratio. */
-export async function measureSweepCase(rounds: number): Promise<Record<string, unknown>> {
+export async function measureSweepCase(rounds: number, kernel: KernelName): Promise<Record<string, unknown>> {
+  setKernelChoice(kernel);
+  try {
+    return await measureBoth(rounds, kernel);
+  } finally {
+    setKernelChoice('auto');
+  }
+}
+
+async function measureBoth(rounds: number, kernel: KernelName): Promise<Record<string, unknown>> {
   await sweepSeconds(sweepSheet(0));
   separateSeconds(sweepSheet(0));
   const sweep: number[] = [];
@@ -92,6 +107,7 @@ export async function measureSweepCase(rounds: number): Promise<Record<string, u
   const separateMedian = median(separate);
   return {
     case: 'sweep-20',
+    kernel,
     points: SWEEP_POINTS,
     paths: PATHS,
     steps: STEPS,
