@@ -96,6 +96,18 @@ describe('SweepCell editor', () => {
     expect(wrapper.emitted('update')).toBeUndefined();
   });
 
+  it('captions the axis fields briefly inside their group and names them in full for a screen reader', () => {
+    const wrapper = mount(SweepCell, { props: props(sweepCell()) });
+    mounted.push(wrapper);
+    const group = wrapper.find('fieldset');
+    expect(group.find('legend').text()).toBe('First parameter');
+    const picker = group.find('select');
+    expect(picker.attributes('aria-label')).toBe('First parameter: parameter');
+    expect(group.find('.cell-picker .field-label').text()).toBe('Parameter');
+    expect(group.find('[role="radiogroup"]').attributes('aria-label')).toBe('First parameter: spacing');
+    expect(group.text()).not.toContain('First parameter: ');
+  });
+
   it('names a parameter that does not exist, in the picker and in the problems, losing nothing', async () => {
     const missing = sweepCell({
       axes: [{ parameter: 'rainfall', spacing: 'linear', from: 1, to: 2, count: 3, values: [] }],
