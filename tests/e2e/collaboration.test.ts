@@ -129,6 +129,8 @@ describe('owner, invitee and admin in Chromium', () => {
       await owner.getByRole('button', { name: 'Share', exact: true }).click();
       // naive-ui's menu options carry no role: choose with the keyboard, as a person can.
       await owner.getByLabel(`Role of ${person.name}`).click();
+      // Keys pressed before the menu is open go nowhere: wait for it.
+      await owner.locator('.n-base-select-menu').waitFor();
       await owner.keyboard.press('ArrowDown');
       await owner.keyboard.press('Enter');
       await expect
