@@ -3,7 +3,7 @@ import { estimateWork } from '../../shared/engine/work';
 import { runSheetToJson } from '../../shared/run/run-sheet';
 import { buildSimulationPlan, type SheetDocument } from '../../shared/sheet/index';
 import { scaleSheetPaths } from '../../shared/run/scale';
-import type { SheetRunJson } from '../../shared/run/outputs';
+import type { SheetRunJson } from '../../shared/run/output-json';
 import type { RunArguments } from './args';
 import { createThreadPool, defaultThreadCount } from './thread-pool';
 import { loadSheetText } from './validate';

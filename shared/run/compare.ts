@@ -1,5 +1,5 @@
 import { ENGINE_VERSION } from '../engine/version';
-import type { SimulationJson } from './outputs';
+import type { SimulationJson } from './output-json';
 
 /**
  * "Rerun and compare": a saved version's simulations against a fresh run of the same document.

@@ -12,7 +12,8 @@ import { buildSimulationPlan, varyingParameters } from '../sheet/plan';
 import { RunCancelledError } from './chunk-pool';
 import type { VersionMoments } from '../api/sheets';
 import { simulationRecord } from './compare';
-import { cellOutputJson, type CellOutput, type SheetRunJson } from './outputs';
+import { type CellOutput } from './outputs';
+import { cellOutputJson, type SheetRunJson } from './output-json';
 import type { RunProgress } from './progress';
 import { planRunSteps, type RunStep } from './steps';
 

@@ -1,4 +1,5 @@
-import { F64, I32, OP, type FunctionBody } from './emitter';
+import type { FunctionBody } from './emitter';
+import { F64, I32, OP } from './opcodes';
 
 /**
  * Scalar wasm ports of the engine's `exp` and `log` (shared/expr/portable-math.ts: stdlib's ports

@@ -5,7 +5,8 @@ import type { PlanLayout } from '../layout';
 import { stepSourceFor } from '../methods';
 import { LOSS_CAUSE_CODES } from '../result';
 import { startsWithinBound } from '../codegen';
-import { F64, FunctionBody, I32, ModuleBuilder, OP, SIMD, V128, type ValueType } from './emitter';
+import { FunctionBody, ModuleBuilder } from './emitter';
+import { F64, I32, OP, SIMD, V128, type ValueType } from './opcodes';
 import { CALLED_OUT, LaneEmitter, type LaneFunctions } from './lanes';
 import {
   ALIVE_OFFSET,

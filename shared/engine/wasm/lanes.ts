@@ -1,4 +1,5 @@
-import { F64, SIMD, V128, type FunctionBody } from './emitter';
+import type { FunctionBody } from './emitter';
+import { F64, SIMD, V128 } from './opcodes';
 import { Unsupported, type TestNode, type ValueNode } from './source-tree';
 import { emitExp, emitLog, PORTED_FUNCTIONS } from './fdlibm';
 

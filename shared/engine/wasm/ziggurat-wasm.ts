@@ -1,4 +1,5 @@
-import { F64, I32, OP, type FunctionBody } from './emitter';
+import type { FunctionBody } from './emitter';
+import { F64, I32, OP } from './opcodes';
 import { emitExp, emitLog } from './fdlibm';
 import { FN_OFFSET, TABLE_OFFSET } from './memory-layout';
 

@@ -6,7 +6,7 @@ import {
   type RerunComparison,
   type SimulationRecord,
 } from '@shared/run/compare';
-import { cellOutputJson } from '@shared/run/outputs';
+import { cellOutputJson } from '@shared/run/output-json';
 import type { SheetDocument } from '@shared/sheet/document';
 import { forkSheet, getVersion, restoreVersion, type SheetDetail } from '@/api/sheets';
 import { errorMessage } from '@/api/http';

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { exampleSheets } from '@shared/examples/index';
 import { inProcessExecutor } from '@shared/run/environments';
-import { cellOutputJson } from '@shared/run/outputs';
+import { cellOutputJson } from '@shared/run/output-json';
 import { runSheet } from '@shared/run/run-sheet';
 import { scaleSheetPaths } from '@shared/run/scale';
 import {

@@ -4,7 +4,7 @@ import { findExampleSheet } from '@shared/examples/index';
 import { inProcessExecutor } from '@shared/run/environments';
 import { runSheetToJson } from '@shared/run/run-sheet';
 import { scaleSheetPaths } from '@shared/run/scale';
-import type { CellOutputJson } from '@shared/run/outputs';
+import type { CellOutputJson } from '@shared/run/output-json';
 
 /**
  * The example sheets' probes against closed forms, run through the whole runner (plan, chunks,

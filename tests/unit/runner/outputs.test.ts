@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { cellOutputJson, type StudyJson } from '@shared/run/outputs';
+import { cellOutputJson, type StudyJson } from '@shared/run/output-json';
 import type { StudyResult } from '@shared/engine/result';
 
 describe('runner outputs', () => {

@@ -4,7 +4,7 @@ import { RunCancelledError } from '@shared/run/chunk-pool';
 import type { RunExecutor } from '@shared/cells/kind';
 import { inProcessExecutor } from '@shared/run/environments';
 import { runSheet, runSheetToJson } from '@shared/run/run-sheet';
-import type { CellOutputJson } from '@shared/run/outputs';
+import type { CellOutputJson } from '@shared/run/output-json';
 import { simulate } from '@shared/engine/simulate';
 import { buildSimulationPlan, sheetDocumentSchema } from '@shared/sheet/index';
 

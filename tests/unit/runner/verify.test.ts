@@ -8,7 +8,7 @@ import { verifyCommand } from '../../../server/cli/verify-command';
 import { inProcessExecutor } from '@shared/run/environments';
 import { runSheetToJson } from '@shared/run/run-sheet';
 import { parseSheetDocument } from '@shared/sheet/upgrade';
-import type { SimulationJson } from '@shared/run/outputs';
+import type { SimulationJson } from '@shared/run/output-json';
 
 /** `sheet verify`, in process (the executor passed in), on the runner's small fixture sheet. */
 const sheetFile = fileURLToPath(new URL('./fixtures/small-relaxation.json', import.meta.url));

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { PORTABLE_MATH } from '@shared/expr/portable-math';
-import { F64, FunctionBody, I32, ModuleBuilder, OP } from '@shared/engine/wasm/emitter';
+import { FunctionBody, ModuleBuilder } from '@shared/engine/wasm/emitter';
+import { F64, I32, OP } from '@shared/engine/wasm/opcodes';
 import { emitExp, emitLog } from '@shared/engine/wasm/fdlibm';
 import { Xoshiro128 } from '@shared/engine/random/xoshiro128';
 
