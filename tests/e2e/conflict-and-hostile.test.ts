@@ -170,7 +170,8 @@ describe('saving from two pages and opening hostile sheets', () => {
         },
       });
       await page.goto(appUrl(`/sheets/${id}`));
-      await page.getByRole('region', { name: 'Cells' }).getByText('Harmless looking.').waitFor();
+      // The note's text shows in its title and, once its reading has loaded, in its body too.
+      await page.getByRole('region', { name: 'Cells' }).getByText('Harmless looking.').first().waitFor();
       // The model cell names its problems, and the sheet cannot be run until they are fixed.
       await page.locator('#run-blocked-reason').waitFor();
       expect(await page.getByRole('button', { name: 'Run all' }).isDisabled()).toBe(true);
