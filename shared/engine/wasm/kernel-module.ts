@@ -10,9 +10,8 @@ import { F64, I32, OP, SIMD, V128, type ValueType } from './opcodes';
 import { CALLED_OUT, LaneEmitter, type LaneFunctions } from './lanes';
 import {
   ALIVE_OFFSET,
-  COLD_OFFSET,
-  FN_PAIRS_OFFSET,
-  MASK_OFFSET,
+  FINISH_OFFSET,
+  FIRST_OUTPUT_OFFSET,
   STATE_OFFSET,
   STATE_VECTORS,
   STEP_OFFSET,
@@ -20,12 +19,12 @@ import {
   HEADER_OFFSET,
   POOL_OFFSET,
   POOL_SIZE,
-  TABLE_OFFSET,
   type HeaderField,
 } from './memory-layout';
 import { parseAssignments, namesRead, Unsupported, type Assignment } from './source-tree';
 import { PORTED_FUNCTIONS } from './fdlibm';
-import { declareSlowNormalLocals, emitSlowNormal, next } from './ziggurat-wasm';
+import { finishLanes } from './ziggurat-wasm';
+import { declareDrawLocals, DrawEmitter } from './draw-wasm';
 
 /**
  * The wasm kernel of a plan: `run(g0, g1)` simulates path groups g0 … g1 − 1 (four paths per
@@ -33,10 +32,10 @@ import { declareSlowNormalLocals, emitSlowNormal, next } from './ziggurat-wasm';
  * was stopped). Paths are simulated four at a time: xoshiro128** on i32x4 (one stream per lane,
  * seeded by the caller exactly as the JavaScript kernel seeds a path), the ziggurat's fast test
  * for four lanes with the table read per lane, and the state as two f64x2 halves per variable.
- * When any lane needs the ziggurat's rare branch the hot loop is left, that draw is finished lane
- * by lane (the rare branch is the engine's own JavaScript `normalSlowPath` on the lane's state),
- * and the step completes outside the loop, as in codegen.ts. A lane that is lost (not a number,
- * infinite, beyond the bound) has its records written at that step and is masked out after.
+ * The draws are draw-wasm.ts: the ziggurat's rare branch runs on four lanes in the loop, except
+ * the base layer's tail, which the hot loop leaves to `finish` (finishLanes in ziggurat-wasm.ts)
+ * and then resumes. A lane that is lost (not a number, infinite, beyond the bound) has its records
+ * written at that step and is masked out after.
  */
 
 /** Imported functions, in import order. */
@@ -55,6 +54,7 @@ const LONG_PATH_STEPS = 1 << 17;
 const HOT_PATH_DONE = 0;
 const HOT_ALL_LOST = 1;
 const HOT_STOP_CHECK = 2;
+const HOT_FINISH_DRAW = 3;
 const STOP_CHECK_MASK = (1 << 16) - 1;
 const HALVES = [0, 1] as const;
 
@@ -126,6 +126,7 @@ export function buildWasmKernel(plan: SimulationPlan, layout: PlanLayout): WasmK
   }
   const runIndex = mod.declareFunction([I32, I32], [I32], 'run');
   const hotIndex = mod.declareFunction([], [I32]);
+  const finishIndex = mod.declareFunction([I32, I32, I32], []);
 
   const runBody = new FunctionBody(
     [
@@ -176,18 +177,14 @@ export function buildWasmKernel(plan: SimulationPlan, layout: PlanLayout): WasmK
     'tn',
     'tEndV',
     'blown',
-    'wn',
-    'kn',
   ];
   const declareLocals = (): void => {
-    declareSlowNormalLocals(f);
-    for (const name of ['g', 'p', 'n', 'k', 'q', 'j', 'end', 'nextSave', 'nextProbe', 'slow', 'hz', 'a'])
+    declareDrawLocals(f);
+    for (const name of ['g', 'p', 'n', 'k', 'q', 'j', 'end', 'nextSave', 'nextProbe', 'a', 'resume'])
       f.local(name, I32);
     for (const field of HEADER_FIELDS) f.local(`base_${field}`, I32);
-    for (let lane = 0; lane < 4; lane++) f.local(`iz${lane}`, I32);
-    for (const name of ['tEnd', 'rfs', 'zs']) f.local(name, F64);
-    for (const name of ['x0', 'x1', 'x2', 'x3', 'r', 'xt', 'rfLo', 'rfHi', 'blownAny', 'rfs2', 'rfs3'])
-      f.local(name, V128);
+    f.local('tEnd', F64);
+    f.local('blownAny', V128);
     for (const name of vectorNames) for (const half of HALVES) f.local(`${name}#${half}`, V128);
   };
   declareLocals();
@@ -290,264 +287,6 @@ export function buildWasmKernel(plan: SimulationPlan, layout: PlanLayout): WasmK
   const probeRow = (): void => {
     loadStep('probeOrder', 'q');
     f.set('j');
-  };
-
-  // --- xoshiro128** on four lanes (xoshiro128.ts XOSHIRO_NEXT_SOURCE) ---
-  const rotl = (name: string, bits: number): void => {
-    f.get(name)
-      .i32(bits)
-      .simd(SIMD.i32x4Shl)
-      .get(name)
-      .i32(32 - bits)
-      .simd(SIMD.i32x4ShrU);
-    f.simd(SIMD.v128Or);
-  };
-  /** v·(2^shift + 1) mod 2^32 per lane, as the shift and add it is (the same bits as Math.imul). */
-  const timesPowerPlusOne = (name: string, shift: number): void => {
-    f.get(name).i32(shift).simd(SIMD.i32x4Shl).get(name).simd(SIMD.i32x4Add);
-  };
-  const xoshiro = (): void => {
-    timesPowerPlusOne('x1', 2);
-    f.set('r');
-    rotl('r', 7);
-    f.set('r');
-    timesPowerPlusOne('r', 3);
-    f.set('r');
-    f.get('x1').i32(9).simd(SIMD.i32x4Shl).set('xt');
-    f.get('x2').get('x0').simd(SIMD.v128Xor).set('x2');
-    f.get('x3').get('x1').simd(SIMD.v128Xor).set('x3');
-    f.get('x1').get('x2').simd(SIMD.v128Xor).set('x1');
-    f.get('x0').get('x3').simd(SIMD.v128Xor).set('x0');
-    f.get('x2').get('xt').simd(SIMD.v128Xor).set('x2');
-    rotl('x3', 11);
-    f.set('x3');
-  };
-  /** iz per lane (as byte offsets 16·iz) and rf as two f64x2 halves, from r. */
-  const drawPrelude = (): void => {
-    f.get('r').i32(0).v128Load(MASK_OFFSET).simd(SIMD.v128And);
-    f.i32(4).simd(SIMD.i32x4Shl).set('xt');
-    for (let lane = 0; lane < 4; lane++) f.get('xt').lane(SIMD.i32x4ExtractLane, lane).set(`iz${lane}`);
-    f.get('r').simd(SIMD.f64x2ConvertLowI32x4S).set('rfLo');
-    f.get('r').get('r').shuffle([8, 9, 10, 11, 12, 13, 14, 15, 8, 9, 10, 11, 12, 13, 14, 15]);
-    f.simd(SIMD.f64x2ConvertLowI32x4S).set('rfHi');
-  };
-  /** (wn, kn²) of lanes `first` and `first + 1`, as the vectors wn#half and kn#half. */
-  const tablePair = (first: number): void => {
-    const half = first >> 1;
-    f.get(`iz${first}`).v128Load(TABLE_OFFSET).set('rfs2');
-    f.get(`iz${first + 1}`)
-      .v128Load(TABLE_OFFSET)
-      .set('rfs3');
-    f.get('rfs2').get('rfs3').shuffle([0, 1, 2, 3, 4, 5, 6, 7, 16, 17, 18, 19, 20, 21, 22, 23]);
-    f.set(`wn#${half}`);
-    f.get('rfs2').get('rfs3').shuffle([8, 9, 10, 11, 12, 13, 14, 15, 24, 25, 26, 27, 28, 29, 30, 31]);
-    f.set(`kn#${half}`);
-  };
-  /** The fast draw for all four lanes into z{j}; leaves the loop to `rare` when any lane fails. */
-  /**
-   * The draw for all four lanes into z{j}: the fast test on four lanes; when any lane fails, the
-   * draw is finished lane by lane (cold, no call): the fast path where it passes, the rare branch
-   * in wasm (ziggurat-wasm.ts) on that lane's generator state where it fails.
-   */
-  const draw = (j: number): void => {
-    xoshiro();
-    drawPrelude();
-    tablePair(0);
-    tablePair(2);
-    f.get('rfLo').get('wn#0').simd(SIMD.f64x2Mul).set(`z${j}#0`);
-    f.get('rfHi').get('wn#1').simd(SIMD.f64x2Mul).set(`z${j}#1`);
-    f.get('rfLo').get('rfLo').simd(SIMD.f64x2Mul).get('kn#0').simd(SIMD.f64x2Ge).simd(SIMD.i64x2Bitmask);
-    f.get('rfHi').get('rfHi').simd(SIMD.f64x2Mul).get('kn#1').simd(SIMD.f64x2Ge).simd(SIMD.i64x2Bitmask);
-    f.i32(2).op(OP.i32Shl).op(OP.i32Or).tee('slow');
-    f.if(() => coldDraw(j));
-  };
-  /** Lanes whose fast test failed (bits of `slow`) finish their draw in wasm, one by one. */
-  /**
-   * exp(y) on two lanes for y in (−6.2, 0] (the ziggurat's wedge test, −x²/2 with |x| ≤ r): the
-   * branches of fdlibm.ts that this range can take, as selects; ldexp is exact here (a normal
-   * result), so it is a multiplication by 2^k.
-   */
-  const wedgeExp = (y: string): void => {
-    const v = (name: string): string => f.local(`we_${name}`, V128);
-    f.f64x2(1.442695040888963387).get(y).simd(SIMD.f64x2Mul).f64x2(0.5).simd(SIMD.f64x2Sub);
-    f.simd(SIMD.f64x2Trunc).set(v('k'));
-    f.get(y).get(v('k')).f64x2(6.9314718036912381649e-1).simd(SIMD.f64x2Mul).simd(SIMD.f64x2Sub).set(v('hi'));
-    f.get(v('k')).f64x2(1.90821492927058770002e-10).simd(SIMD.f64x2Mul).set(v('lo'));
-    f.get(v('hi')).get(v('lo')).simd(SIMD.f64x2Sub).set(v('r'));
-    f.get(v('r')).get(v('r')).simd(SIMD.f64x2Mul).set(v('t'));
-    const p = [
-      0.16666666666666602, -0.0027777777777015593, 0.00006613756321437934, -0.0000016533902205465252,
-      4.1381367970572385e-8,
-    ];
-    f.f64x2(p[4]!);
-    for (let i = 3; i >= 0; i--) {
-      f.set(v('p')).f64x2(p[i]!).get(v('t')).get(v('p')).simd(SIMD.f64x2Mul).simd(SIMD.f64x2Add);
-    }
-    f.set(v('p'));
-    f.get(v('r')).get(v('t')).get(v('p')).simd(SIMD.f64x2Mul).simd(SIMD.f64x2Sub).set(v('c'));
-    f.f64x2(1).get(v('lo')).get(v('r')).get(v('c')).simd(SIMD.f64x2Mul);
-    f.f64x2(2).get(v('c')).simd(SIMD.f64x2Sub).simd(SIMD.f64x2Div).simd(SIMD.f64x2Sub);
-    f.get(v('hi')).simd(SIMD.f64x2Sub).simd(SIMD.f64x2Sub);
-    // · 2^k, built from k's bits
-    f.get(v('k')).simd(SIMD.i32x4TruncSatF64x2SZero).simd(SIMD.i64x2ExtendLowI32x4S);
-    f.i64(1023n).simd(SIMD.i64x2Splat).simd(SIMD.i64x2Add).i32(52).simd(SIMD.i64x2Shl);
-    f.simd(SIMD.f64x2Mul).set(v('res'));
-    // |y| < 2^-28: 1 + y
-    f.f64x2(1).get(y).simd(SIMD.f64x2Add).get(v('res'));
-    f.get(y)
-      .f64x2(-(2 ** -28))
-      .simd(SIMD.f64x2Gt)
-      .get(y)
-      .f64x2(2 ** -28)
-      .simd(SIMD.f64x2Lt)
-      .simd(SIMD.v128And);
-    f.simd(SIMD.v128Bitselect);
-  };
-  /**
-   * The wedge test of Marsaglia & Tsang on every lane that failed the fast test outside the base
-   * layer, as normalSlowPath's first round does it: one uniform from that lane's generator (the
-   * others keep theirs), fn[iz] + u·(fn[iz − 1] − fn[iz]) < exp(−x²/2). Accepted lanes keep
-   * z = x; the others are finished lane by lane.
-   */
-  const vectorWedge = (j: number): void => {
-    f.local('tail', I32);
-    f.local('wedge', I32);
-    for (const name of ['ox0', 'ox1', 'ox2', 'ox3', 'rOrig', 'wy', 'wfnI', 'wfnM', 'wu']) f.local(name, V128);
-    f.i32(0);
-    for (let lane = 0; lane < 4; lane++)
-      f.get(`iz${lane}`).op(OP.i32Eqz).i32(lane).op(OP.i32Shl).op(OP.i32Or);
-    f.get('slow').op(OP.i32And).set('tail');
-    f.get('slow').get('tail').op(OP.i32Xor).tee('wedge');
-    f.if(() => {
-      f.get('r').set('rOrig');
-      for (let w = 0; w < 4; w++) f.get(`x${w}`).set(`ox${w}`);
-      xoshiro();
-      f.get('wedge').simd(SIMD.i32x4Splat).v128([1, 0, 0, 0, 2, 0, 0, 0, 4, 0, 0, 0, 8, 0, 0, 0]);
-      f.simd(SIMD.v128And).v128([0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0]).simd(SIMD.i32x4Eq);
-      f.set('xt');
-      // Lanes outside the wedge keep their generator (xt is their mask).
-      for (let w = 0; w < 4; w++)
-        f.get(`ox${w}`).get(`x${w}`).get('xt').simd(SIMD.v128Bitselect).set(`x${w}`);
-      f.i32(0).set('slow');
-      for (const half of HALVES) {
-        // u = ((r >>> 0) + 0.5)·2^-32
-        f.get('r');
-        if (half) f.get('r').shuffle([8, 9, 10, 11, 12, 13, 14, 15, 8, 9, 10, 11, 12, 13, 14, 15]);
-        f.simd(SIMD.f64x2ConvertLowI32x4U).f64x2(0.5).simd(SIMD.f64x2Add);
-        f.f64x2(2.3283064365386963e-10).simd(SIMD.f64x2Mul).set('wu');
-        f.get(`iz${2 * half}`)
-          .v128Load(FN_PAIRS_OFFSET)
-          .set('rfs2');
-        f.get(`iz${2 * half + 1}`)
-          .v128Load(FN_PAIRS_OFFSET)
-          .set('rfs3');
-        f.get('rfs2')
-          .get('rfs3')
-          .shuffle([0, 1, 2, 3, 4, 5, 6, 7, 16, 17, 18, 19, 20, 21, 22, 23])
-          .set('wfnI');
-        f.get('rfs2')
-          .get('rfs3')
-          .shuffle([8, 9, 10, 11, 12, 13, 14, 15, 24, 25, 26, 27, 28, 29, 30, 31])
-          .set('wfnM');
-        // fn[iz] + u·(fn[iz − 1] − fn[iz])
-        f.get('wfnI').get('wu').get('wfnM').get('wfnI').simd(SIMD.f64x2Sub).simd(SIMD.f64x2Mul);
-        f.simd(SIMD.f64x2Add).set('wfnI');
-        f.f64x2(-0.5)
-          .get(`z${j}#${half}`)
-          .simd(SIMD.f64x2Mul)
-          .get(`z${j}#${half}`)
-          .simd(SIMD.f64x2Mul)
-          .set('wy');
-        f.get('wfnI');
-        wedgeExp('wy');
-        f.simd(SIMD.f64x2Lt).simd(SIMD.i64x2Bitmask);
-        if (half) f.i32(2).op(OP.i32Shl);
-        f.get('slow').op(OP.i32Or).set('slow');
-      }
-      // Remaining: wedge lanes not accepted, and the base-layer lanes.
-      f.get('wedge')
-        .get('slow')
-        .op(OP.i32And)
-        .get('wedge')
-        .op(OP.i32Xor)
-        .get('tail')
-        .op(OP.i32Or)
-        .set('slow');
-      f.get('rOrig').set('r');
-    });
-    f.get('slow').op(OP.i32Eqz);
-    f.if(() => f.br('drawn'));
-  };
-  const coldDraw = (j: number): void => {
-    f.block('drawn', () => {
-      vectorWedge(j);
-      f.loop('lanes', () => {
-        // The lowest lane still to finish; clear its bit.
-        f.get('slow').op(OP.i32Ctz).set('a');
-        f.get('slow').get('slow').i32(1).op(OP.i32Sub).op(OP.i32And).set('slow');
-        // Out of the lane through memory (a narrow load of a wide store forwards well).
-        ['x0', 'x1', 'x2', 'x3', 'r'].forEach((x, w) =>
-          f
-            .i32(0)
-            .get(x)
-            .v128Store(COLD_OFFSET + 16 * w),
-        );
-        f.get('a').i32(4).op(OP.i32Mul).set('j');
-        for (let w = 0; w < 4; w++)
-          f.get('j')
-            .load(OP.i32Load, 2, COLD_OFFSET + 16 * w)
-            .set(`zg${w}`);
-        f.block('laneDone', () => {
-          f.get('tail').get('a').op(OP.i32ShrU).i32(1).op(OP.i32And);
-          f.if(
-            // A base-layer lane: the rare branch from its first draw.
-            () =>
-              f
-                .get('j')
-                .load(OP.i32Load, 2, COLD_OFFSET + 64)
-                .set('zhz'),
-            // A lane whose wedge test failed: the next draw, fast test first (normalSlowPath's loop).
-            () => {
-              next(f);
-              f.get('zr').set('zhz');
-            },
-          );
-          f.get('zhz').i32(127).op(OP.i32And).set('ziz');
-          f.get('tail').get('a').op(OP.i32ShrU).i32(1).op(OP.i32And).op(OP.i32Eqz);
-          f.if(() => {
-            f.get('zhz').op(OP.f64ConvertI32S).set('rfs');
-            f.get('rfs').get('rfs').op(OP.f64Mul);
-            f.get('ziz')
-              .i32(16)
-              .op(OP.i32Mul)
-              .load(OP.f64Load, 3, TABLE_OFFSET + 8);
-            f.op(OP.f64Lt);
-            f.if(() => {
-              f.get('rfs');
-              f.get('ziz').i32(16).op(OP.i32Mul).load(OP.f64Load, 3, TABLE_OFFSET);
-              f.op(OP.f64Mul).set('zout').br('laneDone');
-            });
-          });
-          emitSlowNormal(f);
-        });
-        // Back into lane `a` without a branch: a mask of that lane, then bitselect (a wide reload
-        // of narrow stores would stall store forwarding instead).
-        f.get('a').simd(SIMD.i32x4Splat).v128([0, 0, 0, 0, 1, 0, 0, 0, 2, 0, 0, 0, 3, 0, 0, 0]);
-        f.simd(SIMD.i32x4Eq).set('xt');
-        for (let w = 0; w < 4; w++) {
-          f.get(`zg${w}`).simd(SIMD.i32x4Splat).get(`x${w}`).get('xt').simd(SIMD.v128Bitselect).set(`x${w}`);
-        }
-        for (const half of HALVES) {
-          const z = `z${j}#${half}`;
-          f.get('a').op(OP.i64ExtendI32U).simd(SIMD.i64x2Splat);
-          f.v128([2 * half, 0, 0, 0, 0, 0, 0, 0, 2 * half + 1, 0, 0, 0, 0, 0, 0, 0])
-            .simd(SIMD.i64x2Eq)
-            .set('rfs2');
-          f.get('zout').simd(SIMD.f64x2Splat).get(z).get('rfs2').simd(SIMD.v128Bitselect).set(z);
-        }
-        f.get('slow').brIf('lanes');
-      });
-    });
   };
 
   // --- the step after its draws (codegen.ts stepTail) ---
@@ -732,8 +471,12 @@ export function buildWasmKernel(plan: SimulationPlan, layout: PlanLayout): WasmK
         ...(absorbing[i] ? [`ab${i}`, `abT${i}`] : []),
       ]),
       ...range(W).flatMap((w) => [`hw${w}`, `fp${w}`]),
+      // The step's draws, for a step the finisher interrupts.
+      ...range(m).map((j) => `z${j}`),
     ].flatMap((name) => HALVES.map((half) => `${name}#${half}`)),
   ];
+  /** Where a persisted vector is kept between calls (the generator first: finishLanes reads it there). */
+  const stateAddress = (name: string): number => STATE_OFFSET + 16 * persisted.indexOf(name);
   if (persisted.length > STATE_VECTORS)
     throw new Unsupported('the model has too many states for the wasm kernel');
   const storeState = (): void => {
@@ -758,10 +501,11 @@ export function buildWasmKernel(plan: SimulationPlan, layout: PlanLayout): WasmK
     });
   };
 
-  // --- the hot loop: hot(n, end, p) steps group p from step n to `end` with no call at all (so
-  // the register allocator keeps the generator and the states in registers), and returns −1 at
-  // `end`, −2 when every lane was lost, or the draw j whose fast test failed in some lane (the
-  // run function finishes that step). The step reached is left at STEP_OFFSET.
+  // --- the hot loop: hot() steps the group from where the last call left off (STEP_OFFSET) with
+  // no call at all, so the register allocator keeps the generator and the states in registers. It
+  // returns HOT_PATH_DONE at the last step, HOT_ALL_LOST when every lane was lost, HOT_STOP_CHECK
+  // every 2^16 steps of a long path, or HOT_FINISH_DRAW when lanes of draw j are left to the
+  // finisher (FINISH_OFFSET); the next call then resumes with the draws after j and the step's tail.
   const emitHot = (): void => {
     loadHeader();
     loadState();
@@ -775,6 +519,19 @@ export function buildWasmKernel(plan: SimulationPlan, layout: PlanLayout): WasmK
         .load(OP.i32Load, 2, STEP_OFFSET + at)
         .set(name);
     f.block('exit', () => {
+      f.i32(0).load(OP.i32Load, 2, FINISH_OFFSET).set('resume');
+      f.get('resume').i32(0).op(OP.i32GeS);
+      f.if(() => {
+        // The rest of step n after the finisher's draw `resume`: later draws, then the tail.
+        f.i32(0).i32(-1).store(OP.i32Store, 2, FINISH_OFFSET);
+        timeUpdate();
+        for (let j = 1; j < m; j++) {
+          f.get('resume').i32(j).op(OP.i32LtS);
+          f.if(() => draws.draw(j));
+        }
+        stepTail(() => f.i32(HOT_ALL_LOST).set('slow').br('exit'));
+        f.get('n').i32(1).op(OP.i32Add).set('n');
+      });
       f.loop('segment', () => {
         loadStep('saveSteps', 'k');
         f.set('nextSave');
@@ -794,7 +551,7 @@ export function buildWasmKernel(plan: SimulationPlan, layout: PlanLayout): WasmK
           f.loop('steps', () => {
             f.get('n').get('end').op(OP.i32GtS).brIf('segmentEnd');
             timeUpdate();
-            for (let j = 0; j < m; j++) draw(j);
+            for (let j = 0; j < m; j++) draws.draw(j);
             stepTail(() => f.i32(HOT_ALL_LOST).set('slow').br('exit'));
             f.get('n').i32(1).op(OP.i32Add).set('n').br('steps');
           });
@@ -840,9 +597,15 @@ export function buildWasmKernel(plan: SimulationPlan, layout: PlanLayout): WasmK
   };
   f = hotBody;
   lanes = new LaneEmitter(f, laneFunctions);
+  const draws = new DrawEmitter(f, {
+    drawAddress: (j) => stateAddress(`z${j}#0`),
+    leaveForFinisher: () => f.i32(HOT_FINISH_DRAW).set('slow').br('exit'),
+  });
   declareLocals();
   emitHot();
   mod.define(hotIndex, hotBody);
+  if (persisted.indexOf('x3') !== 3) throw new Error('the generator must be kept first (finishLanes)');
+  mod.define(finishIndex, finishLanes(STATE_OFFSET, FIRST_OUTPUT_OFFSET));
   f = runBody;
   lanes = new LaneEmitter(f, laneFunctions);
 
@@ -922,10 +685,16 @@ export function buildWasmKernel(plan: SimulationPlan, layout: PlanLayout): WasmK
       f.i32(0)
         .get('p')
         .store(OP.i32Store, 2, STEP_OFFSET + 12);
+      f.i32(0).i32(-1).store(OP.i32Store, 2, FINISH_OFFSET);
       storeState();
       f.block('path', () => {
         f.loop('calls', () => {
           f.call(hotIndex).set('slow');
+          f.get('slow').i32(HOT_FINISH_DRAW).op(OP.i32Eq);
+          f.if(() => {
+            for (const at of [4, 8, 12]) f.i32(0).load(OP.i32Load, 2, FINISH_OFFSET + at);
+            f.call(finishIndex).br('calls');
+          });
           f.get('slow').i32(HOT_STOP_CHECK).op(OP.i32Ne).brIf('path');
           f.call(IMPORT_SHOULD_STOP);
           f.if(() => f.get('g').op(OP.return));

@@ -1,7 +1,7 @@
 /**
  * Where a wasm kernel instance keeps things in its memory. Fixed at the front: the ziggurat's
  * fast table as (wn, kn²) pairs, then a header of base offsets the kernel reads once per call,
- * the alive mask, the rare branch's scratch, the fn tables, a group's state between calls and
+ * the alive mask, where the hot loop left off, the finisher's draw, the fn tables, a group's state between calls and
  * the constant pool. Then, sized by the chunk: step lists, per-group seeds and the outputs, with
  * the path count padded to a multiple of four (one SIMD group) and each output laid out as in
  * result.ts with that padded count.
@@ -30,12 +30,18 @@ export const ALIVE_OFFSET = HEADER_OFFSET + 4 * 16;
 export const POOL_OFFSET = 8192;
 /** The ziggurat's layer mask (127 in every i32 lane). */
 export const MASK_OFFSET = ALIVE_OFFSET + 32;
-/** The step a call of the hot loop reached (one i32). */
+/** Where a call of the hot loop left off: the step n, the save and probe indices, the group's first path (four i32). */
 export const STEP_OFFSET = MASK_OFFSET + 16;
-/** Scratch of the rare branch: the generator vectors (64 bytes), r (16) and the draw (32). */
-export const COLD_OFFSET = STEP_OFFSET + 16;
+/**
+ * A draw left to the lane-by-lane finisher (four i32): the draw j the hot loop resumes after (−1
+ * when none), the base-layer lanes, the lanes to finish (bits) and the byte address of the draw's
+ * two f64x2.
+ */
+export const FINISH_OFFSET = STEP_OFFSET + 16;
+/** The first generator outputs of the draw left to the finisher (one i32x4). */
+export const FIRST_OUTPUT_OFFSET = FINISH_OFFSET + 16;
 /** The ziggurat's fn table (128 f64). */
-export const FN_OFFSET = COLD_OFFSET + 112;
+export const FN_OFFSET = FIRST_OUTPUT_OFFSET + 96;
 /** A group's vectors between calls of the hot loop (generator state, states, records). */
 export const STATE_OFFSET = FN_OFFSET + 1024;
 export const STATE_VECTORS = Math.floor((POOL_OFFSET - STATE_OFFSET) / 16);

@@ -6,7 +6,8 @@
 export const I32 = 0x7f;
 export const F64 = 0x7c;
 export const V128 = 0x7b;
-export type ValueType = typeof I32 | typeof F64 | typeof V128;
+export const I64 = 0x7e;
+export type ValueType = typeof I32 | typeof F64 | typeof V128 | typeof I64;
 
 /** Core opcodes used by the kernel (one byte each). */
 export const OP = {
@@ -25,7 +26,9 @@ export const OP = {
   localSet: 0x21,
   localTee: 0x22,
   i32Load: 0x28,
+  i64Load: 0x29,
   f64Load: 0x2b,
+  i64Store: 0x37,
   i32Store: 0x36,
   f64Store: 0x39,
   i32Store8: 0x3a,
@@ -59,6 +62,8 @@ export const OP = {
   i64Shl: 0x86,
   i64ShrU: 0x88,
   i64And: 0x83,
+  i64Xor: 0x85,
+  i64Mul: 0x7e,
   i64Sub: 0x7d,
   i64Add: 0x7c,
   i64Eq: 0x51,
@@ -114,6 +119,7 @@ export const SIMD = {
   f64x2Ceil: 0x74,
   f64x2Floor: 0x75,
   i32x4AllTrue: 0xa3,
+  i32x4Bitmask: 0xa4,
   i32x4Shl: 0xab,
   i32x4ShrU: 0xad,
   i32x4Add: 0xae,

@@ -1,4 +1,4 @@
-import type { FunctionBody } from './emitter';
+import { FunctionBody } from './emitter';
 import { F64, I32, OP } from './opcodes';
 import { emitExp, emitLog } from './fdlibm';
 import { FN_OFFSET, TABLE_OFFSET } from './memory-layout';
@@ -106,4 +106,73 @@ export function emitSlowNormal(f: FunctionBody): void {
       f.br('zigLoop');
     });
   });
+}
+
+/**
+ * finish(tail, slow, draw): the draws of the lanes in `slow` (bits), finished one lane at a time.
+ * The lanes' generator state is the group's four i32x4 at `generatorOffset` (word w of lane l at
+ * +16·w + 4·l), their first outputs at `firstOutputOffset`, and the draw's value of lane l goes
+ * to `draw` + 8·l. A lane in `tail` (base layer) starts the rare branch from its first output;
+ * the others failed the wedge test and go on with the next output, fast test first, as
+ * normalSlowPath's loop does.
+ */
+export function finishLanes(generatorOffset: number, firstOutputOffset: number): FunctionBody {
+  const f = new FunctionBody(
+    [
+      ['tail', I32],
+      ['slow', I32],
+      ['draw', I32],
+    ],
+    [],
+  );
+  declareSlowNormalLocals(f);
+  f.local('a', I32);
+  f.local('j', I32);
+  f.local('rfs', F64);
+  const inTail = (): void => void f.get('tail').get('a').op(OP.i32ShrU).i32(1).op(OP.i32And);
+  f.loop('lanes', () => {
+    // The lowest lane still to finish; clear its bit.
+    f.get('slow').op(OP.i32Ctz).set('a');
+    f.get('slow').get('slow').i32(1).op(OP.i32Sub).op(OP.i32And).set('slow');
+    f.get('a').i32(4).op(OP.i32Mul).set('j');
+    for (let w = 0; w < 4; w++)
+      f.get('j')
+        .load(OP.i32Load, 2, generatorOffset + 16 * w)
+        .set(`zg${w}`);
+    f.block('laneDone', () => {
+      inTail();
+      f.if(
+        () => f.get('j').load(OP.i32Load, 2, firstOutputOffset).set('zhz'),
+        () => {
+          next(f);
+          f.get('zr').set('zhz');
+        },
+      );
+      f.get('zhz').i32(127).op(OP.i32And).set('ziz');
+      inTail();
+      f.op(OP.i32Eqz);
+      f.if(() => {
+        f.get('zhz').op(OP.f64ConvertI32S).set('rfs');
+        f.get('rfs').get('rfs').op(OP.f64Mul);
+        f.get('ziz')
+          .i32(16)
+          .op(OP.i32Mul)
+          .load(OP.f64Load, 3, TABLE_OFFSET + 8);
+        f.op(OP.f64Lt);
+        f.if(() => {
+          f.get('rfs');
+          f.get('ziz').i32(16).op(OP.i32Mul).load(OP.f64Load, 3, TABLE_OFFSET);
+          f.op(OP.f64Mul).set('zout').br('laneDone');
+        });
+      });
+      emitSlowNormal(f);
+    });
+    for (let w = 0; w < 4; w++)
+      f.get('j')
+        .get(`zg${w}`)
+        .store(OP.i32Store, 2, generatorOffset + 16 * w);
+    f.get('a').i32(8).op(OP.i32Mul).get('draw').op(OP.i32Add).get('zout').store(OP.f64Store, 3);
+    f.get('slow').brIf('lanes');
+  });
+  return f;
 }

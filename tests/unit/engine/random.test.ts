@@ -4,6 +4,7 @@ import { streamSeed } from '@shared/engine/random/stream-seed';
 import { Xoshiro128 } from '@shared/engine/random/xoshiro128';
 import { normalFrom, ZIGGURAT_FAST_TABLE, ZIGGURAT_TABLES } from '@shared/engine/random/ziggurat';
 import { Fnv1a64 } from '@shared/engine/digest';
+import { wasmHasher } from '@shared/engine/wasm/fnv-wasm';
 import { simulate } from '@shared/engine/simulate';
 import { ksCritical5, ksStatistic, makePlan } from './plans';
 
@@ -227,5 +228,24 @@ describe('FNV-1a 64 digest', () => {
     const one = new Fnv1a64();
     for (const value of values) one.addNumber(value);
     expect(new Fnv1a64().addNumbers(values).hex()).toBe(one.hex());
+  });
+
+  it('gives the same bits through the wasm hasher: long arrays, integer arrays, state carried on', () => {
+    // Node has WebAssembly, so the long arrays below take the wasm path (fnv-wasm.ts).
+    expect(wasmHasher()).not.toBeNull();
+    // 30,000 numbers need more than the hasher's first 64 KiB page: it grows its memory.
+    const long = Float64Array.from({ length: 30_000 }, (_, i) => (i % 11 === 0 ? NaN : Math.cos(i) * 1e3));
+    const causes = Uint8Array.from({ length: 500 }, (_, i) => i % 4);
+    const live = Int32Array.from({ length: 300 }, (_, i) => 10_000 - i);
+    const viaWasm = new Fnv1a64()
+      .addNumber(7)
+      .addNumbers(long)
+      .addNumbers(causes)
+      .addNumbers(live)
+      .addNumber(-0);
+    const oneByOne = new Fnv1a64().addNumber(7);
+    for (const list of [long, causes, live]) for (const value of list) oneByOne.addNumber(value);
+    oneByOne.addNumber(-0);
+    expect(viaWasm.hex()).toBe(oneByOne.hex());
   });
 });
