@@ -6,6 +6,7 @@ import {
   FN_PAIRS_OFFSET,
   MASK_OFFSET,
   TABLE_OFFSET,
+  WEDGE_OFFSET,
 } from './memory-layout';
 
 /**
@@ -44,12 +45,13 @@ export interface DrawTarget {
 
 /** Declares the locals the draws use (besides z{j}#half, which the kernel declares). */
 export function declareDrawLocals(f: FunctionBody): void {
-  for (const name of ['slow', 'tail', 'wedge', 'rejected', 'finish']) f.local(name, I32);
+  for (const name of ['slow', 'tail', 'wedge', 'rejected', 'unsure', 'finish']) f.local(name, I32);
   for (let lane = 0; lane < 4; lane++) f.local(`iz${lane}`, I32);
   for (const name of [...GENERATOR, 'r', 'xt', 'rfLo', 'rfHi', 'rfs2', 'rfs3', 'laneMask'])
     f.local(name, V128);
   for (const name of [...GENERATOR.map((x) => `o${x}`), 'or', 'oz0', 'oz1', 'wu', 'wy', 'wfnI', 'wfnM'])
     f.local(name, V128);
+  for (const name of ['wA#0', 'wA#1', 'wc3', 'wc2', 'wc1', 'wc0', 'wym', 'wband', 'wd']) f.local(name, V128);
   for (const name of ['wn', 'kn']) for (const half of HALVES) f.local(`${name}#${half}`, V128);
   for (const name of ['k', 'hi', 'lo', 'r', 't', 'p', 'c', 'res']) f.local(`we_${name}`, V128);
 }
@@ -193,8 +195,9 @@ export class DrawEmitter {
   /**
    * The wedge test of Marsaglia & Tsang on the lanes in `wedge`, as normalSlowPath does it: one
    * uniform from each of those lanes' generators (the others keep theirs),
-   * fn[iz] + u·(fn[iz − 1] − fn[iz]) < exp(−x²/2) with x = z{j}. The bits of the lanes that fail
-   * it go to `rejected`; r is left as it was.
+   * fn[iz] + u·(fn[iz − 1] − fn[iz]) < exp(−x²/2) with x = z{j}, decided by the layer's cubic and
+   * band (wedge-table.ts) and by exp only for lanes inside the band. The bits of the lanes that
+   * fail it go to `rejected`; r is left as it was.
    */
   private wedgeTest(j: number): void {
     const f = this.f;
@@ -204,37 +207,65 @@ export class DrawEmitter {
     this.laneMask('wedge');
     this.keepOtherGenerators();
     f.i32(0).set('rejected');
+    f.i32(0).set('unsure');
+    /** The two lanes' f64 at `offset` of their layer rows (iz·`scale` bytes apart) as one f64x2, and the next f64 as another. */
+    const pairs = (offset: number, shift: number, half: number, low: string, high: string): void => {
+      for (const [lane, into] of [
+        [2 * half, 'rfs2'],
+        [2 * half + 1, 'rfs3'],
+      ] as const) {
+        f.get(`iz${lane}`);
+        if (shift > 0) f.i32(shift).op(OP.i32Shl);
+        f.v128Load(offset).set(into);
+      }
+      f.get('rfs2').get('rfs3').shuffle(LOW_LANES).set(low);
+      f.get('rfs2').get('rfs3').shuffle(HIGH_LANES).set(high);
+    };
     for (const half of HALVES) {
-      // u = ((r >>> 0) + 0.5)·2^-32
+      // A = fn[iz] + u·(fn[iz − 1] − fn[iz]), u = ((r >>> 0) + 0.5)·2^-32
       f.get('r');
       if (half) f.get('r').shuffle(UPPER_HALF);
       f.simd(SIMD.f64x2ConvertLowI32x4U).f64x2(0.5).simd(SIMD.f64x2Add);
       f.f64x2(2.3283064365386963e-10).simd(SIMD.f64x2Mul).set('wu');
-      f.get(`iz${2 * half}`)
-        .v128Load(FN_PAIRS_OFFSET)
-        .set('rfs2');
-      f.get(`iz${2 * half + 1}`)
-        .v128Load(FN_PAIRS_OFFSET)
-        .set('rfs3');
-      f.get('rfs2').get('rfs3').shuffle(LOW_LANES).set('wfnI');
-      f.get('rfs2').get('rfs3').shuffle(HIGH_LANES).set('wfnM');
-      // fn[iz] + u·(fn[iz − 1] − fn[iz])
+      pairs(FN_PAIRS_OFFSET, 0, half, 'wfnI', 'wfnM');
       f.get('wfnI').get('wu').get('wfnM').get('wfnI').simd(SIMD.f64x2Sub).simd(SIMD.f64x2Mul);
-      f.simd(SIMD.f64x2Add).set('wfnI');
-      f.f64x2(-0.5)
-        .get(`z${j}#${half}`)
-        .simd(SIMD.f64x2Mul)
-        .get(`z${j}#${half}`)
-        .simd(SIMD.f64x2Mul)
-        .set('wy');
-      f.get('wfnI');
-      this.wedgeExp('wy');
-      // Not below: rejected (a NaN cannot occur here: both sides are finite).
-      f.simd(SIMD.f64x2Ge).simd(SIMD.i64x2Bitmask);
+      f.simd(SIMD.f64x2Add).set(`wA#${half}`);
+      // P = ((c3·d + c2)·d + c1)·d + c0, d = x·x − ym (wedgeCubic's order)
+      pairs(WEDGE_OFFSET, 2, half, 'wc3', 'wc2');
+      pairs(WEDGE_OFFSET + 16, 2, half, 'wc1', 'wc0');
+      pairs(WEDGE_OFFSET + 32, 2, half, 'wym', 'wband');
+      const z = `z${j}#${half}`;
+      f.get(z).get(z).simd(SIMD.f64x2Mul).get('wym').simd(SIMD.f64x2Sub).set('wd');
+      f.get('wc3').get('wd').simd(SIMD.f64x2Mul).get('wc2').simd(SIMD.f64x2Add);
+      f.get('wd').simd(SIMD.f64x2Mul).get('wc1').simd(SIMD.f64x2Add);
+      f.get('wd').simd(SIMD.f64x2Mul).get('wc0').simd(SIMD.f64x2Add).set('wd');
+      // Surely rejected: A ≥ P + band; surely accepted: A < P − band; else unsure.
+      f.get(`wA#${half}`).get('wd').get('wband').simd(SIMD.f64x2Add).simd(SIMD.f64x2Ge).set('wc3');
+      f.get(`wA#${half}`).get('wd').get('wband').simd(SIMD.f64x2Sub).simd(SIMD.f64x2Lt).set('wc2');
+      f.get('wc3').simd(SIMD.i64x2Bitmask);
       if (half) f.i32(2).op(OP.i32Shl);
       f.get('rejected').op(OP.i32Or).set('rejected');
+      f.get('wc3').get('wc2').simd(SIMD.v128Or).simd(SIMD.v128Not).simd(SIMD.i64x2Bitmask);
+      if (half) f.i32(2).op(OP.i32Shl);
+      f.get('unsure').op(OP.i32Or).set('unsure');
     }
     f.get('rejected').get('wedge').op(OP.i32And).set('rejected');
+    f.get('unsure').get('wedge').op(OP.i32And);
+    f.if(() => {
+      // Rare: some lane inside its band. The exact test, as the JavaScript kernel makes it.
+      f.i32(0).set('rejected');
+      for (const half of HALVES) {
+        const z = `z${j}#${half}`;
+        f.f64x2(-0.5).get(z).simd(SIMD.f64x2Mul).get(z).simd(SIMD.f64x2Mul).set('wy');
+        f.get(`wA#${half}`);
+        this.wedgeExp('wy');
+        // Not below: rejected (a NaN cannot occur here: both sides are finite).
+        f.simd(SIMD.f64x2Ge).simd(SIMD.i64x2Bitmask);
+        if (half) f.i32(2).op(OP.i32Shl);
+        f.get('rejected').op(OP.i32Or).set('rejected');
+      }
+      f.get('rejected').get('wedge').op(OP.i32And).set('rejected');
+    });
     f.get('or').set('r');
   }
 

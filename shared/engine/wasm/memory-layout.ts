@@ -48,7 +48,9 @@ export const STATE_VECTORS = Math.floor((POOL_OFFSET - STATE_OFFSET) / 16);
 export const POOL_SIZE = 256;
 /** The ziggurat's (fn[i], fn[i − 1]) pairs for the wedge test on four lanes (i ≥ 1). */
 export const FN_PAIRS_OFFSET = POOL_OFFSET + 16 * POOL_SIZE;
-const DATA_OFFSET = FN_PAIRS_OFFSET + 16 * 128;
+/** The wedge test's cubics (wedge-table.ts), 64 bytes per layer. */
+export const WEDGE_OFFSET = FN_PAIRS_OFFSET + 16 * 128;
+const DATA_OFFSET = WEDGE_OFFSET + 64 * 128;
 
 export interface MemoryLayout {
   bytes: number;

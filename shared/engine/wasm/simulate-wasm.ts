@@ -15,7 +15,9 @@ import {
   memoryLayout,
   POOL_OFFSET,
   TABLE_OFFSET,
+  WEDGE_OFFSET,
 } from './memory-layout';
+import { WEDGE_TABLE } from './wedge-table';
 
 /**
  * Runs a chunk on the wasm kernel (kernel-module.ts): writes the tables, step lists and per-path
@@ -155,6 +157,7 @@ export function simulateChunkWasm(
     fnPairs[2 * i] = ZIGGURAT_TABLES.fn[i]!;
     fnPairs[2 * i + 1] = ZIGGURAT_TABLES.fn[i - 1]!;
   }
+  new Float64Array(buffer, WEDGE_OFFSET, WEDGE_TABLE.length).set(WEDGE_TABLE);
   const pool = new Float64Array(buffer, POOL_OFFSET, 2 * compiled.constants.length);
   compiled.constants.forEach((value, i) => pool.fill(value, 2 * i, 2 * i + 2));
   // The ziggurat's layer mask 127 in every i32 lane, after the alive mask.

@@ -7,6 +7,7 @@ import { simulate, simulateChunk } from '@shared/engine/simulate';
 import { makePlan } from '../plans';
 import { planLayout } from '@shared/engine/layout';
 import { MAX_MEMORY_BYTES, wasmChunkBytes } from '@shared/engine/wasm/simulate-wasm';
+import { WEDGE_STRIDE, WEDGE_TABLE } from '@shared/engine/wasm/wedge-table';
 import { expectSameOnBothKernels, withKernel } from './parity';
 
 /**
@@ -47,23 +48,34 @@ describe('the wasm kernel gives the JavaScript kernel’s bits', () => {
     expectSameOnBothKernels(plan);
   });
 
-  it('over 400,000 draws: the fast test, the wedge on four lanes, lane by lane, the tail', () => {
-    // 2.75 % of draws fail the fast test (about 11,000 here), about half of those pass the first
-    // wedge test, and about 1/128 of the failures come from the base layer (about 90 tail draws).
-    expectSameOnBothKernels(
-      makePlan({
-        drift: ['-s0', '0'],
-        diffusion: [
-          ['1', '0'],
-          ['0', '1'],
-        ],
-        initial: [0, 0],
-        t1: 1,
-        steps: 50,
-        paths: 4001,
-        saveCount: 2,
-      }),
-    );
+  // 2.75 % of draws fail the fast test (about 11,000 here), about half of those pass the first
+  // wedge test, and about 1/128 of the failures come from the base layer (about 90 tail draws).
+  const manyDraws = makePlan({
+    drift: ['-s0', '0'],
+    diffusion: [
+      ['1', '0'],
+      ['0', '1'],
+    ],
+    initial: [0, 0],
+    t1: 1,
+    steps: 50,
+    paths: 4001,
+    saveCount: 2,
+  });
+
+  it('over 400,000 draws: the fast test, the wedge and redraws on four lanes, the tail', () => {
+    expectSameOnBothKernels(manyDraws);
+  });
+
+  it('decides the wedge test by exp as well as by the cubic (every lane forced inside its band)', () => {
+    // An infinite band leaves every wedge test to the exact branch, which otherwise runs rarely.
+    const bands = Array.from({ length: 128 }, (_, i) => WEDGE_TABLE[i * WEDGE_STRIDE + 5]!);
+    try {
+      for (let i = 1; i < 128; i++) WEDGE_TABLE[i * WEDGE_STRIDE + 5] = Infinity;
+      expectSameOnBothKernels({ ...manyDraws, seed: 77 });
+    } finally {
+      bands.forEach((value, i) => (WEDGE_TABLE[i * WEDGE_STRIDE + 5] = value));
+    }
   });
 
   it('for a chunk that starts at a later path (streams by path index)', () => {
