@@ -19,18 +19,20 @@ import {
   HEADER_OFFSET,
   POOL_OFFSET,
   POOL_SIZE,
+  SEED_OFFSET,
   type HeaderField,
 } from './memory-layout';
 import { parseAssignments, namesRead, Unsupported, type Assignment } from './source-tree';
 import { PORTED_FUNCTIONS } from './fdlibm';
 import { finishLanes } from './ziggurat-wasm';
 import { declareDrawLocals, DrawEmitter } from './draw-wasm';
+import { declareSeedLocals, emitGroupSeeds } from './seed-wasm';
 
 /**
  * The wasm kernel of a plan: `run(g0, g1)` simulates path groups g0 … g1 − 1 (four paths per
  * group, p = 4g … 4g + 3 of the chunk) and returns the group it reached (g1 unless a long path
  * was stopped). Paths are simulated four at a time: xoshiro128** on i32x4 (one stream per lane,
- * seeded by the caller exactly as the JavaScript kernel seeds a path), the ziggurat's fast test
+ * seeded as the JavaScript kernel seeds a path: seed-wasm.ts), the ziggurat's fast test
  * for four lanes with the table read per lane, and the state as two f64x2 halves per variable.
  * The draws are draw-wasm.ts: the ziggurat's rare branch runs on four lanes in the loop, except
  * the base layer's tail, which the hot loop leaves to `finish` (finishLanes in ziggurat-wasm.ts)
@@ -180,6 +182,7 @@ export function buildWasmKernel(plan: SimulationPlan, layout: PlanLayout): WasmK
   ];
   const declareLocals = (): void => {
     declareDrawLocals(f);
+    declareSeedLocals(f);
     for (const name of ['g', 'p', 'n', 'k', 'q', 'j', 'end', 'nextSave', 'nextProbe', 'a', 'resume'])
       f.local(name, I32);
     for (const field of HEADER_FIELDS) f.local(`base_${field}`, I32);
@@ -618,13 +621,13 @@ export function buildWasmKernel(plan: SimulationPlan, layout: PlanLayout): WasmK
     f.loop('groups', () => {
       f.get('g').get('g1').op(OP.i32GeS).brIf('done');
       f.get('g').i32(4).op(OP.i32Mul).set('p');
-      ['x0', 'x1', 'x2', 'x3'].forEach((x, w) => {
-        f.get('g').i32(64).op(OP.i32Mul);
-        base('seeds');
-        f.op(OP.i32Add)
-          .v128Load(16 * w)
-          .set(x);
-      });
+      emitGroupSeeds(f);
+      ['x0', 'x1', 'x2', 'x3'].forEach((x, w) =>
+        f
+          .i32(0)
+          .v128Load(SEED_OFFSET + 16 * w)
+          .set(x),
+      );
       plan.model.initial.forEach((value, i) => constBoth(`s${i}`, value));
       for (let i = 0; i < d; i++) {
         splatBoth(`ab${i}`, () => f.f64x2(0));

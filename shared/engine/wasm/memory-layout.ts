@@ -2,7 +2,7 @@
  * Where a wasm kernel instance keeps things in its memory. Fixed at the front: the ziggurat's
  * fast table as (wn, kn²) pairs, then a header of base offsets the kernel reads once per call,
  * the alive mask, where the hot loop left off, the finisher's draw, the fn tables, a group's state between calls and
- * the constant pool. Then, sized by the chunk: step lists, per-group seeds and the outputs, with
+ * the constant pool. Then, sized by the chunk: step lists and the outputs, with
  * the path count padded to a multiple of four (one SIMD group) and each output laid out as in
  * result.ts with that padded count.
  */
@@ -10,10 +10,11 @@ export const TABLE_OFFSET = 0;
 export const HEADER_OFFSET = 2064;
 export const HEADER_FIELDS = [
   'paddedPaths',
+  'seed',
+  'firstPath',
   'saveSteps',
   'probeSteps',
   'probeOrder',
-  'seeds',
   'saved',
   'probeValues',
   'runningMax',
@@ -24,6 +25,8 @@ export const HEADER_FIELDS = [
   'lossCause',
 ] as const;
 export type HeaderField = (typeof HEADER_FIELDS)[number];
+/** The header's words that are offsets of the chunk's own memory (the others are the run's values). */
+export type ChunkField = Exclude<HeaderField, 'seed' | 'firstPath'>;
 /** The mask of lanes still alive in the current group (two v128), kept in memory: it is read only off the hot loop. */
 export const ALIVE_OFFSET = HEADER_OFFSET + 4 * 16;
 /** Constants of the hot loop as f64x2 pairs, loaded from memory rather than rebuilt each step. */
@@ -40,6 +43,8 @@ export const STEP_OFFSET = MASK_OFFSET + 16;
 export const FINISH_OFFSET = STEP_OFFSET + 16;
 /** The first generator outputs of the draw left to the finisher (one i32x4). */
 export const FIRST_OUTPUT_OFFSET = FINISH_OFFSET + 16;
+/** A group's four seeds as they are made (four i32x4: word w of lane l at 16·w + 4·l). */
+export const SEED_OFFSET = FIRST_OUTPUT_OFFSET + 16;
 /** The ziggurat's fn table (128 f64). */
 export const FN_OFFSET = FIRST_OUTPUT_OFFSET + 96;
 /** A group's vectors between calls of the hot loop (generator state, states, records). */
@@ -54,7 +59,7 @@ const DATA_OFFSET = WEDGE_OFFSET + 64 * 128;
 
 export interface MemoryLayout {
   bytes: number;
-  offsets: Record<HeaderField, number>;
+  offsets: Record<ChunkField, number>;
 }
 
 export interface LayoutCounts {
@@ -73,12 +78,11 @@ export function memoryLayout(counts: LayoutCounts): MemoryLayout {
     at = Math.ceil((at + bytes) / 16) * 16;
     return start;
   };
-  const offsets: Record<HeaderField, number> = {
+  const offsets: Record<ChunkField, number> = {
     paddedPaths: n,
     saveSteps: take(4 * (counts.saveCount + 1)),
     probeSteps: take(4 * (counts.probeCount + 1)),
     probeOrder: take(4 * (counts.probeCount + 1)),
-    seeds: take(16 * n),
     saved: take(8 * counts.saveCount * d * n),
     probeValues: take(8 * counts.probeCount * d * n),
     runningMax: take(8 * d * n),

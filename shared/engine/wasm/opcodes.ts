@@ -67,6 +67,7 @@ export const OP = {
   i64Sub: 0x7d,
   i64Add: 0x7c,
   i64Eq: 0x51,
+  i64Eqz: 0x50,
   i64Const: 0x42,
   f64Abs: 0x99,
   f64Neg: 0x9a,

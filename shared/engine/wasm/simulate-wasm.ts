@@ -1,7 +1,6 @@
 import type { SimulationPlan } from '../plan';
 import type { PlanLayout } from '../layout';
 import type { ChunkResult, SimulationHooks } from '../result';
-import { streamSeed } from '../random/stream-seed';
 import { ZIGGURAT_FAST_TABLE, ZIGGURAT_TABLES } from '../random/ziggurat';
 import { PORTABLE_MATH } from '../../expr/portable-math';
 import { buildWasmKernel, type WasmKernelModule } from './kernel-module';
@@ -12,6 +11,7 @@ import {
   FN_PAIRS_OFFSET,
   HEADER_FIELDS,
   HEADER_OFFSET,
+  type HeaderField,
   memoryLayout,
   POOL_OFFSET,
   TABLE_OFFSET,
@@ -20,8 +20,8 @@ import {
 import { WEDGE_TABLE } from './wedge-table';
 
 /**
- * Runs a chunk on the wasm kernel (kernel-module.ts): writes the tables, step lists and per-path
- * seeds into a fresh memory, calls `run` on batches of groups (hooks between batches, as
+ * Runs a chunk on the wasm kernel (kernel-module.ts): writes the tables and step lists into a
+ * fresh memory, calls `run` on batches of groups (hooks between batches, as
  * simulateChunk does), then copies the outputs into the chunk's own arrays.
  */
 
@@ -163,21 +163,12 @@ export function simulateChunkWasm(
   // The ziggurat's layer mask 127 in every i32 lane, after the alive mask.
   new Int32Array(buffer, MASK_OFFSET, 4).fill(127);
   const header = new Int32Array(buffer, HEADER_OFFSET, HEADER_FIELDS.length);
-  HEADER_FIELDS.forEach((field, w) => (header[w] = mem.offsets[field]));
+  const values: Record<HeaderField, number> = { ...mem.offsets, seed: plan.seed, firstPath: chunk.firstPath };
+  HEADER_FIELDS.forEach((field, w) => (header[w] = values[field]));
   new Int32Array(buffer, mem.offsets.saveSteps, plan.saveCount + 1).set(layout.saveSteps);
   const probeSteps = new Int32Array(buffer, mem.offsets.probeSteps, probeCount + 1);
   layout.probeOrder.forEach((j, q) => (probeSteps[q] = j < 0 ? -1 : layout.probeSteps[j]!));
   new Int32Array(buffer, mem.offsets.probeOrder, probeCount + 1).set(layout.probeOrder);
-  // Seeds transposed per group: word w of lane l at group·16 + w·4 + l (one i32x4 per word).
-  const seeds = new Uint32Array(buffer, mem.offsets.seeds, 4 * padded);
-  const one = new Uint32Array(4);
-  for (let p = 0; p < padded; p++) {
-    streamSeed(plan.seed, chunk.firstPath + p, one, 0);
-    const group = p >> 2;
-    const lane = p & 3;
-    for (let w = 0; w < 4; w++) seeds[group * 16 + w * 4 + lane] = one[w]!;
-  }
-
   const lib: Record<string, (...args: number[]) => number> = {};
   for (const { fn, arity } of compiled.callOuts) {
     lib[`${fn}/${arity}`] = PORTABLE_MATH[fn as keyof typeof PORTABLE_MATH] as (...args: number[]) => number;

@@ -83,6 +83,12 @@ describe('the wasm kernel gives the JavaScript kernel’s bits', () => {
     expectSameOnBothKernels({ ...plan, paths: 13 }, 1001);
   });
 
+  it('seeds as the JavaScript kernel does for seeds and path indices beyond 2^31', () => {
+    // The wasm kernel seeds each group itself (seed-wasm.ts) from the header's 32-bit words.
+    const plan = exampleCases[0]!.plan;
+    expectSameOnBothKernels({ ...plan, paths: 9, seed: 4_123_456_789 }, 2_999_999_990);
+  });
+
   it('with absorbing and reflecting boundaries, watches and probe times', () => {
     expectSameOnBothKernels(
       makePlan({
