@@ -11,7 +11,7 @@ import {
 } from './kernel';
 import { mergeChunks } from './merge';
 import { kernelChoice, unknownPlanFields, wasmSimdAvailable } from './wasm/kernel-choice';
-import { compileWasmKernel, simulateChunkWasm } from './wasm/simulate-wasm';
+import { compileWasmKernel, simulateChunkWasm, type Compiled } from './wasm/simulate-wasm';
 import { Refused, Unsupported } from './wasm/source-tree';
 
 /** Aim for batches of about this much wall time between hook checks (cancel lands within 200 ms). */
@@ -80,16 +80,15 @@ function literalForm(plan: SimulationPlan): SimulationPlan {
 }
 
 /**
- * Why this plan cannot run on the wasm kernel here, or null when it can (kernel-choice.ts).
+ * The compiled wasm kernel of this plan, or why it cannot run on it here (kernel-choice.ts).
  * Anything the wasm kernel does not support runs on the JavaScript kernel instead.
  */
-function wasmFallbackReason(plan: SimulationPlan, layout: PlanLayout): string | null {
+function wasmKernelOrReason(plan: SimulationPlan, layout: PlanLayout): Compiled | string {
   if (!wasmSimdAvailable()) return 'this browser has no WebAssembly SIMD';
   const fields = unknownPlanFields(plan);
   if (fields.length > 0) return `the wasm kernel does not know ${fields.join(', ')}`;
   try {
-    compileWasmKernel(plan, layout);
-    return null;
+    return compileWasmKernel(plan, layout);
   } catch (error) {
     if (error instanceof Refused) return error.message;
     if (error instanceof Unsupported) return `the wasm kernel does not support this model: ${error.message}`;
@@ -117,14 +116,14 @@ export function simulateChunk(
   const chunk = allocateChunk(plan, layout, firstPath, pathCount);
   if (kernelChoice() !== 'js') {
     const wasmPlan = literalForm(plan);
-    const reason = wasmFallbackReason(wasmPlan, layout);
+    const wasm = wasmKernelOrReason(wasmPlan, layout);
     try {
-      if (reason === null) {
-        simulateChunkWasm(wasmPlan, layout, chunk, hooks);
+      if (typeof wasm !== 'string') {
+        simulateChunkWasm(wasmPlan, layout, chunk, hooks, wasm);
         chunk.kernel = 'wasm';
         return chunk;
       }
-      chunk.kernelNote = reason;
+      chunk.kernelNote = wasm;
     } catch (error) {
       if (!(error instanceof Unsupported)) throw error;
       chunk.kernelNote = error.message;

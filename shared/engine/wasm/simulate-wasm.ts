@@ -20,34 +20,41 @@ import {
 import { WEDGE_TABLE } from './wedge-table';
 
 /**
- * Runs a chunk on the wasm kernel (kernel-module.ts): writes the tables and step lists into a
- * fresh memory, calls `run` on batches of groups (hooks between batches, as
- * simulateChunk does), then copies the outputs into the chunk's own arrays.
+ * Runs a chunk on the wasm kernel (kernel-module.ts): writes the tables and step lists into the
+ * thread's wasm memory (reused from chunk to chunk, see instanceFor), calls `run` on batches of
+ * groups (hooks between batches, as simulateChunk does), then copies the outputs into the chunk's
+ * own arrays.
  */
 
-interface Compiled {
+export interface Compiled {
   module: WebAssembly.Module;
   callOuts: WasmKernelModule['callOuts'];
   constants: number[];
 }
 
-const modules = new Map<string, WebAssembly.Module>();
+/** Compiled modules by a hash of their bytes, each with the bytes it was compiled from (compared in full). */
+const modules = new Map<number, { bytes: Uint8Array; module: WebAssembly.Module }[]>();
 const built = new Map<string, Compiled | Unsupported>();
 const CACHE_SIZE = 8;
 
 /** Small caches, most recent last. */
-function remember<T>(cache: Map<string, T>, key: string, value: T): void {
+function remember<K, T>(cache: Map<K, T>, key: K, value: T): void {
   cache.delete(key);
   cache.set(key, value);
   if (cache.size > CACHE_SIZE) cache.delete(cache.keys().next().value!);
 }
 
-/** The bytes as a string key (modules are a few kilobytes). */
-function keyOf(bytes: Uint8Array): string {
-  let key = '';
-  for (let i = 0; i < bytes.length; i += 4096)
-    key += String.fromCharCode(...bytes.subarray(i, Math.min(bytes.length, i + 4096)));
-  return key;
+/** FNV-1a 32 of the bytes: the modules cache's key (a hit is then checked byte for byte). */
+function hashOf(bytes: Uint8Array): number {
+  let hash = 0x811c9dc5;
+  for (let i = 0; i < bytes.length; i++) hash = Math.imul(hash ^ bytes[i]!, 0x01000193);
+  return hash >>> 0;
+}
+
+function sameBytes(a: Uint8Array, b: Uint8Array): boolean {
+  if (a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
+  return true;
 }
 
 /**
@@ -71,8 +78,9 @@ export function compileWasmKernel(plan: SimulationPlan, layout: PlanLayout): Com
   }
   // The constants live in memory, not in the bytes: plans that differ only in their numbers (a
   // sweep over a parameter) share one compiled module, each with its own constant pool.
-  const key = keyOf(kernel.bytes);
-  let module = modules.get(key);
+  const key = hashOf(kernel.bytes);
+  const sameHash = modules.get(key) ?? [];
+  let module = sameHash.find((entry) => sameBytes(entry.bytes, kernel.bytes))?.module;
   if (module === undefined) {
     try {
       module = new WebAssembly.Module(kernel.bytes);
@@ -85,7 +93,8 @@ export function compileWasmKernel(plan: SimulationPlan, layout: PlanLayout): Com
       throw refused;
     }
   }
-  remember(modules, key, module);
+  if (!sameHash.some((entry) => entry.module === module)) sameHash.push({ bytes: kernel.bytes, module });
+  remember(modules, key, sameHash);
   const compiled = { module, callOuts: kernel.callOuts, constants: kernel.constants };
   remember(built, planKey, compiled);
   return compiled;
@@ -120,8 +129,8 @@ export function simulateChunkWasm(
   layout: PlanLayout,
   chunk: ChunkResult,
   hooks?: SimulationHooks,
+  compiled: Compiled = compileWasmKernel(plan, layout),
 ): void {
-  const compiled = compileWasmKernel(plan, layout);
   const d = layout.stateCount;
   const pathCount = chunk.pathCount;
   const groups = Math.ceil(pathCount / 4);
@@ -138,12 +147,7 @@ export function simulateChunkWasm(
     throw new Refused(
       `the chunk needs ${Math.ceil(mem.bytes / 2 ** 20)} MiB, more than the wasm kernel takes`,
     );
-  let memory: WebAssembly.Memory;
-  try {
-    memory = new WebAssembly.Memory({ initial: Math.max(1, Math.ceil(mem.bytes / 65536)) });
-  } catch (error) {
-    throw new Refused(`no memory for the wasm kernel (${String(error)})`);
-  }
+  const { memory, instance } = instanceFor(compiled, mem.bytes);
   const buffer = memory.buffer;
   // The fast table as pairs (wn[i], kn²[i]), one 16-byte load per lane.
   const table = new Float64Array(buffer, TABLE_OFFSET, 256);
@@ -169,51 +173,102 @@ export function simulateChunkWasm(
   const probeSteps = new Int32Array(buffer, mem.offsets.probeSteps, probeCount + 1);
   layout.probeOrder.forEach((j, q) => (probeSteps[q] = j < 0 ? -1 : layout.probeSteps[j]!));
   new Int32Array(buffer, mem.offsets.probeOrder, probeCount + 1).set(layout.probeOrder);
-  const lib: Record<string, (...args: number[]) => number> = {};
-  for (const { fn, arity } of compiled.callOuts) {
-    lib[`${fn}/${arity}`] = PORTABLE_MATH[fn as keyof typeof PORTABLE_MATH] as (...args: number[]) => number;
-  }
-  const stop = hooks?.shouldStop;
-  const instance = instantiate(compiled.module, {
-    env: { memory },
-    engine: {
-      shouldStop: () => (stop !== undefined && stop() === true ? 1 : 0),
-    },
-    lib,
-  });
+  // Outputs the kernel leaves as they are for paths never lost: zero, as in a fresh chunk.
+  new Uint8Array(buffer, mem.offsets.lossCause, padded).fill(0);
   const run = instance.exports.run as (g0: number, g1: number) => number;
 
   const checksHooks = hooks?.shouldStop !== undefined || hooks?.onProgress !== undefined;
   let batch = checksHooks ? Math.max(1, Math.floor(FIRST_BATCH_PATH_STEPS / plan.steps / 4)) : groups;
   let done = 0;
-  while (done < groups) {
-    if (hooks?.shouldStop?.() === true) {
-      chunk.cancelled = true;
-      break;
+  currentStop = hooks?.shouldStop;
+  try {
+    while (done < groups) {
+      if (hooks?.shouldStop?.() === true) {
+        chunk.cancelled = true;
+        break;
+      }
+      const target = Math.min(groups, done + batch);
+      const started = now();
+      const reached = run(done, target);
+      const elapsed = now() - started;
+      const from = done;
+      done = reached;
+      chunk.pathsDone = Math.min(pathCount, done * 4);
+      if (reached < target) {
+        chunk.cancelled = true;
+        break;
+      }
+      hooks?.onProgress?.(chunk.pathsDone);
+      if (checksHooks) {
+        const perGroup = Math.max(elapsed, 0.01) / (target - from);
+        batch = Math.max(1, Math.min(batch * 4, Math.floor(BATCH_TARGET_MS / perGroup)));
+      }
     }
-    const target = Math.min(groups, done + batch);
-    const started = now();
-    const reached = run(done, target);
-    const elapsed = now() - started;
-    const from = done;
-    done = reached;
-    chunk.pathsDone = Math.min(pathCount, done * 4);
-    if (reached < target) {
-      chunk.cancelled = true;
-      break;
-    }
-    hooks?.onProgress?.(chunk.pathsDone);
-    if (checksHooks) {
-      const perGroup = Math.max(elapsed, 0.01) / (target - from);
-      batch = Math.max(1, Math.min(batch * 4, Math.floor(BATCH_TARGET_MS / perGroup)));
-    }
+  } finally {
+    currentStop = undefined;
   }
   copyOut(buffer, mem.offsets, padded, chunk);
 }
 
-function instantiate(module: WebAssembly.Module, imports: WebAssembly.Imports): WebAssembly.Instance {
+/** The hooks' stop test of the chunk being run, which every instance's `shouldStop` import reads. */
+let currentStop: (() => boolean | void) | undefined;
+
+/**
+ * One memory per thread, kept for the next chunk and grown when a chunk needs more, with one
+ * instance per module on it. A new memory per chunk cost about 60 µs in V8 (it reserves address
+ * space and guard pages) and pressed the garbage collector: a sweep's 480 chunks spent more there
+ * than in the kernel's setup. Chunks over REUSED_BYTES get a memory of their own, dropped after.
+ */
+const REUSED_BYTES = 64 * 2 ** 20;
+let reused: { memory: WebAssembly.Memory; instances: Map<WebAssembly.Module, WebAssembly.Instance> } | null =
+  null;
+
+function newMemory(bytes: number): WebAssembly.Memory {
   try {
-    return new WebAssembly.Instance(module, imports);
+    return new WebAssembly.Memory({ initial: Math.max(1, Math.ceil(bytes / 65536)) });
+  } catch (error) {
+    throw new Refused(`no memory for the wasm kernel (${String(error)})`);
+  }
+}
+
+function instanceFor(
+  compiled: Compiled,
+  bytes: number,
+): { memory: WebAssembly.Memory; instance: WebAssembly.Instance } {
+  if (bytes > REUSED_BYTES) {
+    const memory = newMemory(bytes);
+    return { memory, instance: instantiate(compiled, memory) };
+  }
+  reused ??= { memory: newMemory(bytes), instances: new Map() };
+  const { memory, instances } = reused;
+  const missing = bytes - memory.buffer.byteLength;
+  if (missing > 0) {
+    try {
+      memory.grow(Math.ceil(missing / 65536));
+    } catch (error) {
+      throw new Refused(`no memory for the wasm kernel (${String(error)})`);
+    }
+  }
+  let instance = instances.get(compiled.module);
+  if (instance === undefined) {
+    instance = instantiate(compiled, memory);
+    remember(instances, compiled.module, instance);
+  }
+  return { memory, instance };
+}
+
+function instantiate(compiled: Compiled, memory: WebAssembly.Memory): WebAssembly.Instance {
+  const lib: Record<string, (...args: number[]) => number> = {};
+  for (const { fn, arity } of compiled.callOuts) {
+    lib[`${fn}/${arity}`] = PORTABLE_MATH[fn as keyof typeof PORTABLE_MATH] as (...args: number[]) => number;
+  }
+  const imports = {
+    env: { memory },
+    engine: { shouldStop: () => (currentStop !== undefined && currentStop() === true ? 1 : 0) },
+    lib,
+  };
+  try {
+    return new WebAssembly.Instance(compiled.module, imports);
   } catch (error) {
     throw new Refused(`this JavaScript engine did not instantiate the wasm kernel (${String(error)})`);
   }

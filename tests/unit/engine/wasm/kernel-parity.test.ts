@@ -171,6 +171,35 @@ describe('the wasm kernel gives the JavaScript kernel’s bits', () => {
     expect(Array.from(bound.lossCause)).toContain(3);
   });
 
+  it('reuses its memory: a run after one that lost every path, a larger chunk, then a smaller one', () => {
+    // The thread's wasm memory and instances are kept from chunk to chunk (simulate-wasm.ts), so
+    // nothing a run leaves behind may show in the next: here every path of the first is lost.
+    const allLost = makePlan({
+      drift: ['s0 * s0 * s0'],
+      diffusion: [['1']],
+      initial: [50],
+      t1: 1,
+      steps: 40,
+      paths: 64,
+    });
+    const calm = makePlan({
+      drift: ['-s0'],
+      diffusion: [['0.2']],
+      initial: [1],
+      t1: 1,
+      steps: 40,
+      paths: 64,
+    });
+    const lost = expectSameOnBothKernels(allLost);
+    expect(Array.from(lost.lossCause).every((cause) => cause !== 0)).toBe(true);
+    const after = expectSameOnBothKernels(calm);
+    expect(Array.from(after.lossCause).every((cause) => cause === 0)).toBe(true);
+    expect(Array.from(after.blowupTime).every(Number.isNaN)).toBe(true);
+    expectSameOnBothKernels({ ...calm, paths: 3001 });
+    expectSameOnBothKernels({ ...allLost, paths: 7 });
+    expectSameOnBothKernels({ ...calm, paths: 5 });
+  });
+
   it('when every path of a group is lost early (saves after the loss are NaN)', () => {
     const chunk = expectSameOnBothKernels(
       makePlan({ drift: ['-5'], diffusion: [['f_log(s0)']], initial: [1], t1: 1, steps: 50, paths: 8 }),
