@@ -8,10 +8,30 @@
  */
 import { OP, SIMD, type ValueType } from './opcodes';
 
+/** Scratch for writing an f64's little-endian bytes. */
+const F64_SCRATCH = new DataView(new ArrayBuffer(8));
+const F64_BYTES = new Uint8Array(F64_SCRATCH.buffer);
+
+/** A growing byte buffer (a kernel module is 10-40 KB, built once per plan shape). */
 class Bytes {
-  readonly out: number[] = [];
+  private buffer = new Uint8Array(1024);
+  private length = 0;
+  /** The bytes written so far (a view; copy it to keep it past later writes). */
+  get out(): Uint8Array<ArrayBuffer> {
+    return this.buffer.subarray(0, this.length);
+  }
+  private room(count: number): void {
+    if (this.length + count <= this.buffer.length) return;
+    const grown = new Uint8Array(Math.max(2 * this.buffer.length, this.length + count));
+    grown.set(this.buffer.subarray(0, this.length));
+    this.buffer = grown;
+  }
+  private push(b: number): void {
+    this.room(1);
+    this.buffer[this.length++] = b;
+  }
   byte(b: number): this {
-    this.out.push(b & 0xff);
+    this.push(b & 0xff);
     return this;
   }
   u32(value: number): this {
@@ -20,7 +40,7 @@ class Bytes {
       let b = v & 0x7f;
       v >>>= 7;
       if (v !== 0) b |= 0x80;
-      this.out.push(b);
+      this.push(b);
     } while (v !== 0);
     return this;
   }
@@ -30,7 +50,7 @@ class Bytes {
       const b = v & 0x7f;
       v >>= 7;
       const done = (v === 0 && (b & 0x40) === 0) || (v === -1 && (b & 0x40) !== 0);
-      this.out.push(done ? b : b | 0x80);
+      this.push(done ? b : b | 0x80);
       if (done) return this;
     }
   }
@@ -41,18 +61,19 @@ class Bytes {
       const b = Number(v & 0x7fn);
       v >>= 7n;
       const done = (v === 0n && (b & 0x40) === 0) || (v === -1n && (b & 0x40) !== 0);
-      this.out.push(done ? b : b | 0x80);
+      this.push(done ? b : b | 0x80);
       if (done) return this;
     }
   }
   f64(value: number): this {
-    const view = new DataView(new ArrayBuffer(8));
-    view.setFloat64(0, value, true);
-    for (let i = 0; i < 8; i++) this.out.push(view.getUint8(i));
-    return this;
+    F64_SCRATCH.setFloat64(0, value, true);
+    return this.bytes(F64_BYTES);
   }
   bytes(list: ArrayLike<number>): this {
-    for (let i = 0; i < list.length; i++) this.out.push(list[i]! & 0xff);
+    this.room(list.length);
+    if (list instanceof Uint8Array) this.buffer.set(list, this.length);
+    else for (let i = 0; i < list.length; i++) this.buffer[this.length + i] = list[i]! & 0xff;
+    this.length += list.length;
     return this;
   }
   vec(items: number[][]): this {
@@ -230,7 +251,7 @@ export class FunctionBody {
     return this;
   }
 
-  encode(): number[] {
+  encode(): Uint8Array {
     const b = new Bytes();
     // Locals, run-length encoded by type.
     const groups: [number, ValueType][] = [];
@@ -315,6 +336,6 @@ export class ModuleBuilder {
       code.bytes(f.body.encode());
     }
     section(10, code);
-    return new Uint8Array(out.out);
+    return out.out.slice();
   }
 }
