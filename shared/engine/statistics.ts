@@ -143,10 +143,23 @@ function selectRanks(
   }
 }
 
+/** Below this many values the quantiles are selected directly; above, buckets narrow them first. */
+const BUCKETED_FROM = 4096;
+const BUCKETS = 2048;
+const bucketCounts = new Int32Array(BUCKETS);
+const bucketWanted = new Uint8Array(BUCKETS);
+
 /**
  * Type-7 quantiles (see quantileSorted) of the first `count` entries of `values`, which must be
  * finite, without a full sort: places just the order statistics needed (each ⌊h⌋ and ⌊h⌋ + 1) by
- * multiple selection. Reorders `values`.
+ * multiple selection. Uses `values` as scratch (its contents afterwards are unspecified).
+ *
+ * For many values the selection is narrowed first, with the same result: one pass counts the
+ * values in 2,048 equal-width buckets between the minimum and maximum (the bucket index is a
+ * non-decreasing function of the value, so every value of a bucket is ≤ every value of a later
+ * one), the values of the buckets that hold a wanted rank are moved to the front, and the ranks
+ * are selected among those alone. Partitioning is slow in JavaScript for its unpredictable
+ * branches; the counting pass has none. A 50,000-value column took about 1.4 ms before.
  */
 export function quantilesInPlace(
   values: Float64Array,
@@ -165,12 +178,65 @@ export function quantilesInPlace(
     wanted.add(Math.min(count - 1, below + 1));
   }
   const ranks = Int32Array.from(wanted).sort();
-  selectRanks(values, 0, count - 1, ranks, 0, ranks.length - 1);
+  const places = count >= BUCKETED_FROM ? narrowToBuckets(values, count, ranks) : null;
+  if (places === null) selectRanks(values, 0, count - 1, ranks, 0, ranks.length - 1);
+  else selectRanks(values, 0, places.kept - 1, places.ranks, 0, ranks.length - 1);
+  const valueAt = (rank: number): number =>
+    places === null ? values[rank]! : values[places.ranks[ranks.indexOf(rank)]!]!;
   probabilities.forEach((probability, index) => {
     const position = (count - 1) * probability;
     const below = Math.floor(position);
-    const lower = values[below]!;
-    const upper = values[Math.min(count - 1, below + 1)]!;
+    const lower = valueAt(below);
+    const upper = valueAt(Math.min(count - 1, below + 1));
     out[index] = lower + (position - below) * (upper - lower);
   });
+}
+
+/**
+ * Moves the values of the buckets that hold the ranks to the front of `values` (in their order)
+ * and returns how many were kept and where each rank is among them; null when the values have
+ * no finite positive spread (all equal, or a spread that overflows), for plain selection.
+ */
+function narrowToBuckets(
+  values: Float64Array,
+  count: number,
+  ranks: Int32Array,
+): { kept: number; ranks: Int32Array } | null {
+  let min = Infinity;
+  let max = -Infinity;
+  for (let i = 0; i < count; i++) {
+    const value = values[i]!;
+    if (value < min) min = value;
+    if (value > max) max = value;
+  }
+  const spread = max - min;
+  if (!(spread > 0 && spread < Infinity)) return null;
+  const scale = BUCKETS / spread;
+  const last = BUCKETS - 1;
+  bucketCounts.fill(0);
+  for (let i = 0; i < count; i++) bucketCounts[Math.min(last, ((values[i]! - min) * scale) | 0)]!++;
+  // The bucket of each rank, then the rank's place among the kept values.
+  bucketWanted.fill(0);
+  const bucketOf = new Int32Array(ranks.length);
+  const withinBucket = new Int32Array(ranks.length);
+  let bucket = 0;
+  let before = 0;
+  ranks.forEach((rank, r) => {
+    while (before + bucketCounts[bucket]! <= rank) before += bucketCounts[bucket++]!;
+    bucketOf[r] = bucket;
+    withinBucket[r] = rank - before;
+    bucketWanted[bucket] = 1;
+  });
+  const keptBefore = new Int32Array(BUCKETS);
+  let kept = 0;
+  for (let b = 0; b < BUCKETS; b++) {
+    keptBefore[b] = kept;
+    if (bucketWanted[b] === 1) kept += bucketCounts[b]!;
+  }
+  let at = 0;
+  for (let i = 0; i < count; i++) {
+    const value = values[i]!;
+    if (bucketWanted[Math.min(last, ((value - min) * scale) | 0)] === 1) values[at++] = value;
+  }
+  return { kept, ranks: bucketOf.map((b, r) => keptBefore[b]! + withinBucket[r]!) };
 }

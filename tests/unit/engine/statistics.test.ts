@@ -1,3 +1,4 @@
+import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { moments, quantileSorted, quantilesInPlace, selectInPlace } from '@shared/engine/statistics';
 import { Xoshiro128 } from '@shared/engine/random/xoshiro128';
@@ -39,6 +40,47 @@ describe('order statistics', () => {
       quantilesInPlace(values, n, probabilities, out);
       probabilities.forEach((p, i) => expect(out[i]).toBe(quantileSorted(sorted, n, p)));
     }
+  });
+
+  it('gives the same quantiles through the buckets as a full sort, whatever the shape of the sample', () => {
+    // quantilesInPlace narrows samples of 4,096 values or more by bucket counts first; the order
+    // statistics must not depend on it (compared with sorting, the definition of type 7).
+    const shapes = fc.constantFrom(
+      'normal',
+      'heavy tail',
+      'few values',
+      'one far outlier',
+      'constant',
+      'overflowing spread',
+    );
+    fc.assert(
+      fc.property(
+        fc.integer({ min: 4090, max: 9000 }),
+        fc.integer({ min: 1, max: 2 ** 31 }),
+        shapes,
+        (n, seed, shape) => {
+          const generator = new Xoshiro128([seed, 7, 11, n]);
+          const normal = (): number => {
+            const u = generator.nextOpenUnit();
+            const v = generator.nextOpenUnit();
+            return Math.sqrt(-2 * Math.log(u)) * Math.cos(2 * Math.PI * v);
+          };
+          const values = Float64Array.from({ length: n }, (_, i) => {
+            if (shape === 'normal') return normal();
+            if (shape === 'heavy tail') return Math.exp(4 * normal());
+            if (shape === 'few values') return (generator.nextUint32() % 5) - 2;
+            if (shape === 'one far outlier') return i === 17 ? 1e12 : normal();
+            if (shape === 'constant') return 3.25;
+            return i % 2 === 0 ? -1.5e308 : 1.5e308 * generator.nextOpenUnit();
+          });
+          const sorted = values.slice().sort();
+          const out = new Float64Array(probabilities.length);
+          quantilesInPlace(values, n, probabilities, out);
+          probabilities.forEach((p, i) => expect(Object.is(out[i], quantileSorted(sorted, n, p))).toBe(true));
+        },
+      ),
+      { numRuns: 60, seed: 20261203 },
+    );
   });
 
   it('computes type 7 on a small hand example', () => {
