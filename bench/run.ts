@@ -1,6 +1,7 @@
 import { availableParallelism } from 'node:os';
 import { buildSimulationPlan } from '../shared/sheet/index';
-import { mergeChunks, simulate } from '../shared/engine/index';
+import { mergeChunks } from '../shared/engine/index';
+import { simulateChunk } from '../shared/engine/simulate';
 import type { SimulationPlan } from '../shared/engine/plan';
 import { createThreadPool, type ThreadPool } from '../server/cli/thread-pool';
 import { setKernelChoice, type KernelName } from '../shared/engine/wasm/kernel-choice';
@@ -59,6 +60,8 @@ function parseOptions(argv: string[]): Options {
 interface Measurement {
   seconds: number;
   stepsPerSec: number;
+  /** In-process cases: the simulation alone (seeding, the kernel, the chunk's arrays), before the merge. */
+  simulationSeconds?: number;
 }
 
 interface CaseRunner {
@@ -79,20 +82,33 @@ async function timed(plan: SimulationPlan, work: () => Promise<unknown> | unknow
   return { seconds, stepsPerSec: (plan.paths * plan.steps) / seconds };
 }
 
-/** One thread, on the kernel named (the JavaScript one, or wasm: a fallback would be an error here). */
+/**
+ * One thread, on the kernel named (the JavaScript one, or wasm: a fallback would be an error here):
+ * `simulate`, timed as a whole and in its two parts, the chunk's simulation and the merge into
+ * statistics and digest. The reference programs time their seeding and loop only, which is the
+ * first part; the whole run is what a sheet waits for.
+ */
 function inProcessCase(name: string, plan: SimulationPlan, kernel: KernelName): CaseRunner {
-  const run = () => {
+  const measure = async (): Promise<Measurement> => {
     setKernelChoice(kernel);
     try {
-      const result = simulate(plan);
+      const started = performance.now();
+      const chunk = simulateChunk(plan, 0, plan.paths);
+      const simulated = performance.now();
+      const result = mergeChunks(plan, [chunk]);
+      const seconds = (performance.now() - started) / 1000;
       if (result.kernel !== kernel)
         throw new Error(`${name} ran on the ${result.kernel} kernel: ${result.kernelNote}`);
-      return result;
+      return {
+        seconds,
+        stepsPerSec: (plan.paths * plan.steps) / seconds,
+        simulationSeconds: (simulated - started) / 1000,
+      };
     } finally {
       setKernelChoice('auto');
     }
   };
-  return { name, paths: plan.paths, steps: plan.steps, measure: () => timed(plan, run) };
+  return { name, paths: plan.paths, steps: plan.steps, measure };
 }
 
 async function poolCase(name: string, plan: SimulationPlan, threads: ThreadPool): Promise<CaseRunner> {
@@ -148,9 +164,13 @@ async function main(): Promise<void> {
 
     const medians = new Map<string, Measurement>();
     for (const [name, list] of samples) {
+      const simulation = list.flatMap((m) =>
+        m.simulationSeconds === undefined ? [] : [m.simulationSeconds],
+      );
       medians.set(name, {
         seconds: median(list.map((m) => m.seconds)),
         stepsPerSec: median(list.map((m) => m.stepsPerSec)),
+        ...(simulation.length > 0 ? { simulationSeconds: median(simulation) } : {}),
       });
     }
     const line = (name: string, paths: number, steps: number, extra: Record<string, unknown> = {}) => {
@@ -161,6 +181,9 @@ async function main(): Promise<void> {
         steps,
         seconds: Number(m.seconds.toFixed(4)),
         stepsPerSec: Number(m.stepsPerSec.toPrecision(4)),
+        ...(m.simulationSeconds === undefined
+          ? {}
+          : { simulationSeconds: Number(m.simulationSeconds.toFixed(4)) }),
         ...extra,
       });
     };
@@ -182,6 +205,11 @@ async function main(): Promise<void> {
       ouScalarVsZiggurat: ratio(engine, speed('ref-c-ziggurat')),
       ouScalarWasmVsC: ratio(wasm, speed('ref-c')),
       ouScalarWasmVsZiggurat: ratio(wasm, speed('ref-c-ziggurat')),
+      // Like for like with the reference's timed region: seeding and the loop, without the merge.
+      ouScalarWasmSimulationVsZiggurat: ratio(
+        medians.get('ref-c-ziggurat')?.seconds,
+        medians.get('ou-scalar-wasm')?.simulationSeconds,
+      ),
       ouScalarWasmVsJs: ratio(wasm, engine),
       grazingWasmVsJs: ratio(speed('grazing-2d-wasm'), speed('grazing-2d')),
       gbmWasmVsJs: ratio(speed('gbm-milstein-wasm'), speed('gbm-milstein')),
