@@ -55,15 +55,8 @@ export class Fnv1a64 {
   addNumbers(values: ArrayLike<number>): this {
     const wasm = values.length >= WASM_MIN_NUMBERS ? wasmHasher() : null;
     if (wasm !== null) {
-      const copy = wasm.words(values.length);
-      copy.set(values);
-      const halves = new Uint32Array(copy.buffer, copy.byteOffset, 2 * values.length);
-      for (let i = 0; i < values.length; i++) {
-        if (copy[i] !== copy[i]) {
-          halves[2 * i] = 0;
-          halves[2 * i + 1] = 0x7ff80000;
-        }
-      }
+      // The hasher makes every NaN the canonical one itself.
+      wasm.words(values.length).set(values);
       const state = wasm.state;
       state[0] = this.l0;
       state[1] = this.l1;

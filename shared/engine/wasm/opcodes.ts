@@ -68,6 +68,7 @@ export const OP = {
   i64Add: 0x7c,
   i64Eq: 0x51,
   i64Eqz: 0x50,
+  i64GtU: 0x56,
   i64Const: 0x42,
   f64Abs: 0x99,
   f64Neg: 0x9a,

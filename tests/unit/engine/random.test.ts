@@ -235,6 +235,10 @@ describe('FNV-1a 64 digest', () => {
     expect(wasmHasher()).not.toBeNull();
     // 30,000 numbers need more than the hasher's first 64 KiB page: it grows its memory.
     const long = Float64Array.from({ length: 30_000 }, (_, i) => (i % 11 === 0 ? NaN : Math.cos(i) * 1e3));
+    // NaNs with a sign bit and another payload hash as the canonical NaN too; infinities stay.
+    new Uint32Array(long.buffer, 8 * 5, 2).set([7, 0xfff00000]);
+    long[6] = -Infinity;
+    long[7] = Infinity;
     const causes = Uint8Array.from({ length: 500 }, (_, i) => i % 4);
     const live = Int32Array.from({ length: 300 }, (_, i) => 10_000 - i);
     const viaWasm = new Fnv1a64()
