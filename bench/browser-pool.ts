@@ -11,11 +11,19 @@ import { startLoadStack } from './load/stack';
  * Chromium, with the page cross-origin isolated (workers take chunks from a shared counter) and
  * without (the same page with COOP/COEP stripped: chunks handed out by message). For 1 and 2
  * workers (navigator.hardwareConcurrency set to workers + 1 through the DevTools protocol), the time from
- * pressing "Run all" to the merged result of a 200,000-path run; medians over the rounds, and the
+ * pressing "Run all" to the merged result of a 200,000-path, 200-step run (`--paths`, `--steps`); medians over the rounds, and the
  * speed-up of 2 workers over 1. Needs `npm run build` first.
  */
-const ROUNDS = Number(process.argv[process.argv.indexOf('--rounds') + 1] || 3);
-const PATHS = 200_000;
+function option(name: string, fallback: number): number {
+  const at = process.argv.indexOf(name);
+  if (at < 0) return fallback;
+  const value = Number(process.argv[at + 1]);
+  if (!Number.isInteger(value) || value < 1) throw new Error(`${name} needs a positive whole number`);
+  return value;
+}
+const ROUNDS = option('--rounds', 3);
+const PATHS = option('--paths', 200_000);
+const STEPS = option('--steps', 200);
 
 async function measure(
   context: BrowserContext,
@@ -101,7 +109,7 @@ async function main() {
                 kind: 'simulation',
                 model: 'm',
                 t1: 2,
-                steps: 200,
+                steps: STEPS,
                 paths: PATHS,
                 seed: 7,
                 saveCount: 11,
@@ -122,7 +130,7 @@ async function main() {
         `${JSON.stringify({
           page: isolation,
           paths: PATHS,
-          steps: 200,
+          steps: STEPS,
           msOneWorker: Math.round(one),
           msTwoWorkers: Math.round(two),
           speedUpTwoOverOne: Math.round((one / two) * 100) / 100,
