@@ -3,7 +3,8 @@ import { wasmHasher } from './wasm/fnv-wasm';
 /**
  * FNV-1a 64-bit hash (Fowler, Noll & Vo; offset basis 0xcbf29ce484222325, prime 0x100000001b3)
  * over the little-endian IEEE-754 bytes of numbers. Identical numbers give identical digests on
- * every platform. Computed with four 16-bit limbs so it needs no BigInt.
+ * every platform. Computed with four 16-bit limbs so it needs no BigInt; long arrays go through
+ * the wasm hasher (wasm/fnv-wasm.ts) where there is one, with the same bits.
  */
 /** Numbers hashed per block by addNumbers (through a typed-array view rather than a DataView call each). */
 const BLOCK = 1024;

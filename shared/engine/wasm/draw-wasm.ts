@@ -1,5 +1,6 @@
 import type { FunctionBody } from './emitter';
 import { I32, OP, SIMD, V128 } from './opcodes';
+import { emitWedgeExpX2 } from './fdlibm';
 import {
   FINISH_OFFSET,
   FIRST_OUTPUT_OFFSET,
@@ -53,7 +54,6 @@ export function declareDrawLocals(f: FunctionBody): void {
     f.local(name, V128);
   for (const name of ['wA#0', 'wA#1', 'wc3', 'wc2', 'wc1', 'wc0', 'wym', 'wband', 'wd']) f.local(name, V128);
   for (const name of ['wn', 'kn']) for (const half of HALVES) f.local(`${name}#${half}`, V128);
-  for (const name of ['k', 'hi', 'lo', 'r', 't', 'p', 'c', 'res']) f.local(`we_${name}`, V128);
 }
 
 export class DrawEmitter {
@@ -150,49 +150,6 @@ export class DrawEmitter {
   }
 
   /**
-   * exp(y) on two lanes for y in (−6.2, 0] (the wedge test, −x²/2 with |x| ≤ r): the branches of
-   * fdlibm.ts that this range can take, as selects; ldexp is exact here (a normal result), so it is
-   * a multiplication by 2^k.
-   */
-  private wedgeExp(y: string): void {
-    const f = this.f;
-    const v = (name: string): string => `we_${name}`;
-    f.f64x2(1.442695040888963387).get(y).simd(SIMD.f64x2Mul).f64x2(0.5).simd(SIMD.f64x2Sub);
-    f.simd(SIMD.f64x2Trunc).set(v('k'));
-    f.get(y).get(v('k')).f64x2(6.9314718036912381649e-1).simd(SIMD.f64x2Mul).simd(SIMD.f64x2Sub).set(v('hi'));
-    f.get(v('k')).f64x2(1.90821492927058770002e-10).simd(SIMD.f64x2Mul).set(v('lo'));
-    f.get(v('hi')).get(v('lo')).simd(SIMD.f64x2Sub).set(v('r'));
-    f.get(v('r')).get(v('r')).simd(SIMD.f64x2Mul).set(v('t'));
-    const p = [
-      0.16666666666666602, -0.0027777777777015593, 0.00006613756321437934, -0.0000016533902205465252,
-      4.1381367970572385e-8,
-    ];
-    f.f64x2(p[4]!);
-    for (let i = 3; i >= 0; i--) {
-      f.set(v('p')).f64x2(p[i]!).get(v('t')).get(v('p')).simd(SIMD.f64x2Mul).simd(SIMD.f64x2Add);
-    }
-    f.set(v('p'));
-    f.get(v('r')).get(v('t')).get(v('p')).simd(SIMD.f64x2Mul).simd(SIMD.f64x2Sub).set(v('c'));
-    f.f64x2(1).get(v('lo')).get(v('r')).get(v('c')).simd(SIMD.f64x2Mul);
-    f.f64x2(2).get(v('c')).simd(SIMD.f64x2Sub).simd(SIMD.f64x2Div).simd(SIMD.f64x2Sub);
-    f.get(v('hi')).simd(SIMD.f64x2Sub).simd(SIMD.f64x2Sub);
-    // · 2^k, built from k's bits
-    f.get(v('k')).simd(SIMD.i32x4TruncSatF64x2SZero).simd(SIMD.i64x2ExtendLowI32x4S);
-    f.i64(1023n).simd(SIMD.i64x2Splat).simd(SIMD.i64x2Add).i32(52).simd(SIMD.i64x2Shl);
-    f.simd(SIMD.f64x2Mul).set(v('res'));
-    // |y| < 2^-28: 1 + y
-    f.f64x2(1).get(y).simd(SIMD.f64x2Add).get(v('res'));
-    f.get(y)
-      .f64x2(-(2 ** -28))
-      .simd(SIMD.f64x2Gt)
-      .get(y)
-      .f64x2(2 ** -28)
-      .simd(SIMD.f64x2Lt)
-      .simd(SIMD.v128And);
-    f.simd(SIMD.v128Bitselect);
-  }
-
-  /**
    * The wedge test of Marsaglia & Tsang on the lanes in `wedge`, as normalSlowPath does it: one
    * uniform from each of those lanes' generators (the others keep theirs),
    * fn[iz] + u·(fn[iz − 1] − fn[iz]) < exp(−x²/2) with x = z{j}, decided by the layer's cubic and
@@ -258,7 +215,7 @@ export class DrawEmitter {
         const z = `z${j}#${half}`;
         f.f64x2(-0.5).get(z).simd(SIMD.f64x2Mul).get(z).simd(SIMD.f64x2Mul).set('wy');
         f.get(`wA#${half}`);
-        this.wedgeExp('wy');
+        emitWedgeExpX2(f, 'wy');
         // Not below: rejected (a NaN cannot occur here: both sides are finite).
         f.simd(SIMD.f64x2Ge).simd(SIMD.i64x2Bitmask);
         if (half) f.i32(2).op(OP.i32Shl);
@@ -325,11 +282,8 @@ export class DrawEmitter {
         .get('finish')
         .store(OP.i32Store, 2, FINISH_OFFSET + 4);
       f.i32(0)
-        .get('finish')
-        .store(OP.i32Store, 2, FINISH_OFFSET + 8);
-      f.i32(0)
         .i32(this.target.drawAddress(j))
-        .store(OP.i32Store, 2, FINISH_OFFSET + 12);
+        .store(OP.i32Store, 2, FINISH_OFFSET + 8);
       this.target.leaveForFinisher();
     });
   }

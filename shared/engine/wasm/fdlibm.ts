@@ -1,5 +1,5 @@
 import type { FunctionBody } from './emitter';
-import { F64, I32, OP } from './opcodes';
+import { F64, I32, OP, SIMD, V128 } from './opcodes';
 
 /**
  * Scalar wasm ports of the engine's `exp` and `log` (shared/expr/portable-math.ts: stdlib's ports
@@ -221,4 +221,46 @@ export function emitLog(f: FunctionBody, x: string, out: string): void {
     kLo();
     f.op(OP.f64Sub).get('fl_f').op(OP.f64Sub).op(OP.f64Sub).set(out);
   });
+}
+
+/**
+ * exp(y) on two lanes, left on the stack, for y in (−6.2, 0] (the ziggurat's wedge test, −x²/2
+ * with |x| ≤ r): the branches of emitExp that this range can take, as selects; ldexp is exact
+ * here (a normal result), so it is a multiplication by 2^k.
+ */
+export function emitWedgeExpX2(f: FunctionBody, y: string): void {
+  const v = (name: string): string => f.local(`we_${name}`, V128);
+  f.f64x2(1.442695040888963387).get(y).simd(SIMD.f64x2Mul).f64x2(0.5).simd(SIMD.f64x2Sub);
+  f.simd(SIMD.f64x2Trunc).set(v('k'));
+  f.get(y).get(v('k')).f64x2(6.9314718036912381649e-1).simd(SIMD.f64x2Mul).simd(SIMD.f64x2Sub).set(v('hi'));
+  f.get(v('k')).f64x2(1.90821492927058770002e-10).simd(SIMD.f64x2Mul).set(v('lo'));
+  f.get(v('hi')).get(v('lo')).simd(SIMD.f64x2Sub).set(v('r'));
+  f.get(v('r')).get(v('r')).simd(SIMD.f64x2Mul).set(v('t'));
+  const p = [
+    0.16666666666666602, -0.0027777777777015593, 0.00006613756321437934, -0.0000016533902205465252,
+    4.1381367970572385e-8,
+  ];
+  f.f64x2(p[4]!);
+  for (let i = 3; i >= 0; i--) {
+    f.set(v('p')).f64x2(p[i]!).get(v('t')).get(v('p')).simd(SIMD.f64x2Mul).simd(SIMD.f64x2Add);
+  }
+  f.set(v('p'));
+  f.get(v('r')).get(v('t')).get(v('p')).simd(SIMD.f64x2Mul).simd(SIMD.f64x2Sub).set(v('c'));
+  f.f64x2(1).get(v('lo')).get(v('r')).get(v('c')).simd(SIMD.f64x2Mul);
+  f.f64x2(2).get(v('c')).simd(SIMD.f64x2Sub).simd(SIMD.f64x2Div).simd(SIMD.f64x2Sub);
+  f.get(v('hi')).simd(SIMD.f64x2Sub).simd(SIMD.f64x2Sub);
+  // · 2^k, built from k's bits
+  f.get(v('k')).simd(SIMD.i32x4TruncSatF64x2SZero).simd(SIMD.i64x2ExtendLowI32x4S);
+  f.i64(1023n).simd(SIMD.i64x2Splat).simd(SIMD.i64x2Add).i32(52).simd(SIMD.i64x2Shl);
+  f.simd(SIMD.f64x2Mul).set(v('res'));
+  // |y| < 2^-28: 1 + y
+  f.f64x2(1).get(y).simd(SIMD.f64x2Add).get(v('res'));
+  f.get(y)
+    .f64x2(-(2 ** -28))
+    .simd(SIMD.f64x2Gt)
+    .get(y)
+    .f64x2(2 ** -28)
+    .simd(SIMD.f64x2Lt)
+    .simd(SIMD.v128And);
+  f.simd(SIMD.v128Bitselect);
 }

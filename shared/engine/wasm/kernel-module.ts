@@ -128,7 +128,7 @@ export function buildWasmKernel(plan: SimulationPlan, layout: PlanLayout): WasmK
   }
   const runIndex = mod.declareFunction([I32, I32], [I32], 'run');
   const hotIndex = mod.declareFunction([], [I32]);
-  const finishIndex = mod.declareFunction([I32, I32, I32], []);
+  const finishIndex = mod.declareFunction([I32, I32], []);
 
   const runBody = new FunctionBody(
     [
@@ -695,7 +695,7 @@ export function buildWasmKernel(plan: SimulationPlan, layout: PlanLayout): WasmK
           f.call(hotIndex).set('slow');
           f.get('slow').i32(HOT_FINISH_DRAW).op(OP.i32Eq);
           f.if(() => {
-            for (const at of [4, 8, 12]) f.i32(0).load(OP.i32Load, 2, FINISH_OFFSET + at);
+            for (const at of [4, 8]) f.i32(0).load(OP.i32Load, 2, FINISH_OFFSET + at);
             f.call(finishIndex).br('calls');
           });
           f.get('slow').i32(HOT_STOP_CHECK).op(OP.i32Ne).brIf('path');

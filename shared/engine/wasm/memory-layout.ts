@@ -36,9 +36,8 @@ export const MASK_OFFSET = ALIVE_OFFSET + 32;
 /** Where a call of the hot loop left off: the step n, the save and probe indices, the group's first path (four i32). */
 export const STEP_OFFSET = MASK_OFFSET + 16;
 /**
- * A draw left to the lane-by-lane finisher (four i32): the draw j the hot loop resumes after (−1
- * when none), the base-layer lanes, the lanes to finish (bits) and the byte address of the draw's
- * two f64x2.
+ * A draw left to the finisher (three i32): the draw j the hot loop resumes after (−1 when none),
+ * the lanes in the base layer's tail (bits) and the byte address of the draw's two f64x2.
  */
 export const FINISH_OFFSET = STEP_OFFSET + 16;
 /** The first generator outputs of the draw left to the finisher (one i32x4). */

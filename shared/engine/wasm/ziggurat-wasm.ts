@@ -13,7 +13,7 @@ const ZIGGURAT_R = 3.442619855899;
 const OPEN_UNIT_SCALE = 2.3283064365386963e-10;
 
 /** One xoshiro128** step on zg0…zg3, the output in zr. */
-export function next(f: FunctionBody): void {
+function next(f: FunctionBody): void {
   f.get('zg1').i32(5).op(OP.i32Mul).i32(7).op(OP.i32Rotl).i32(9).op(OP.i32Mul).set('zr');
   f.get('zg1').i32(9).op(OP.i32Shl).set('zt');
   f.get('zg2').get('zg0').op(OP.i32Xor).set('zg2');
@@ -109,18 +109,16 @@ export function emitSlowNormal(f: FunctionBody): void {
 }
 
 /**
- * finish(tail, slow, draw): the draws of the lanes in `slow` (bits), finished one lane at a time.
- * The lanes' generator state is the group's four i32x4 at `generatorOffset` (word w of lane l at
- * +16·w + 4·l), their first outputs at `firstOutputOffset`, and the draw's value of lane l goes
- * to `draw` + 8·l. A lane in `tail` (base layer) starts the rare branch from its first output;
- * the others failed the wedge test and go on with the next output, fast test first, as
- * normalSlowPath's loop does.
+ * finish(lanes, draw): the draws of the lanes in `lanes` (bits), which reached the base layer's
+ * tail, finished one lane at a time by the rare branch from their first output. The lanes'
+ * generator state is the group's four i32x4 at `generatorOffset` (word w of lane l at
+ * +16·w + 4·l), their first outputs at `firstOutputOffset`, and lane l's draw goes to
+ * `draw` + 8·l. Every other lane is settled on four lanes in the hot loop (draw-wasm.ts).
  */
 export function finishLanes(generatorOffset: number, firstOutputOffset: number): FunctionBody {
   const f = new FunctionBody(
     [
-      ['tail', I32],
-      ['slow', I32],
+      ['lanes', I32],
       ['draw', I32],
     ],
     [],
@@ -128,51 +126,24 @@ export function finishLanes(generatorOffset: number, firstOutputOffset: number):
   declareSlowNormalLocals(f);
   f.local('a', I32);
   f.local('j', I32);
-  f.local('rfs', F64);
-  const inTail = (): void => void f.get('tail').get('a').op(OP.i32ShrU).i32(1).op(OP.i32And);
-  f.loop('lanes', () => {
+  f.loop('next', () => {
     // The lowest lane still to finish; clear its bit.
-    f.get('slow').op(OP.i32Ctz).set('a');
-    f.get('slow').get('slow').i32(1).op(OP.i32Sub).op(OP.i32And).set('slow');
+    f.get('lanes').op(OP.i32Ctz).set('a');
+    f.get('lanes').get('lanes').i32(1).op(OP.i32Sub).op(OP.i32And).set('lanes');
     f.get('a').i32(4).op(OP.i32Mul).set('j');
     for (let w = 0; w < 4; w++)
       f.get('j')
         .load(OP.i32Load, 2, generatorOffset + 16 * w)
         .set(`zg${w}`);
-    f.block('laneDone', () => {
-      inTail();
-      f.if(
-        () => f.get('j').load(OP.i32Load, 2, firstOutputOffset).set('zhz'),
-        () => {
-          next(f);
-          f.get('zr').set('zhz');
-        },
-      );
-      f.get('zhz').i32(127).op(OP.i32And).set('ziz');
-      inTail();
-      f.op(OP.i32Eqz);
-      f.if(() => {
-        f.get('zhz').op(OP.f64ConvertI32S).set('rfs');
-        f.get('rfs').get('rfs').op(OP.f64Mul);
-        f.get('ziz')
-          .i32(16)
-          .op(OP.i32Mul)
-          .load(OP.f64Load, 3, TABLE_OFFSET + 8);
-        f.op(OP.f64Lt);
-        f.if(() => {
-          f.get('rfs');
-          f.get('ziz').i32(16).op(OP.i32Mul).load(OP.f64Load, 3, TABLE_OFFSET);
-          f.op(OP.f64Mul).set('zout').br('laneDone');
-        });
-      });
-      emitSlowNormal(f);
-    });
+    f.get('j').load(OP.i32Load, 2, firstOutputOffset).set('zhz');
+    f.get('zhz').i32(127).op(OP.i32And).set('ziz');
+    emitSlowNormal(f);
     for (let w = 0; w < 4; w++)
       f.get('j')
         .get(`zg${w}`)
         .store(OP.i32Store, 2, generatorOffset + 16 * w);
     f.get('a').i32(8).op(OP.i32Mul).get('draw').op(OP.i32Add).get('zout').store(OP.f64Store, 3);
-    f.get('slow').brIf('lanes');
+    f.get('lanes').brIf('next');
   });
   return f;
 }
